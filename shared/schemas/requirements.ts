@@ -1,0 +1,159 @@
+import { z } from "zod";
+import { finite, nonNegative, positive, vec3, mat4 } from "./common";
+
+/**
+ * Requirement set: one cell scenario, SI units (m, rad, kg, N, N·m, m/s).
+ *
+ * Frames: the cell frame C is the world of the scenario. `base` places the arm's base frame B in
+ * C (T_C_B, row-major 4×4). Target positions and orientations are given in C. The tool is
+ * attached after the arm's own `tool` transform (flange → arm tool point); `tool.tcp` is
+ * arm tool point → TCP. The payload CoG is given in the TCP frame. Forces and moments a target
+ * requires are what the tool must apply to the environment, expressed in C.
+ *
+ * Orientation convention (stated on screen): roll-pitch-yaw about the fixed cell axes X, then Y,
+ * then Z, so R = Rz(yaw) · Ry(pitch) · Rx(roll).
+ */
+export const CONSTRAINT_MODES = ["pose", "axis", "point"] as const;
+export type ConstraintMode = (typeof CONSTRAINT_MODES)[number];
+
+export const targetSchema = z.object({
+  name: z.string().trim().min(1, "must not be empty").max(80),
+  /** Position of the TCP in the cell frame (m). */
+  position: vec3,
+  /** Roll, pitch, yaw (rad) about fixed X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll). */
+  rpy: vec3,
+  /** pose = full 6-D; axis = position + tool z direction, free spin; point = position only. */
+  mode: z.enum(CONSTRAINT_MODES, { error: "must be pose, axis or point" }),
+  /** Position tolerance (m). */
+  positionTolerance: positive.max(0.1, "must be at most 100 mm").default(1e-5),
+  /** Rotation tolerance (rad). */
+  rotationTolerance: positive.max(0.5, "must be at most 28.6°").default(1e-4),
+  /** Force the tool must apply to the environment, in the cell frame (N). */
+  force: vec3.optional(),
+  /** Moment the tool must apply, in the cell frame (N·m). */
+  moment: vec3.optional(),
+});
+export type Target = z.infer<typeof targetSchema>;
+
+export const waypointSchema = z.object({
+  position: vec3,
+  rpy: vec3,
+});
+
+export const pathSchema = z.object({
+  name: z.string().trim().min(1, "must not be empty").max(80),
+  /** Ordered waypoints, linearly interpolated (position linear, orientation by slerp). */
+  waypoints: z.array(waypointSchema).min(2, "a path needs at least 2 waypoints").max(200),
+  mode: z.enum(CONSTRAINT_MODES, { error: "must be pose, axis or point" }).default("axis"),
+  /** Sample step along the path (m). */
+  step: positive.min(1e-4, "must be at least 0.1 mm").max(1, "must be at most 1000 mm"),
+  /** Required TCP speed along the path (m/s). */
+  speed: positive.max(10, "must be at most 10 000 mm/s"),
+});
+export type PathSpec = z.infer<typeof pathSchema>;
+
+/** Datasheet fields a spec requirement can test, with the SI unit they are stored in. */
+export const SPEC_FIELDS = {
+  ratedPayload: { label: "Rated payload", unit: "kg", kind: "number" },
+  reach: { label: "Reach", unit: "m", kind: "number" },
+  repeatability: { label: "Pose repeatability (ISO 9283 RP)", unit: "m", kind: "number" },
+  armMass: { label: "Arm mass", unit: "kg", kind: "number" },
+  axes: { label: "Number of axes", unit: "", kind: "number" },
+  price: { label: "Price", unit: "currency", kind: "number" },
+  leadTimeWeeks: { label: "Lead time", unit: "weeks", kind: "number" },
+  ipCode: { label: "IP code (IEC 60529)", unit: "", kind: "ip" },
+  mounting: { label: "Mounting", unit: "", kind: "mounting" },
+  collaborative: { label: "Collaborative", unit: "", kind: "boolean" },
+} as const;
+export type SpecField = keyof typeof SPEC_FIELDS;
+export const SPEC_FIELD_NAMES = Object.keys(SPEC_FIELDS) as SpecField[];
+
+export const COMPARATORS = ["atLeast", "atMost", "equals", "includes"] as const;
+export type Comparator = (typeof COMPARATORS)[number];
+
+export const specRequirementSchema = z
+  .object({
+    field: z.enum(SPEC_FIELD_NAMES as [SpecField, ...SpecField[]], { error: "is not a known datasheet field" }),
+    /** atLeast (≥), atMost (≤), equals (=), includes (mounting). For IP codes atLeast is digit by digit. */
+    comparator: z.enum(COMPARATORS, { error: "must be atLeast, atMost, equals or includes" }),
+    /** SI number, IP code string, mounting name, or boolean, by field kind. */
+    value: z.union([finite, z.string().trim().min(1).max(40), z.boolean()]),
+    priority: z.enum(["must", "want"], { error: "must be must or want" }),
+    note: z.string().max(400).optional(),
+  })
+  .superRefine((r, ctx) => {
+    const kind = SPEC_FIELDS[r.field].kind;
+    const bad = (message: string, path: string[] = ["value"]) => ctx.addIssue({ code: "custom", path, message });
+    if (kind === "number" && typeof r.value !== "number") bad(`${r.field} needs a number, got ${JSON.stringify(r.value)}`);
+    if (kind === "number" && r.comparator === "includes") bad(`"includes" applies to mounting only`, ["comparator"]);
+    if (kind === "ip") {
+      if (typeof r.value !== "string" || !/^IP[0-6X][0-9X]$/i.test(r.value)) bad(`ipCode needs a code such as IP54 or IPX7, got ${JSON.stringify(r.value)}`);
+      if (r.comparator === "atMost" || r.comparator === "includes") bad(`IP codes compare with atLeast or equals`, ["comparator"]);
+    }
+    if (kind === "mounting") {
+      if (typeof r.value !== "string" || !["floor", "ceiling", "wall", "angled"].includes(r.value)) bad(`mounting must be floor, ceiling, wall or angled, got ${JSON.stringify(r.value)}`);
+      if (r.comparator !== "includes") bad(`mounting compares with includes`, ["comparator"]);
+    }
+    if (kind === "boolean") {
+      if (typeof r.value !== "boolean") bad(`collaborative needs true or false, got ${JSON.stringify(r.value)}`);
+      if (r.comparator !== "equals") bad(`collaborative compares with equals`, ["comparator"]);
+    }
+  });
+export type SpecRequirement = z.infer<typeof specRequirementSchema>;
+
+/** Ranking weights (≥ 0, any scale; normalised by their sum when scoring). */
+export const weightsSchema = z.object({
+  coverage: nonNegative.default(4),
+  dexterity: nonNegative.default(2),
+  payload: nonNegative.default(1),
+  force: nonNegative.default(1),
+  pathSpeed: nonNegative.default(1),
+  price: nonNegative.default(1),
+});
+export type Weights = z.infer<typeof weightsSchema>;
+export const DEFAULT_WEIGHTS: Weights = { coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, price: 1 };
+
+export const obstacleSchema = z.discriminatedUnion("shape", [
+  z.object({ shape: z.literal("box"), name: z.string().max(80).optional(), center: vec3, size: z.tuple([positive, positive, positive]) }),
+  z.object({ shape: z.literal("sphere"), name: z.string().max(80).optional(), center: vec3, radius: positive }),
+]);
+
+export const requirementSetSchema = z
+  .object({
+    name: z.string().trim().min(1, "must not be empty").max(120),
+    description: z.string().max(4000).optional(),
+    /** Arm base pose in the cell frame, T_C_B (row-major 4×4). */
+    base: mat4,
+    tool: z.object({
+      /** Arm tool point → TCP (row-major 4×4). */
+      tcp: mat4,
+      /** Tool mass (kg). */
+      mass: nonNegative,
+      /** Tool CoG in the arm tool-point (flange side) frame (m). */
+      cog: vec3,
+      /** Principal inertia about the CoG (kg·m²), optional. */
+      inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
+    }),
+    payload: z.object({
+      /** Payload mass (kg). */
+      mass: nonNegative,
+      /** Payload CoG in the TCP frame (m). */
+      cog: vec3,
+      inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
+    }),
+    targets: z.array(targetSchema).max(500, "at most 500 targets"),
+    paths: z.array(pathSchema).max(50, "at most 50 paths"),
+    specs: z.array(specRequirementSchema).max(100, "at most 100 spec requirements"),
+    obstacles: z.array(obstacleSchema).max(100).optional(),
+    weights: weightsSchema.default(DEFAULT_WEIGHTS),
+  })
+  .superRefine((rs, ctx) => {
+    const seen = new Map<string, number>();
+    rs.targets.forEach((t, i) => {
+      if (seen.has(t.name)) ctx.addIssue({ code: "custom", path: ["targets", i, "name"], message: `target name "${t.name}" is used twice (rows ${seen.get(t.name)! + 1} and ${i + 1})` });
+      seen.set(t.name, i);
+    });
+  });
+export type RequirementSet = z.infer<typeof requirementSetSchema>;
+/** Input type (defaults not yet applied), e.g. what a file holds. */
+export type RequirementSetInput = z.input<typeof requirementSetSchema>;

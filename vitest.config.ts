@@ -1,0 +1,44 @@
+import path from "node:path";
+import { defineConfig } from "vitest/config";
+
+const alias = { "@": path.resolve(__dirname) };
+
+// Three projects: pure unit tests, database tests on temporary SQLite files, and browser tests
+// against a built server in headless chromium. `npm test` runs them in that order.
+export default defineConfig({
+  resolve: { alias },
+  test: {
+    projects: [
+      {
+        resolve: { alias },
+        test: {
+          name: "unit",
+          include: ["tests/**/*.test.ts"],
+          exclude: ["tests/db/**", "tests/browser/**", "tests/api/**"],
+          environment: "node",
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "db",
+          include: ["tests/db/**/*.test.ts", "tests/api/**/*.test.ts"],
+          environment: "node",
+          pool: "forks",
+          testTimeout: 30_000,
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "browser",
+          include: ["tests/browser/**/*.test.ts"],
+          environment: "node",
+          fileParallelism: false,
+          testTimeout: 120_000,
+          hookTimeout: 300_000,
+        },
+      },
+    ],
+  },
+});
