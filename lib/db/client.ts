@@ -1,0 +1,53 @@
+import path from "node:path";
+import { PrismaBetterSQLite3 } from "@prisma/adapter-better-sqlite3";
+import { PrismaClient } from "./generated/client";
+
+export type Db = PrismaClient;
+/** The client handed to a `$transaction` callback. */
+export type Tx = Parameters<Parameters<PrismaClient["$transaction"]>[0]>[0];
+
+/** Milliseconds a connection waits for another writer before giving up (SQLite busy_timeout). */
+export const BUSY_TIMEOUT_MS = 5000;
+
+/**
+ * Resolves the database URL: DATABASE_URL if set, else `file:` + ARMSIFT_DB
+ * (default ./data/armsift.db, relative to the current directory).
+ */
+export function databaseUrl(env: NodeJS.ProcessEnv = process.env): string {
+  if (env.DATABASE_URL) return env.DATABASE_URL;
+  return `file:${env.ARMSIFT_DB ?? path.join(".", "data", "armsift.db")}`;
+}
+
+/** Opens every connection with WAL journaling, a busy timeout and foreign keys enforced. */
+class ArmsiftSqliteAdapter extends PrismaBetterSQLite3 {
+  override async connect(): ReturnType<PrismaBetterSQLite3["connect"]> {
+    const adapter = await super.connect();
+    await adapter.executeScript(
+      `PRAGMA journal_mode = WAL; PRAGMA busy_timeout = ${BUSY_TIMEOUT_MS}; PRAGMA foreign_keys = ON; PRAGMA synchronous = NORMAL;`,
+    );
+    return adapter;
+  }
+}
+
+/** Creates a client for the given SQLite URL (`file:<path>`). The app uses the shared one from `db()`. */
+export function createDb(url: string = databaseUrl()): Db {
+  const adapter = new ArmsiftSqliteAdapter({ url, timeout: BUSY_TIMEOUT_MS });
+  // Interactive transactions queue on the adapter's single connection: allow for waiting.
+  return new PrismaClient({ adapter, transactionOptions: { maxWait: 10_000, timeout: 20_000 } });
+}
+
+const globalCache = globalThis as unknown as { __armsiftDb?: Db };
+let instance: Db | undefined;
+
+/**
+ * The one client of this process, created on first use from ARMSIFT_DB / DATABASE_URL.
+ * In development it is cached on globalThis so hot reloads do not open new connections.
+ */
+export function db(): Db {
+  if (process.env.NODE_ENV === "development") {
+    globalCache.__armsiftDb ??= createDb();
+    return globalCache.__armsiftDb;
+  }
+  instance ??= createDb();
+  return instance;
+}
