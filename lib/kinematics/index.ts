@@ -1,0 +1,40 @@
+/**
+ * Public surface of the kinematics library (pure, synchronous, SI units, row-major matrices).
+ * See types.ts for the notation, frames and memory order.
+ */
+export type {
+  ArmData,
+  ArmKinematics,
+  ArmModel,
+  DhConvention,
+  IkMode,
+  IkMultiOptions,
+  IkOptions,
+  IkResult,
+  JointType,
+  JointVector,
+  Mat4,
+} from "./types";
+export { createModel } from "./model";
+export { createData } from "./data";
+export { forwardKinematics } from "./forward";
+export { computeJacobian, computeLinkPointJacobian } from "./jacobian";
+export {
+  LIMIT_EPSILON,
+  maxJointDistance,
+  neutralConfiguration,
+  randomConfiguration,
+  withinLimits,
+  wrapToLimits,
+} from "./configuration";
+export { createRng, type Rng } from "./rng";
+export {
+  mat4Create,
+  mat4FromPositionRpy,
+  mat4InvertRigid,
+  mat4MulRigid,
+  positionDistance,
+  rotationAngleBetween,
+  zAxisAngleBetween,
+} from "./math/mat4";
+export { minSingularValue } from "./math/linalg";
