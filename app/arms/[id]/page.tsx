@@ -1,0 +1,16 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { getArm } from "@/lib/db";
+import { allowed, requireUser } from "@/app/_lib/session";
+import { ArmEditor } from "@/components/arm/ArmEditor";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Arm" };
+
+export default async function ArmPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const user = await requireUser(`/arms/${id}`);
+  const rec = await getArm(id);
+  if (!rec) notFound();
+  return <ArmEditor key={`${rec.id}-${rec.revision}`} id={rec.id} revision={rec.revision} initial={rec.arm} canWrite={allowed(user, "arm:write")} deleted={rec.deletedAt !== null} />;
+}

@@ -1,0 +1,32 @@
+import type { Metadata } from "next";
+import { listArms } from "@/lib/db";
+import { allowed, requireUser } from "@/app/_lib/session";
+import { ArmCatalog, type ArmRow } from "@/components/arm/ArmCatalog";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Arms" };
+
+export default async function ArmsPage() {
+  const user = await requireUser("/arms");
+  const arms = await listArms({ deleted: "include" });
+  const rows: ArmRow[] = arms.map((a) => ({
+    id: a.id,
+    name: a.name,
+    maker: a.maker,
+    modelCode: a.modelCode,
+    axes: a.axes,
+    revision: a.revision,
+    updatedAt: a.updatedAt.toISOString(),
+    updatedBy: a.updatedBy?.name ?? null,
+    deletedAt: a.deletedAt ? a.deletedAt.toISOString() : null,
+    specs: {
+      reach: a.specs.reach,
+      ratedPayload: a.specs.ratedPayload,
+      repeatability: a.specs.repeatability,
+      ipCode: a.specs.ipCode,
+      price: a.specs.price,
+      currency: a.specs.currency,
+    },
+  }));
+  return <ArmCatalog arms={rows} canWrite={allowed(user, "arm:write")} />;
+}

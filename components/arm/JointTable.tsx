@@ -1,0 +1,160 @@
+"use client";
+import { CellNumber } from "../fields";
+import { moveItem } from "../pose";
+import { JOINT_LABEL, jointFieldUnit, newJointRow, type JointNumField, type JointRow, type JointType } from "./armForm";
+
+const MAIN: JointNumField[] = ["a", "alpha", "d", "theta", "min", "max", "maxSpeed", "maxTorque", "mass"];
+
+function headerUnit(f: JointNumField, rows: JointRow[]): string {
+  const units = new Set(rows.map((r) => jointFieldUnit(f, r.type)));
+  if (units.size === 0) units.add(jointFieldUnit(f, "revolute"));
+  return [...units].join(" or ");
+}
+
+/** Editable DH table: one row per joint, in order from the base. */
+export function JointTable(props: {
+  rows: JointRow[];
+  onChange: (rows: JointRow[], structural?: boolean) => void;
+  errors: Record<string, string[]>;
+  readOnly: boolean;
+  maxJoints: number;
+}) {
+  const { rows, errors, readOnly } = props;
+  const set = (i: number, patch: Partial<JointRow>) => props.onChange(rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
+  const e = (i: number, f: string) => errors[`joints.${i}.${f}`]?.join("; ");
+  const comErr = (i: number) =>
+    [errors[`joints.${i}.com`], errors[`joints.${i}.com.0`], errors[`joints.${i}.com.1`], errors[`joints.${i}.com.2`]].flat().filter(Boolean).join("; ") || undefined;
+
+  return (
+    <>
+      <div className="table-wrap">
+        <table className="cell-table" data-testid="joint-table">
+          <caption className="visually-hidden">DH parameters and limits per joint</caption>
+          <thead>
+            <tr>
+              <th scope="col">Joint</th>
+              <th scope="col">Type</th>
+              {MAIN.map((f) => (
+                <th scope="col" key={f} className="num">
+                  {JOINT_LABEL[f]} ({headerUnit(f, rows)})
+                </th>
+              ))}
+              <th scope="col">CoM x y z (mm)</th>
+              <th scope="col" className="num">
+                {JOINT_LABEL.radius} (mm)
+              </th>
+              {!readOnly && <th scope="col">Order</th>}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r, i) => {
+              const rowErr = errors[`joints.${i}`]?.join("; ");
+              const n = i + 1;
+              return (
+                <tr key={r.key} data-row={n}>
+                  <th scope="row" className="idx">
+                    {n}
+                    {rowErr && <span className="err">{rowErr}</span>}
+                  </th>
+                  <td>
+                    <label className="visually-hidden" htmlFor={`jt-${r.key}`}>
+                      joint {n} type
+                    </label>
+                    <select
+                      id={`jt-${r.key}`}
+                      name={`joints.${i}.type`}
+                      value={r.type}
+                      disabled={readOnly}
+                      onChange={(ev) => set(i, { type: ev.target.value as JointType })}
+                    >
+                      <option value="revolute">revolute</option>
+                      <option value="prismatic">prismatic</option>
+                    </select>
+                  </td>
+                  {MAIN.map((f) => (
+                    <td key={f}>
+                      <CellNumber
+                        label={`joint ${n} ${JOINT_LABEL[f]} (${jointFieldUnit(f, r.type)})`}
+                        name={`joints.${i}.${f}`}
+                        value={r[f]}
+                        readOnly={readOnly}
+                        error={e(i, f)}
+                        onChange={(v) => set(i, { [f]: v })}
+                      />
+                    </td>
+                  ))}
+                  <td>
+                    <div className="com-cell">
+                      {(["comX", "comY", "comZ"] as const).map((f) => (
+                        <CellNumber
+                          key={f}
+                          className="nm"
+                          label={`joint ${n} ${JOINT_LABEL[f]} (mm)`}
+                          name={`joints.${i}.${f}`}
+                          value={r[f]}
+                          readOnly={readOnly}
+                          onChange={(v) => set(i, { [f]: v })}
+                        />
+                      ))}
+                    </div>
+                    {comErr(i) && <span className="err">{comErr(i)}</span>}
+                  </td>
+                  <td>
+                    <CellNumber
+                      className="nm"
+                      label={`joint ${n} ${JOINT_LABEL.radius} (mm)`}
+                      name={`joints.${i}.radius`}
+                      value={r.radius}
+                      readOnly={readOnly}
+                      error={e(i, "radius")}
+                      onChange={(v) => set(i, { radius: v })}
+                    />
+                  </td>
+                  {!readOnly && (
+                    <td>
+                      <div className="row-actions">
+                        <button type="button" className="small" aria-label={`Move joint ${n} up`} disabled={i === 0} onClick={() => props.onChange(moveItem(rows, i, -1), true)}>
+                          ↑
+                        </button>
+                        <button
+                          type="button"
+                          className="small"
+                          aria-label={`Move joint ${n} down`}
+                          disabled={i === rows.length - 1}
+                          onClick={() => props.onChange(moveItem(rows, i, 1), true)}
+                        >
+                          ↓
+                        </button>
+                        <button
+                          type="button"
+                          className="small danger"
+                          aria-label={`Remove joint ${n}`}
+                          disabled={rows.length <= 1}
+                          onClick={() => props.onChange(rows.filter((_, k) => k !== i), true)}
+                        >
+                          Remove
+                        </button>
+                      </div>
+                    </td>
+                  )}
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+      {errors["joints"] && <p className="err">{errors["joints"].join("; ")}</p>}
+      {!readOnly && (
+        <div className="toolbar">
+          <button type="button" disabled={rows.length >= props.maxJoints} onClick={() => props.onChange([...rows, newJointRow("revolute")], true)}>
+            Add revolute joint
+          </button>
+          <button type="button" disabled={rows.length >= props.maxJoints} onClick={() => props.onChange([...rows, newJointRow("prismatic")], true)}>
+            Add prismatic joint
+          </button>
+          <span className="hint">Up to {props.maxJoints} joints. Empty optional cells mean “not stated”.</span>
+        </div>
+      )}
+    </>
+  );
+}

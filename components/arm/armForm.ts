@@ -1,0 +1,420 @@
+/**
+ * Form state of the arm editor and its conversion to and from the interchange ArmDocument.
+ * The form shows mm, degrees, kg, N·m (N for prismatic), and keeps every value as typed text;
+ * values that were loaded and not edited are sent back exactly as loaded (no rounding drift).
+ */
+import { armSchema, toFieldErrors, type ArmDocument, type FieldError, type Mounting } from "@/shared/schemas";
+import { degToRad, jointFromDisplay, jointToDisplay, jointUnit, mmToM, mToMm, radToDeg } from "@/shared/units";
+import { parseNum, parsePose, poseMatrix, poseTextFromMatrix, rowKey, samePose, show, isZeroPose, type PoseText } from "../pose";
+
+export type JointType = "revolute" | "prismatic";
+export const JOINT_NUM_FIELDS = ["a", "alpha", "d", "theta", "min", "max", "maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ", "radius"] as const;
+export type JointNumField = (typeof JOINT_NUM_FIELDS)[number];
+
+export interface JointRow {
+  key: string;
+  type: JointType;
+  a: string;
+  alpha: string;
+  d: string;
+  theta: string;
+  min: string;
+  max: string;
+  maxSpeed: string;
+  maxTorque: string;
+  mass: string;
+  comX: string;
+  comY: string;
+  comZ: string;
+  radius: string;
+  /** Values as loaded: text shown and the SI value behind it, with the joint type then. */
+  orig?: { type: JointType; values: Partial<Record<JointNumField, { text: string; si: number }>> };
+}
+
+export interface WristRow {
+  key: string;
+  joint: string;
+  moment: string;
+  inertia: string;
+}
+
+export interface ArmForm {
+  name: string;
+  maker: string;
+  modelCode: string;
+  description: string;
+  convention: "dh" | "mdh";
+  joints: JointRow[];
+  base: PoseText;
+  tool: PoseText;
+  baseOrig?: { text: PoseText; matrix: number[] };
+  toolOrig?: { text: PoseText; matrix: number[] };
+  specs: {
+    ratedPayload: string;
+    reach: string;
+    repeatability: string;
+    armMass: string;
+    ipCode: string;
+    mounting: Mounting[];
+    wristAllowables: WristRow[];
+    collaborative: "" | "yes" | "no";
+    price: string;
+    currency: string;
+    leadTimeWeeks: string;
+  };
+  /** Spec numbers as loaded (text, SI). */
+  specOrig?: Partial<Record<string, { text: string; si: number }>>;
+}
+
+/** Column labels with units; one source for the table header, paste preview and messages. */
+export const JOINT_LABEL: Record<JointNumField, string> = {
+  a: "a",
+  alpha: "α",
+  d: "d",
+  theta: "θ",
+  min: "min",
+  max: "max",
+  maxSpeed: "max speed",
+  maxTorque: "max torque",
+  mass: "link mass",
+  comX: "CoM x",
+  comY: "CoM y",
+  comZ: "CoM z",
+  radius: "collision radius",
+};
+
+/** Unit shown for a joint column. */
+export function jointFieldUnit(field: JointNumField, type: JointType): string {
+  switch (field) {
+    case "alpha":
+    case "theta":
+      return "°";
+    case "min":
+    case "max":
+      return jointUnit(type);
+    case "maxSpeed":
+      return type === "revolute" ? "°/s" : "mm/s";
+    case "maxTorque":
+      return type === "revolute" ? "N·m" : "N";
+    case "mass":
+      return "kg";
+    default:
+      return "mm";
+  }
+}
+
+/** SI → shown number for a joint field. */
+export function jointFieldToDisplay(field: JointNumField, type: JointType, si: number): number {
+  switch (field) {
+    case "alpha":
+    case "theta":
+      return radToDeg(si);
+    case "min":
+    case "max":
+    case "maxSpeed":
+      return jointToDisplay(type, si);
+    case "maxTorque":
+    case "mass":
+      return si;
+    default:
+      return mToMm(si);
+  }
+}
+
+export function jointFieldFromDisplay(field: JointNumField, type: JointType, shown: number): number {
+  switch (field) {
+    case "alpha":
+    case "theta":
+      return degToRad(shown);
+    case "min":
+    case "max":
+    case "maxSpeed":
+      return jointFromDisplay(type, shown);
+    case "maxTorque":
+    case "mass":
+      return shown;
+    default:
+      return mmToM(shown);
+  }
+}
+
+export function newJointRow(type: JointType = "revolute"): JointRow {
+  return {
+    key: rowKey(),
+    type,
+    a: "0",
+    alpha: "0",
+    d: "0",
+    theta: "0",
+    min: type === "revolute" ? "-180" : "0",
+    max: type === "revolute" ? "180" : "500",
+    maxSpeed: "",
+    maxTorque: "",
+    mass: "",
+    comX: "",
+    comY: "",
+    comZ: "",
+    radius: "",
+  };
+}
+
+export function emptyArmForm(): ArmForm {
+  return {
+    name: "",
+    maker: "",
+    modelCode: "",
+    description: "",
+    convention: "dh",
+    joints: [newJointRow()],
+    base: { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" },
+    tool: { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" },
+    specs: {
+      ratedPayload: "",
+      reach: "",
+      repeatability: "",
+      armMass: "",
+      ipCode: "",
+      mounting: [],
+      wristAllowables: [],
+      collaborative: "",
+      price: "",
+      currency: "EUR",
+      leadTimeWeeks: "",
+    },
+  };
+}
+
+const SPEC_TO_DISPLAY: Record<string, (si: number) => number> = {
+  ratedPayload: (v) => v,
+  reach: mToMm,
+  repeatability: mToMm,
+  armMass: (v) => v,
+  price: (v) => v,
+  leadTimeWeeks: (v) => v,
+};
+const SPEC_FROM_DISPLAY: Record<string, (v: number) => number> = {
+  ratedPayload: (v) => v,
+  reach: mmToM,
+  repeatability: mmToM,
+  armMass: (v) => v,
+  price: (v) => v,
+  leadTimeWeeks: (v) => v,
+};
+
+export function armFormFromDoc(doc: ArmDocument): ArmForm {
+  const joints: JointRow[] = doc.joints.map((j) => {
+    const si: Record<JointNumField, number | undefined> = {
+      a: j.a,
+      alpha: j.alpha,
+      d: j.d,
+      theta: j.theta,
+      min: j.min,
+      max: j.max,
+      maxSpeed: j.maxSpeed,
+      maxTorque: j.maxTorque,
+      mass: j.mass,
+      comX: j.com?.[0],
+      comY: j.com?.[1],
+      comZ: j.com?.[2],
+      radius: j.radius,
+    };
+    const row = { ...newJointRow(j.type), orig: { type: j.type, values: {} as NonNullable<JointRow["orig"]>["values"] } };
+    for (const f of JOINT_NUM_FIELDS) {
+      const v = si[f];
+      const text = v === undefined ? "" : show(jointFieldToDisplay(f, j.type, v));
+      row[f] = text;
+      if (v !== undefined) row.orig.values[f] = { text, si: v };
+    }
+    return row;
+  });
+  const s = doc.specs ?? {};
+  const specOrig: NonNullable<ArmForm["specOrig"]> = {};
+  const specText = (k: keyof typeof SPEC_TO_DISPLAY): string => {
+    const v = (s as Record<string, unknown>)[k];
+    if (typeof v !== "number") return "";
+    const text = show(SPEC_TO_DISPLAY[k](v));
+    specOrig[k] = { text, si: v };
+    return text;
+  };
+  const base = poseTextFromMatrix(doc.base);
+  const tool = poseTextFromMatrix(doc.tool);
+  return {
+    name: doc.name,
+    maker: doc.maker ?? "",
+    modelCode: doc.modelCode ?? "",
+    description: doc.description ?? "",
+    convention: doc.convention,
+    joints,
+    base,
+    tool,
+    baseOrig: doc.base ? { text: { ...base }, matrix: doc.base.slice() } : undefined,
+    toolOrig: doc.tool ? { text: { ...tool }, matrix: doc.tool.slice() } : undefined,
+    specs: {
+      ratedPayload: specText("ratedPayload"),
+      reach: specText("reach"),
+      repeatability: specText("repeatability"),
+      armMass: specText("armMass"),
+      ipCode: s.ipCode ?? "",
+      mounting: (s.mounting ?? []).slice(),
+      wristAllowables: (s.wristAllowables ?? []).map((w) => ({
+        key: rowKey(),
+        joint: String(w.joint),
+        moment: w.moment === undefined ? "" : show(w.moment),
+        inertia: w.inertia === undefined ? "" : show(w.inertia),
+      })),
+      collaborative: s.collaborative === undefined ? "" : s.collaborative ? "yes" : "no",
+      price: specText("price"),
+      currency: s.currency ?? "",
+      leadTimeWeeks: specText("leadTimeWeeks"),
+    },
+    specOrig,
+  };
+}
+
+const SPEC_LABEL: Record<string, string> = {
+  ratedPayload: "rated payload",
+  reach: "reach",
+  repeatability: "pose repeatability",
+  armMass: "arm mass",
+  price: "price",
+  leadTimeWeeks: "lead time",
+};
+
+/**
+ * Converts the form to an ArmDocument. `errors` holds values that are not numbers (with the
+ * document path they would have had); the document is only complete when errors is empty.
+ */
+export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldError[] } {
+  const errors: FieldError[] = [];
+  const joints = form.joints.map((row, i) => {
+    const get = (f: JointNumField, path: string): number | undefined => {
+      const o = row.orig?.type === row.type ? row.orig.values[f] : undefined;
+      if (o && o.text === row[f].trim()) return o.si;
+      const v = parseNum(row[f]);
+      if (v === "bad") {
+        errors.push({ path, message: `joint ${i + 1} ${JOINT_LABEL[f]} '${row[f].trim()}' is not a number` });
+        return undefined;
+      }
+      return v === undefined ? undefined : jointFieldFromDisplay(f, row.type, v);
+    };
+    const need = (f: JointNumField): number => {
+      const v = get(f, `joints.${i}.${f}`);
+      if (v === undefined && row[f].trim() === "") errors.push({ path: `joints.${i}.${f}`, message: `joint ${i + 1} ${JOINT_LABEL[f]} is required` });
+      return v ?? 0;
+    };
+    const joint: ArmDocument["joints"][number] = {
+      type: row.type,
+      a: need("a"),
+      alpha: need("alpha"),
+      d: need("d"),
+      theta: need("theta"),
+      min: need("min"),
+      max: need("max"),
+    };
+    const maxSpeed = get("maxSpeed", `joints.${i}.maxSpeed`);
+    if (maxSpeed !== undefined) joint.maxSpeed = maxSpeed;
+    const maxTorque = get("maxTorque", `joints.${i}.maxTorque`);
+    if (maxTorque !== undefined) joint.maxTorque = maxTorque;
+    const mass = get("mass", `joints.${i}.mass`);
+    if (mass !== undefined) joint.mass = mass;
+    const radius = get("radius", `joints.${i}.radius`);
+    if (radius !== undefined) joint.radius = radius;
+    const cx = get("comX", `joints.${i}.com.0`);
+    const cy = get("comY", `joints.${i}.com.1`);
+    const cz = get("comZ", `joints.${i}.com.2`);
+    if (cx !== undefined || cy !== undefined || cz !== undefined) joint.com = [cx ?? 0, cy ?? 0, cz ?? 0];
+    return joint;
+  });
+
+  const transform = (text: PoseText, orig: ArmForm["baseOrig"], key: "base" | "tool"): number[] | undefined => {
+    if (orig && samePose(orig.text, text)) return orig.matrix;
+    const parsed = parsePose(text, key);
+    if (!parsed.ok) {
+      for (const [k, message] of Object.entries(parsed.errors)) errors.push({ path: `${key}.${k}`, message: message! });
+      return undefined;
+    }
+    if (isZeroPose(text)) return undefined;
+    return poseMatrix(parsed.p, parsed.rpy);
+  };
+
+  const sp = form.specs;
+  const specs: NonNullable<ArmDocument["specs"]> = {};
+  for (const k of Object.keys(SPEC_FROM_DISPLAY) as (keyof typeof SPEC_FROM_DISPLAY)[]) {
+    const text = (sp as unknown as Record<string, string>)[k];
+    const o = form.specOrig?.[k];
+    if (o && o.text === text.trim()) {
+      (specs as Record<string, number>)[k] = o.si;
+      continue;
+    }
+    const v = parseNum(text);
+    if (v === "bad") errors.push({ path: `specs.${k}`, message: `${SPEC_LABEL[k]} '${text.trim()}' is not a number` });
+    else if (v !== undefined) (specs as Record<string, number>)[k] = SPEC_FROM_DISPLAY[k](v);
+  }
+  if (sp.ipCode.trim()) specs.ipCode = sp.ipCode.trim();
+  if (sp.mounting.length) specs.mounting = sp.mounting.slice();
+  if (sp.collaborative) specs.collaborative = sp.collaborative === "yes";
+  if (sp.currency.trim()) specs.currency = sp.currency.trim().toUpperCase();
+  if (sp.wristAllowables.length) {
+    specs.wristAllowables = sp.wristAllowables.map((w, i) => {
+      const out: { joint: number; moment?: number; inertia?: number } = { joint: 0 };
+      const j = parseNum(w.joint);
+      if (j === "bad" || j === undefined || !Number.isInteger(j))
+        errors.push({ path: `specs.wristAllowables.${i}.joint`, message: `wrist row ${i + 1} joint '${w.joint.trim()}' is not a joint number` });
+      else out.joint = j;
+      const m = parseNum(w.moment);
+      if (m === "bad") errors.push({ path: `specs.wristAllowables.${i}.moment`, message: `wrist row ${i + 1} moment '${w.moment.trim()}' is not a number` });
+      else if (m !== undefined) out.moment = m;
+      const n = parseNum(w.inertia);
+      if (n === "bad") errors.push({ path: `specs.wristAllowables.${i}.inertia`, message: `wrist row ${i + 1} inertia '${w.inertia.trim()}' is not a number` });
+      else if (n !== undefined) out.inertia = n;
+      return out;
+    });
+  }
+
+  const doc: ArmDocument = {
+    name: form.name,
+    convention: form.convention,
+    joints,
+  };
+  if (form.maker.trim()) doc.maker = form.maker.trim();
+  if (form.modelCode.trim()) doc.modelCode = form.modelCode.trim();
+  if (form.description.trim()) doc.description = form.description;
+  const base = transform(form.base, form.baseOrig, "base");
+  if (base) doc.base = base;
+  const tool = transform(form.tool, form.toolOrig, "tool");
+  if (tool) doc.tool = tool;
+  if (Object.keys(specs).length) doc.specs = specs;
+  return { doc, errors };
+}
+
+/** Client-side check with the shared schema, plus the not-a-number errors of the form. */
+export function validateArmForm(form: ArmForm): { doc: ArmDocument; errors: FieldError[] } {
+  const { doc, errors } = armFormToDoc(form);
+  if (errors.length) return { doc, errors };
+  const r = armSchema.safeParse(doc);
+  return { doc, errors: r.success ? [] : toFieldErrors(r.error) };
+}
+
+/** A readable name for an error path, e.g. "joints.2.max" → "joint 3 max". */
+export function armPathLabel(path: string): string {
+  const p = path.split(".");
+  if (p[0] === "joints" && p.length >= 2) {
+    const n = Number(p[1]) + 1;
+    if (p.length === 2) return `joint ${n}`;
+    const f = p[2] === "com" ? "CoM" + (p[3] !== undefined ? " " + "xyz"[Number(p[3])] : "") : (JOINT_LABEL as Record<string, string>)[p[2]] ?? p[2];
+    return `joint ${n} ${f}`;
+  }
+  if (p[0] === "specs") {
+    if (p[1] === "wristAllowables" && p.length >= 3) return `wrist row ${Number(p[2]) + 1}${p[3] ? " " + p[3] : ""}`;
+    return SPEC_LABEL[p[1]] ?? p[1] ?? "specs";
+  }
+  if (p[0] === "base") return "base transform";
+  if (p[0] === "tool") return "tool transform";
+  return p[0] === "modelCode" ? "model code" : p[0] || "arm";
+}
+
+/** "label: message" unless the message already names the field. */
+export function describeError(e: FieldError, label: (path: string) => string): string {
+  const l = label(e.path);
+  return e.message.toLowerCase().startsWith(l.toLowerCase()) || /^(joint|row|wrist|target|path|spec|base|tool) /i.test(e.message) ? e.message : `${l}: ${e.message}`;
+}
