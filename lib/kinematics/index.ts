@@ -38,3 +38,4 @@ export {
   zAxisAngleBetween,
 } from "./math/mat4";
 export { minSingularValue } from "./math/linalg";
+export { IK_DEFAULTS, solveIk, solveIkMulti } from "./inverse";
