@@ -1,7 +1,8 @@
 import path from "node:path";
 import { defineConfig } from "vitest/config";
 
-const alias = { "@": path.resolve(__dirname) };
+// `server-only` guards app code against client bundles; under vitest it resolves to its empty module.
+const alias = { "@": path.resolve(__dirname), "server-only": path.resolve(__dirname, "node_modules/server-only/empty.js") };
 
 // Three projects: pure unit tests, database tests on temporary SQLite files, and browser tests
 // against a built server in headless chromium. `npm test` runs them in that order.

@@ -10,20 +10,30 @@ const isObject = (v: unknown): v is Record<string, unknown> =>
  * Iterative, so deeply nested documents cannot overflow the stack.
  */
 export function jsonDiff(base: unknown, current: unknown): Change[] {
+  // Paths are linked lists of segments (shared prefixes), joined only for reported changes.
+  interface PathNode {
+    seg: string;
+    parent: PathNode | null;
+  }
+  const join = (p: PathNode | null): string => {
+    const segs: string[] = [];
+    for (let n = p; n; n = n.parent) segs.push(n.seg);
+    return segs.reverse().join(".");
+  };
   const out: Change[] = [];
-  const stack: { path: string[]; a: unknown; b: unknown }[] = [{ path: [], a: base, b: current }];
+  const stack: { path: PathNode | null; a: unknown; b: unknown }[] = [{ path: null, a: base, b: current }];
   while (stack.length > 0) {
     const { path, a, b } = stack.pop()!;
     if (Object.is(a, b)) continue;
-    const children: { path: string[]; a: unknown; b: unknown }[] = [];
+    const children: { path: PathNode; a: unknown; b: unknown }[] = [];
     if (Array.isArray(a) && Array.isArray(b)) {
       const n = Math.max(a.length, b.length);
-      for (let i = 0; i < n; i++) children.push({ path: [...path, String(i)], a: i < a.length ? a[i] : null, b: i < b.length ? b[i] : null });
+      for (let i = 0; i < n; i++) children.push({ path: { seg: String(i), parent: path }, a: i < a.length ? a[i] : null, b: i < b.length ? b[i] : null });
     } else if (isObject(a) && isObject(b)) {
       const keys = [...Object.keys(a), ...Object.keys(b).filter((k) => !(k in a))];
-      for (const k of keys) children.push({ path: [...path, k], a: a[k] ?? null, b: b[k] ?? null });
+      for (const k of keys) children.push({ path: { seg: k, parent: path }, a: a[k] ?? null, b: b[k] ?? null });
     } else {
-      out.push({ path: path.join("."), base: a ?? null, current: b ?? null });
+      out.push({ path: join(path), base: a ?? null, current: b ?? null });
       continue;
     }
     // Push in reverse so the output follows document order.

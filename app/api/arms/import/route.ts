@@ -1,0 +1,4 @@
+import { armRoutes as r } from "@/lib/http/api-stores";
+
+export const dynamic = "force-dynamic";
+export const POST = r.import;

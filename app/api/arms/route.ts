@@ -1,0 +1,5 @@
+import { armRoutes as r } from "@/lib/http/api-stores";
+
+export const dynamic = "force-dynamic";
+export const GET = r.list;
+export const POST = r.create;

@@ -1,0 +1,4 @@
+import { me } from "@/lib/http/auth-routes";
+
+export const dynamic = "force-dynamic";
+export const GET = me;

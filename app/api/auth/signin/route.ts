@@ -1,0 +1,4 @@
+import { signIn } from "@/lib/http/auth-routes";
+
+export const dynamic = "force-dynamic";
+export const POST = signIn;

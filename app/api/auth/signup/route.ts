@@ -1,0 +1,4 @@
+import { signUp } from "@/lib/http/auth-routes";
+
+export const dynamic = "force-dynamic";
+export const POST = signUp;

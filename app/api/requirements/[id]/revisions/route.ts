@@ -1,0 +1,4 @@
+import { requirementRoutes as r } from "@/lib/http/api-stores";
+
+export const dynamic = "force-dynamic";
+export const GET = r.revisions;

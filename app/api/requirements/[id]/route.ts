@@ -1,0 +1,6 @@
+import { requirementRoutes as r } from "@/lib/http/api-stores";
+
+export const dynamic = "force-dynamic";
+export const GET = r.get;
+export const PUT = r.update;
+export const DELETE = r.remove;

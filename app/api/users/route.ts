@@ -1,0 +1,4 @@
+import { usersList } from "@/lib/http/auth-routes";
+
+export const dynamic = "force-dynamic";
+export const GET = usersList;

@@ -1,0 +1,127 @@
+import { z } from "zod";
+import type { Action } from "@/lib/auth/permissions";
+import type { DeletedFilter } from "@/lib/db/documents";
+import { notFound } from "./errors";
+import { readJsonObject } from "./body";
+import { json, parseWith, requireUser, route, type RouteContext } from "./route";
+
+/** What the generic document endpoints need from one kind of revisioned document. */
+export interface DocumentStore<D> {
+  /** Response key of the document: "arm" or "requirementSet". */
+  key: string;
+  /** Human name, e.g. "arm" or "requirement set". */
+  noun: string;
+  read: Action;
+  write: Action;
+  schema: z.ZodType<D>;
+  list(opts: { deleted?: DeletedFilter }): Promise<unknown[]>;
+  get(id: string): Promise<{ id: string; revision: number; createdAt: Date; updatedAt: Date; deletedAt: Date | null; doc: D } | null>;
+  create(userId: string, doc: D, action: "create" | "import"): Promise<{ id: string; revision: number; doc: D }>;
+  update(userId: string, id: string, baseRevision: number, doc: D): Promise<{ id: string; revision: number; doc: D }>;
+  softDelete(userId: string, id: string): Promise<{ id: string; deletedAt: Date | null }>;
+  restore(userId: string, id: string): Promise<{ id: string; deletedAt: Date | null }>;
+  revisions(id: string): Promise<unknown[] | null>;
+  revision(id: string, rev: number): Promise<{ revision: number; createdAt: Date; author: unknown; doc: D } | null>;
+}
+
+const listQuery = z.object({
+  deleted: z.enum(["exclude", "include", "only"], { error: "must be include, only or exclude" }).optional(),
+});
+
+/** ASCII file name for an export, from the document's name. */
+function exportFileName(name: string, suffix: string): string {
+  const slug = name.normalize("NFKD").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 80) || "export";
+  return `${slug}.${suffix}.json`;
+}
+
+/** Route handlers for list/get/create/update/delete/restore/revisions/export/import of one kind. */
+export function documentRoutes<D extends { name: string }>(store: DocumentStore<D>) {
+  const updateBody = z.object({
+    baseRevision: z.number({ error: "must be the revision number your edit is based on" }).int("must be an integer").min(1, "must be ≥ 1"),
+    [store.key]: store.schema,
+  });
+  const missing = (id: string) => notFound(`${store.noun} ${id} does not exist`);
+
+  return {
+    list: route(async (req) => {
+      await requireUser(req, store.read);
+      const q = parseWith(listQuery, Object.fromEntries(new URL(req.url).searchParams));
+      return json({ [`${store.key === "arm" ? "arms" : "requirementSets"}`]: await store.list({ deleted: q.deleted }) });
+    }),
+
+    create: route(async (req) => {
+      const user = await requireUser(req, store.write);
+      const doc = parseWith(store.schema, await readJsonObject(req));
+      const r = await store.create(user.id, doc, "create");
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc }, 201);
+    }),
+
+    import: route(async (req) => {
+      const user = await requireUser(req, store.write);
+      const doc = parseWith(store.schema, await readJsonObject(req));
+      const r = await store.create(user.id, doc, "import");
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc }, 201);
+    }),
+
+    get: route<{ id: string }>(async (req, ctx) => {
+      await requireUser(req, store.read);
+      const { id } = await ctx.params;
+      const r = await store.get(id);
+      if (!r) throw missing(id);
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc, createdAt: r.createdAt, updatedAt: r.updatedAt, deletedAt: r.deletedAt });
+    }),
+
+    update: route<{ id: string }>(async (req, ctx) => {
+      const user = await requireUser(req, store.write);
+      const { id } = await ctx.params;
+      const body = parseWith(updateBody, await readJsonObject(req)) as { baseRevision: number } & Record<string, unknown>;
+      const r = await store.update(user.id, id, body.baseRevision, body[store.key] as D);
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc });
+    }),
+
+    remove: route<{ id: string }>(async (req, ctx) => {
+      const user = await requireUser(req, store.write);
+      const { id } = await ctx.params;
+      return json(await store.softDelete(user.id, id));
+    }),
+
+    restore: route<{ id: string }>(async (req, ctx) => {
+      const user = await requireUser(req, store.write);
+      const { id } = await ctx.params;
+      return json(await store.restore(user.id, id));
+    }),
+
+    revisions: route<{ id: string }>(async (req, ctx) => {
+      await requireUser(req, store.read);
+      const { id } = await ctx.params;
+      const revisions = await store.revisions(id);
+      if (!revisions) throw missing(id);
+      return json({ revisions });
+    }),
+
+    revision: route<{ id: string; rev: string }>(async (req, ctx) => {
+      await requireUser(req, store.read);
+      const { id, rev } = await ctx.params;
+      const n = /^[1-9]\d{0,8}$/.test(rev) ? Number(rev) : NaN;
+      const r = Number.isInteger(n) ? await store.revision(id, n) : null;
+      if (!r) throw notFound(`${store.noun} ${id} has no revision ${rev}`);
+      return json({ revision: r.revision, [store.key]: r.doc, createdAt: r.createdAt, author: r.author });
+    }),
+
+    export: route<{ id: string }>(async (req, ctx) => {
+      await requireUser(req, store.read);
+      const { id } = await ctx.params;
+      const r = await store.get(id);
+      if (!r) throw missing(id);
+      const file = exportFileName(r.doc.name, store.key === "arm" ? "arm" : "requirements");
+      return new Response(JSON.stringify(r.doc, null, 2) + "\n", {
+        status: 200,
+        headers: {
+          "content-type": "application/json; charset=utf-8",
+          "content-disposition": `attachment; filename="${file}"`,
+          "x-armsift-revision": String(r.revision),
+        },
+      });
+    }),
+  };
+}
