@@ -1,0 +1,25 @@
+import type { Metadata } from "next";
+import { notFound } from "next/navigation";
+import { getRequirementSet } from "@/lib/db";
+import { allowed, requireUser } from "@/app/_lib/session";
+import { RequirementEditor } from "@/components/requirements/RequirementEditor";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Requirement set" };
+
+export default async function RequirementPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const user = await requireUser(`/requirements/${id}`);
+  const rec = await getRequirementSet(id);
+  if (!rec) notFound();
+  return (
+    <RequirementEditor
+      key={`${rec.id}-${rec.revision}`}
+      id={rec.id}
+      revision={rec.revision}
+      initial={rec.requirementSet}
+      canWrite={allowed(user, "req:write")}
+      deleted={rec.deletedAt !== null}
+    />
+  );
+}

@@ -1,0 +1,27 @@
+import type { Metadata } from "next";
+import { listRequirementSets } from "@/lib/db";
+import { allowed, requireUser } from "@/app/_lib/session";
+import { RequirementList } from "@/components/requirements/RequirementList";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Requirement sets" };
+
+export default async function RequirementsPage() {
+  const user = await requireUser("/requirements");
+  const sets = await listRequirementSets({ deleted: "include" });
+  return (
+    <RequirementList
+      canWrite={allowed(user, "req:write")}
+      sets={sets.map((s) => ({
+        id: s.id,
+        name: s.name,
+        targets: s.targets,
+        paths: s.paths,
+        revision: s.revision,
+        updatedAt: s.updatedAt.toISOString(),
+        updatedBy: s.updatedBy?.name ?? null,
+        deletedAt: s.deletedAt ? s.deletedAt.toISOString() : null,
+      }))}
+    />
+  );
+}

@@ -1,0 +1,395 @@
+/**
+ * Form state of the requirement-set editor and its conversion to and from RequirementSet (SI).
+ * Shown units: mm, degrees, kg, N, N·m, mm/s. Values kept as typed text; loaded values that were
+ * not edited go back exactly as loaded.
+ */
+import {
+  COMPARATORS,
+  DEFAULT_WEIGHTS,
+  SPEC_FIELDS,
+  requirementSetSchema,
+  toFieldErrors,
+  type Comparator,
+  type ConstraintMode,
+  type FieldError,
+  type RequirementSet,
+  type SpecField,
+  type Weights,
+} from "@/shared/schemas";
+import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
+import { matrixPose, parseNum, poseMatrix, rowKey, show, type PoseText } from "../pose";
+
+type Conv = "mm" | "deg" | "same";
+const toShown = (c: Conv, si: number) => (c === "mm" ? mToMm(si) : c === "deg" ? radToDeg(si) : si);
+const fromShown = (c: Conv, v: number) => (c === "mm" ? mmToM(v) : c === "deg" ? degToRad(v) : v);
+
+export interface TargetRow {
+  key: string;
+  name: string;
+  x: string; y: string; z: string;
+  roll: string; pitch: string; yaw: string;
+  mode: ConstraintMode;
+  posTol: string;
+  rotTol: string;
+  fx: string; fy: string; fz: string;
+  mx: string; my: string; mz: string;
+}
+export interface WaypointRow {
+  key: string;
+  x: string; y: string; z: string;
+  roll: string; pitch: string; yaw: string;
+}
+export interface PathForm {
+  key: string;
+  name: string;
+  mode: ConstraintMode;
+  step: string;
+  speed: string;
+  waypoints: WaypointRow[];
+}
+export interface SpecRow {
+  key: string;
+  field: SpecField;
+  comparator: Comparator;
+  value: string;
+  priority: "must" | "want";
+  note: string;
+}
+export type WeightKey = keyof Weights;
+export const WEIGHT_KEYS: WeightKey[] = ["coverage", "dexterity", "payload", "force", "pathSpeed", "price"];
+export const WEIGHT_LABEL: Record<WeightKey, string> = {
+  coverage: "Target coverage",
+  dexterity: "Dexterity margin",
+  payload: "Payload margin",
+  force: "Force margin",
+  pathSpeed: "Path speed",
+  price: "Price",
+};
+
+export interface ReqForm {
+  name: string;
+  description: string;
+  base: PoseText;
+  tcp: PoseText;
+  toolMass: string;
+  toolCog: [string, string, string];
+  payloadMass: string;
+  payloadCog: [string, string, string];
+  targets: TargetRow[];
+  paths: PathForm[];
+  specs: SpecRow[];
+  weights: Record<WeightKey, string>;
+  /** Parts the form does not edit, carried through unchanged. */
+  keep: { toolInertia?: [number, number, number]; payloadInertia?: [number, number, number]; obstacles?: RequirementSet["obstacles"] };
+  /** Loaded values: id → text shown and SI value. */
+  orig: Record<string, { text: string; si: number }>;
+  /** Loaded transforms: id → texts and matrix. */
+  origPose: Record<string, { text: PoseText; matrix: number[] }>;
+}
+
+export const COMPARATOR_LABEL: Record<Comparator, string> = { atLeast: "at least (≥)", atMost: "at most (≤)", equals: "equals (=)", includes: "includes" };
+
+export function comparatorsFor(field: SpecField): Comparator[] {
+  const kind = SPEC_FIELDS[field].kind;
+  if (kind === "number") return ["atLeast", "atMost", "equals"];
+  if (kind === "ip") return ["atLeast", "equals"];
+  if (kind === "mounting") return ["includes"];
+  return ["equals"];
+}
+
+/** Unit shown for a spec field's value; reach and repeatability are entered in mm. */
+export function specUnit(field: SpecField): string {
+  const u = SPEC_FIELDS[field].unit;
+  if (u === "m") return "mm";
+  if (u === "currency") return "in the arm's currency";
+  return u;
+}
+
+export function newTarget(n: number): TargetRow {
+  return { key: rowKey(), name: `T${n}`, x: "500", y: "0", z: "300", roll: "180", pitch: "0", yaw: "0", mode: "pose", posTol: "0.01", rotTol: "0.01", fx: "", fy: "", fz: "", mx: "", my: "", mz: "" };
+}
+export function newWaypoint(from?: WaypointRow): WaypointRow {
+  return from ? { ...from, key: rowKey() } : { key: rowKey(), x: "500", y: "0", z: "300", roll: "180", pitch: "0", yaw: "0" };
+}
+export function newPath(n: number): PathForm {
+  const a = newWaypoint();
+  return { key: rowKey(), name: `Path ${n}`, mode: "axis", step: "5", speed: "100", waypoints: [a, { ...newWaypoint(a), y: "200" }] };
+}
+export function newSpec(): SpecRow {
+  return { key: rowKey(), field: "ratedPayload", comparator: "atLeast", value: "", priority: "must", note: "" };
+}
+
+const ZERO: PoseText = { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" };
+
+export function emptyReqForm(): ReqForm {
+  return {
+    name: "",
+    description: "",
+    base: { ...ZERO },
+    tcp: { ...ZERO },
+    toolMass: "0",
+    toolCog: ["0", "0", "0"],
+    payloadMass: "0",
+    payloadCog: ["0", "0", "0"],
+    targets: [],
+    paths: [],
+    specs: [],
+    weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, String(DEFAULT_WEIGHTS[k])])) as Record<WeightKey, string>,
+    keep: {},
+    orig: {},
+    origPose: {},
+  };
+}
+
+export function reqFormFromDoc(doc: RequirementSet): ReqForm {
+  const orig: ReqForm["orig"] = {};
+  const origPose: ReqForm["origPose"] = {};
+  const t = (id: string, si: number | undefined, c: Conv): string => {
+    if (si === undefined) return "";
+    const text = show(toShown(c, si));
+    orig[id] = { text, si };
+    return text;
+  };
+  const pose = (id: string, m: number[]): PoseText => {
+    const { p, rpy } = matrixPose(m);
+    const text: PoseText = {
+      x: show(mToMm(p[0])), y: show(mToMm(p[1])), z: show(mToMm(p[2])),
+      roll: show(radToDeg(rpy[0])), pitch: show(radToDeg(rpy[1])), yaw: show(radToDeg(rpy[2])),
+    };
+    origPose[id] = { text: { ...text }, matrix: m.slice() };
+    return text;
+  };
+  const targets = doc.targets.map((tg): TargetRow => {
+    const key = rowKey();
+    return {
+      key,
+      name: tg.name,
+      x: t(`${key}.x`, tg.position[0], "mm"), y: t(`${key}.y`, tg.position[1], "mm"), z: t(`${key}.z`, tg.position[2], "mm"),
+      roll: t(`${key}.roll`, tg.rpy[0], "deg"), pitch: t(`${key}.pitch`, tg.rpy[1], "deg"), yaw: t(`${key}.yaw`, tg.rpy[2], "deg"),
+      mode: tg.mode,
+      posTol: t(`${key}.posTol`, tg.positionTolerance, "mm"),
+      rotTol: t(`${key}.rotTol`, tg.rotationTolerance, "deg"),
+      fx: t(`${key}.fx`, tg.force?.[0], "same"), fy: t(`${key}.fy`, tg.force?.[1], "same"), fz: t(`${key}.fz`, tg.force?.[2], "same"),
+      mx: t(`${key}.mx`, tg.moment?.[0], "same"), my: t(`${key}.my`, tg.moment?.[1], "same"), mz: t(`${key}.mz`, tg.moment?.[2], "same"),
+    };
+  });
+  const paths = doc.paths.map((p): PathForm => {
+    const key = rowKey();
+    return {
+      key,
+      name: p.name,
+      mode: p.mode,
+      step: t(`${key}.step`, p.step, "mm"),
+      speed: t(`${key}.speed`, p.speed, "mm"),
+      waypoints: p.waypoints.map((w) => {
+        const k = rowKey();
+        return {
+          key: k,
+          x: t(`${k}.x`, w.position[0], "mm"), y: t(`${k}.y`, w.position[1], "mm"), z: t(`${k}.z`, w.position[2], "mm"),
+          roll: t(`${k}.roll`, w.rpy[0], "deg"), pitch: t(`${k}.pitch`, w.rpy[1], "deg"), yaw: t(`${k}.yaw`, w.rpy[2], "deg"),
+        };
+      }),
+    };
+  });
+  const specs = doc.specs.map((s): SpecRow => {
+    const key = rowKey();
+    const kind = SPEC_FIELDS[s.field].kind;
+    let value: string;
+    if (typeof s.value === "number") value = t(`${key}.value`, s.value, SPEC_FIELDS[s.field].unit === "m" ? "mm" : "same");
+    else if (typeof s.value === "boolean") value = s.value ? "yes" : "no";
+    else value = s.value;
+    if (kind === "boolean" && typeof s.value !== "boolean") value = String(s.value);
+    return { key, field: s.field, comparator: s.comparator, value, priority: s.priority, note: s.note ?? "" };
+  });
+  const w = doc.weights ?? DEFAULT_WEIGHTS;
+  return {
+    name: doc.name,
+    description: doc.description ?? "",
+    base: pose("base", doc.base),
+    tcp: pose("tcp", doc.tool.tcp),
+    toolMass: t("toolMass", doc.tool.mass, "same"),
+    toolCog: [t("toolCog.0", doc.tool.cog[0], "mm"), t("toolCog.1", doc.tool.cog[1], "mm"), t("toolCog.2", doc.tool.cog[2], "mm")],
+    payloadMass: t("payloadMass", doc.payload.mass, "same"),
+    payloadCog: [t("payloadCog.0", doc.payload.cog[0], "mm"), t("payloadCog.1", doc.payload.cog[1], "mm"), t("payloadCog.2", doc.payload.cog[2], "mm")],
+    targets,
+    paths,
+    specs,
+    weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, t(`w.${k}`, w[k], "same")])) as Record<WeightKey, string>,
+    keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia, obstacles: doc.obstacles },
+    orig,
+    origPose,
+  };
+}
+
+/** Converts the form; `errors` lists entries that are not numbers, at their document paths. */
+export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: FieldError[] } {
+  const errors: FieldError[] = [];
+  const num = (id: string, text: string, c: Conv, path: string, what: string, required = true): number | undefined => {
+    const o = form.orig[id];
+    if (o && o.text === text.trim()) return o.si;
+    const v = parseNum(text);
+    if (v === "bad") {
+      errors.push({ path, message: `${what} '${text.trim()}' is not a number` });
+      return undefined;
+    }
+    if (v === undefined) {
+      if (required) errors.push({ path, message: `${what} is required` });
+      return undefined;
+    }
+    return fromShown(c, v);
+  };
+  const pose = (id: string, text: PoseText, path: string, what: string): number[] => {
+    const o = form.origPose[id];
+    if (o && (["x", "y", "z", "roll", "pitch", "yaw"] as const).every((k) => o.text[k] === text[k].trim())) return o.matrix;
+    const p = (["x", "y", "z"] as const).map((k) => num("", text[k], "mm", `${path}.${k}`, `${what} ${k}`) ?? 0) as [number, number, number];
+    const r = (["roll", "pitch", "yaw"] as const).map((k) => num("", text[k], "deg", `${path}.${k}`, `${what} ${k}`) ?? 0) as [number, number, number];
+    return poseMatrix(p, r);
+  };
+  const vec = (ids: string[], texts: string[], c: Conv, path: string, what: string, optional: boolean): [number, number, number] | undefined => {
+    if (optional && texts.every((s) => s.trim() === "")) return undefined;
+    return texts.map((s, i) => num(ids[i], s, c, `${path}.${i}`, `${what} ${"xyz"[i]}`) ?? 0) as [number, number, number];
+  };
+
+  const targets = form.targets.map((t, i) => {
+    const w = `target ${i + 1}${t.name.trim() ? ` (${t.name.trim()})` : ""}`;
+    const k = t.key;
+    const target: RequirementSet["targets"][number] = {
+      name: t.name,
+      position: vec([`${k}.x`, `${k}.y`, `${k}.z`], [t.x, t.y, t.z], "mm", `targets.${i}.position`, `${w}`, false)!,
+      rpy: (["roll", "pitch", "yaw"] as const).map((a, j) => num(`${k}.${a}`, t[a], "deg", `targets.${i}.rpy.${j}`, `${w} ${a}`) ?? 0) as [number, number, number],
+      mode: t.mode,
+      positionTolerance: num(`${k}.posTol`, t.posTol, "mm", `targets.${i}.positionTolerance`, `${w} position tolerance`) ?? 0,
+      rotationTolerance: num(`${k}.rotTol`, t.rotTol, "deg", `targets.${i}.rotationTolerance`, `${w} rotation tolerance`) ?? 0,
+    };
+    const force = vec([`${k}.fx`, `${k}.fy`, `${k}.fz`], [t.fx, t.fy, t.fz], "same", `targets.${i}.force`, `${w} force`, true);
+    if (force) target.force = force;
+    const moment = vec([`${k}.mx`, `${k}.my`, `${k}.mz`], [t.mx, t.my, t.mz], "same", `targets.${i}.moment`, `${w} moment`, true);
+    if (moment) target.moment = moment;
+    return target;
+  });
+
+  const paths = form.paths.map((p, i) => {
+    const w = `path ${i + 1}${p.name.trim() ? ` (${p.name.trim()})` : ""}`;
+    return {
+      name: p.name,
+      mode: p.mode,
+      step: num(`${p.key}.step`, p.step, "mm", `paths.${i}.step`, `${w} sample step`) ?? 0,
+      speed: num(`${p.key}.speed`, p.speed, "mm", `paths.${i}.speed`, `${w} tool speed`) ?? 0,
+      waypoints: p.waypoints.map((wp, j) => {
+        const k = wp.key;
+        const ww = `${w} waypoint ${j + 1}`;
+        return {
+          position: vec([`${k}.x`, `${k}.y`, `${k}.z`], [wp.x, wp.y, wp.z], "mm", `paths.${i}.waypoints.${j}.position`, ww, false)!,
+          rpy: (["roll", "pitch", "yaw"] as const).map((a, n) => num(`${k}.${a}`, wp[a], "deg", `paths.${i}.waypoints.${j}.rpy.${n}`, `${ww} ${a}`) ?? 0) as [number, number, number],
+        };
+      }),
+    };
+  });
+
+  const specs = form.specs.map((s, i) => {
+    const kind = SPEC_FIELDS[s.field].kind;
+    const w = `spec requirement ${i + 1} (${SPEC_FIELDS[s.field].label})`;
+    let value: number | string | boolean;
+    if (kind === "number") value = num(`${s.key}.value`, s.value, SPEC_FIELDS[s.field].unit === "m" ? "mm" : "same", `specs.${i}.value`, `${w} value`) ?? 0;
+    else if (kind === "boolean") value = s.value === "yes";
+    else value = kind === "ip" ? s.value.trim().toUpperCase() : s.value.trim();
+    const out: RequirementSet["specs"][number] = { field: s.field, comparator: s.comparator, value, priority: s.priority };
+    if (s.note.trim()) out.note = s.note.trim();
+    return out;
+  });
+
+  const weights = Object.fromEntries(WEIGHT_KEYS.map((k) => [k, num(`w.${k}`, form.weights[k], "same", `weights.${k}`, `${WEIGHT_LABEL[k]} weight`) ?? 0])) as Weights;
+
+  const tool: RequirementSet["tool"] = {
+    tcp: pose("tcp", form.tcp, "tool.tcp", "TCP offset"),
+    mass: num("toolMass", form.toolMass, "same", "tool.mass", "tool mass") ?? 0,
+    cog: vec(["toolCog.0", "toolCog.1", "toolCog.2"], form.toolCog, "mm", "tool.cog", "tool CoG", false)!,
+  };
+  if (form.keep.toolInertia) tool.inertia = form.keep.toolInertia;
+  const payload: RequirementSet["payload"] = {
+    mass: num("payloadMass", form.payloadMass, "same", "payload.mass", "payload mass") ?? 0,
+    cog: vec(["payloadCog.0", "payloadCog.1", "payloadCog.2"], form.payloadCog, "mm", "payload.cog", "payload CoG", false)!,
+  };
+  if (form.keep.payloadInertia) payload.inertia = form.keep.payloadInertia;
+
+  const doc: RequirementSet = {
+    name: form.name,
+    base: pose("base", form.base, "base", "base placement"),
+    tool,
+    payload,
+    targets,
+    paths,
+    specs,
+    weights,
+  };
+  if (form.description.trim()) doc.description = form.description;
+  if (form.keep.obstacles) doc.obstacles = form.keep.obstacles;
+  return { doc, errors };
+}
+
+export function validateReqForm(form: ReqForm): { doc: RequirementSet; errors: FieldError[] } {
+  const { doc, errors } = reqFormToDoc(form);
+  if (errors.length) return { doc, errors };
+  const r = requirementSetSchema.safeParse(doc);
+  return { doc, errors: r.success ? [] : toFieldErrors(r.error) };
+}
+
+/** A readable name for an error path, e.g. "targets.2.rpy.0" → "target 3 roll". */
+export function reqPathLabel(path: string): string {
+  const p = path.split(".");
+  const axis = (s: string | undefined, names = "xyz") => (s === undefined ? "" : " " + (names[Number(s)] ?? s));
+  switch (p[0]) {
+    case "targets": {
+      if (p.length < 2) return "targets";
+      const n = `target ${Number(p[1]) + 1}`;
+      if (p[2] === "rpy") return n + axis(p[3], "rpy").replace(" r", " roll").replace(" p", " pitch").replace(" y", " yaw");
+      if (p[2] === "position") return `${n} position${axis(p[3])}`;
+      if (p[2] === "positionTolerance") return `${n} position tolerance`;
+      if (p[2] === "rotationTolerance") return `${n} rotation tolerance`;
+      return p[2] ? `${n} ${p[2]}${axis(p[3])}` : n;
+    }
+    case "paths": {
+      if (p.length < 2) return "paths";
+      const n = `path ${Number(p[1]) + 1}`;
+      if (p[2] === "waypoints" && p[3] !== undefined) return `${n} waypoint ${Number(p[3]) + 1}${p[4] ? " " + p[4] : ""}`;
+      return p[2] ? `${n} ${p[2] === "step" ? "sample step" : p[2] === "speed" ? "tool speed" : p[2]}` : n;
+    }
+    case "specs":
+      return p.length > 1 ? `spec requirement ${Number(p[1]) + 1}${p[2] ? " " + p[2] : ""}` : "spec requirements";
+    case "weights":
+      return p[1] ? `${WEIGHT_LABEL[p[1] as WeightKey] ?? p[1]} weight` : "weights";
+    case "tool":
+      return p[1] === "tcp" ? "TCP offset" : `tool ${p[1] === "cog" ? "CoG" + axis(p[2]) : p[1] ?? ""}`.trim();
+    case "payload":
+      return `payload ${p[1] === "cog" ? "CoG" + axis(p[2]) : p[1] ?? ""}`.trim();
+    case "base":
+      return "base placement";
+    default:
+      return p[0] || "requirement set";
+  }
+}
+
+/** Readable values for the conflict list. */
+export function formatReqValue(path: string, value: unknown): string {
+  if (value === undefined || value === null) return "(not set)";
+  const p = path.split(".");
+  if (Array.isArray(value) && value.length === 16 && value.every((v) => typeof v === "number")) {
+    const { p: pos, rpy } = matrixPose(value as number[]);
+    return `x y z ${pos.map((v) => show(mToMm(v))).join(" ")} mm, rpy ${rpy.map((v) => show(radToDeg(v))).join(" ")}°`;
+  }
+  if (typeof value === "number") {
+    const last = p[p.length - 1];
+    const parent = p[p.length - 2];
+    if (parent === "rpy" || last === "rotationTolerance") return `${show(radToDeg(value))}°`;
+    if (parent === "position" || parent === "cog" || last === "positionTolerance" || last === "step") return `${show(mToMm(value))} mm`;
+    if (last === "speed") return `${show(mToMm(value))} mm/s`;
+    if (parent === "force") return `${show(value)} N`;
+    if (parent === "moment") return `${show(value)} N·m`;
+    if (last === "mass") return `${show(value)} kg`;
+    return show(value);
+  }
+  if (typeof value === "string") return value;
+  return JSON.stringify(value);
+}
+
+export { COMPARATORS };
