@@ -44,7 +44,7 @@ export const IK_DEFAULTS = Object.freeze({
   positionTolerance: 1e-5,
   rotationTolerance: 1e-4,
   seed: 1,
-  maxRestarts: 100,
+  maxRestarts: 300,
   maxIterations: 60,
   maxSolutions: 8,
   distinctThreshold: 0.1,

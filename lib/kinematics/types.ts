@@ -124,7 +124,7 @@ export interface IkOptions {
   rotationTolerance?: number;
   /** Seed of the restart generator (default 1). Same seed, same answer. */
   seed?: number;
-  /** Restarts from random in-limit configurations after the first attempt (default 100). */
+  /** Restarts from random in-limit configurations after the first attempt (default 300). */
   maxRestarts?: number;
   /** Iterations per attempt (default 60). */
   maxIterations?: number;

@@ -71,7 +71,8 @@ def random_arm(rng, n, convention, name):
 
 def build_chain(arm):
     chain = kdl.Chain()
-    chain.addSegment(kdl.Segment(kdl.Joint(kdl.Joint.Fixed), to_frame(arm["base"])))
+    if arm.get("base") is not None:
+        chain.addSegment(kdl.Segment(kdl.Joint(kdl.Joint.Fixed), to_frame(arm["base"])))
     for j in arm["joints"]:
         a, alpha, d, theta = j["a"], j["alpha"], j["d"], j["theta"]
         prismatic = j["type"] == "prismatic"
@@ -83,7 +84,8 @@ def build_chain(arm):
             jtype = kdl.Joint.TransAxis if prismatic else kdl.Joint.RotAxis
             joint = kdl.Joint(kdl.Vector(a, 0, 0), axis, jtype)
             chain.addSegment(kdl.Segment(joint, kdl.Frame.DH_Craig1989(a, alpha, d, theta)))
-    chain.addSegment(kdl.Segment(kdl.Joint(kdl.Joint.Fixed), to_frame(arm["tool"])))
+    if arm.get("tool") is not None:
+        chain.addSegment(kdl.Segment(kdl.Joint(kdl.Joint.Fixed), to_frame(arm["tool"])))
     return chain
 
 

@@ -1,0 +1,22 @@
+/**
+ * `npm run bench`: runs the kinematics benchmark, then the analysis benchmark when
+ * bench/analysis.ts exists (each module exports `async function run()`).
+ */
+import { existsSync } from "node:fs";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
+import { run as runKinematics } from "./kinematics";
+
+async function main(): Promise<void> {
+  await runKinematics();
+  const analysis = path.join(__dirname, "analysis.ts");
+  if (existsSync(analysis)) {
+    const mod = (await import(pathToFileURL(analysis).href)) as { run?: () => Promise<void> };
+    if (typeof mod.run === "function") await mod.run();
+  }
+}
+
+main().catch((e: unknown) => {
+  console.error(e);
+  process.exitCode = 1;
+});
