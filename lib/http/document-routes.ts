@@ -3,7 +3,7 @@ import type { Action } from "@/lib/auth/permissions";
 import type { DeletedFilter } from "@/lib/db/documents";
 import { notFound } from "./errors";
 import { readJsonObject } from "./body";
-import { json, parseWith, requireUser, route, type RouteContext } from "./route";
+import { json, parseWith, requireUser, route } from "./route";
 
 /** What the generic document endpoints need from one kind of revisioned document. */
 export interface DocumentStore<D> {

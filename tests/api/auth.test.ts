@@ -1,0 +1,131 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createTestDb, type TestDb } from "../db/helpers";
+import * as signup from "@/app/api/auth/signup/route";
+import * as signin from "@/app/api/auth/signin/route";
+import * as signout from "@/app/api/auth/signout/route";
+import * as me from "@/app/api/auth/me/route";
+import * as users from "@/app/api/users/route";
+import * as userById from "@/app/api/users/[id]/route";
+import * as health from "@/app/api/health/route";
+import { call, expectFieldError, sessionCookieOf } from "./client";
+import { signUp } from "./setup";
+
+let t: TestDb;
+beforeAll(() => {
+  t = createTestDb();
+});
+afterAll(async () => t.cleanup());
+
+describe("accounts over the API", () => {
+  it("answers the health check", async () => {
+    const res = health.GET();
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({ ok: true });
+  });
+
+  it("signs up (first admin, then viewer), signs in, reads /me and signs out", async () => {
+    const admin = await signUp("owner@example.test", "Olga Owner");
+    expect(admin.role).toBe("admin");
+    const later = await signUp("later@example.test", "Larry Later");
+    expect(later.role).toBe("viewer");
+
+    const r = await call(signin.POST, "/api/auth/signin", { body: { email: "Owner@Example.test", password: "a long enough password" } });
+    expect(r.status).toBe(200);
+    expect(r.body.user).toEqual({ id: admin.id, email: "owner@example.test", name: "Olga Owner", role: "admin" });
+    const setCookie = r.res.headers.get("set-cookie")!;
+    expect(setCookie).toMatch(/^armsift_session=[A-Za-z0-9_-]{43}; Path=\/; HttpOnly; SameSite=Lax; Max-Age=1209\d{3}; Expires=/);
+    expect(setCookie).not.toMatch(/Secure/);
+    const cookie = sessionCookieOf(r.res);
+
+    expect((await call(me.GET, "/api/auth/me", { cookie })).body.user.id).toBe(admin.id);
+    const out = await call(signout.POST, "/api/auth/signout", { method: "POST", cookie });
+    expect(out.status).toBe(204);
+    expect(out.res.headers.get("set-cookie")).toMatch(/armsift_session=; Path=\/; HttpOnly; SameSite=Lax; Max-Age=0/);
+    expect((await call(me.GET, "/api/auth/me", { cookie })).status).toBe(401);
+    expect((await call(me.GET, "/api/auth/me")).body.error.code).toBe("unauthenticated");
+  });
+
+  it("marks the cookie Secure behind an HTTPS proxy", async () => {
+    const r = await call(signup.POST, "/api/auth/signup", {
+      body: { email: "secure@example.test", name: "Sec", password: "a long enough password" },
+      headers: { "x-forwarded-proto": "https" },
+    });
+    expect(r.status).toBe(201);
+    expect(r.res.headers.get("set-cookie")).toMatch(/; Secure$/);
+  });
+
+  it("validates sign-up fields", async () => {
+    const r = await call(signup.POST, "/api/auth/signup", { body: { email: "not-an-email", name: "", password: "short" } });
+    expectFieldError(r, "email");
+    expectFieldError(r, "name");
+    expectFieldError(r, "password", /at least 10 characters/);
+    const dup = await call(signup.POST, "/api/auth/signup", { body: { email: "OWNER@example.test", name: "Dup", password: "a long enough password" } });
+    expectFieldError(dup, "email", /already exists/);
+  });
+
+  it("refuses a wrong password with 401 and rate-limits failures per email (429, Retry-After)", async () => {
+    await signUp("target@example.test", "Tara Target");
+    const attempt = (password: string, ip = "198.51.100.7") =>
+      call(signin.POST, "/api/auth/signin", { body: { email: "target@example.test", password }, headers: { "x-forwarded-for": ip } });
+    for (let i = 0; i < 5; i++) {
+      const r = await attempt("wrong password " + i, `198.51.100.${10 + i}`);
+      expect(r.status).toBe(401);
+      expect(r.body.error.code).toBe("unauthenticated");
+    }
+    // Sixth try, even with the right password and from another address: refused until the window passes.
+    const limited = await attempt("a long enough password", "198.51.100.99");
+    expect(limited.status).toBe(429);
+    expect(limited.body.error.code).toBe("rate-limited");
+    const retry = Number(limited.res.headers.get("retry-after"));
+    expect(retry).toBeGreaterThan(14 * 60);
+    expect(retry).toBeLessThanOrEqual(15 * 60);
+  });
+
+  it("rate-limits failures per client address (20 in 15 min), unknown emails included", async () => {
+    const ip = "203.0.113.5";
+    for (let i = 0; i < 20; i++) {
+      const r = await call(signin.POST, "/api/auth/signin", { body: { email: `nobody${i}@example.test`, password: "whatever it is" }, headers: { "x-forwarded-for": ip } });
+      expect(r.status).toBe(401);
+    }
+    const r = await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { "x-forwarded-for": ip } });
+    expect(r.status).toBe(429);
+    const other = await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { "x-forwarded-for": "203.0.113.6" } });
+    expect(other.status).toBe(200);
+  }, 60_000);
+
+  it("lets only an admin list users and change roles", async () => {
+    const admin = (await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { "x-forwarded-for": "192.0.2.1" } })).res;
+    const adminCookie = sessionCookieOf(admin);
+    const viewer = await signUp("plain@example.test", "Pat Plain");
+
+    expect((await call(users.GET, "/api/users")).status).toBe(401);
+    expect((await call(users.GET, "/api/users", { cookie: viewer.cookie })).status).toBe(403);
+    const list = await call(users.GET, "/api/users", { cookie: adminCookie });
+    expect(list.status).toBe(200);
+    expect(list.body.users.map((u: { email: string }) => u.email)).toContain("plain@example.test");
+    expect(Object.keys(list.body.users[0]).sort()).toEqual(["email", "id", "name", "role"]);
+
+    const patch = (cookie: string, id: string, body: unknown) => call(userById.PATCH, `/api/users/${id}`, { method: "PATCH", cookie, params: { id }, body });
+    expect((await patch(viewer.cookie, viewer.id, { role: "admin" })).status).toBe(403);
+    expectFieldError(await patch(adminCookie, viewer.id, { role: "owner" }), "role");
+    expect((await patch(adminCookie, "no-such-user", { role: "editor" })).status).toBe(404);
+    const promoted = await patch(adminCookie, viewer.id, { role: "editor" });
+    expect(promoted.status).toBe(200);
+    expect(promoted.body.user.role).toBe("editor");
+    expect((await call(me.GET, "/api/auth/me", { cookie: viewer.cookie })).body.user.role).toBe("editor");
+  });
+
+  it("refuses a state-changing request from another origin (403)", async () => {
+    const r = await call(signup.POST, "/api/auth/signup", {
+      body: { email: "csrf@example.test", name: "C", password: "a long enough password" },
+      headers: { origin: "https://attacker.example" },
+    });
+    expect(r.status).toBe(403);
+    expect(r.body.error.code).toBe("forbidden");
+    const same = await call(signup.POST, "/api/auth/signup", {
+      body: { email: "csrf@example.test", name: "C", password: "a long enough password" },
+      headers: { origin: "http://localhost:3000" },
+    });
+    expect(same.status).toBe(201);
+  });
+});
