@@ -337,8 +337,9 @@ function describeLimits(model: ArmModel, q: ArrayLike<number>): string {
  * "not-reached" with the best residual found within the budget of 1 + `maxRestarts` attempts of at
  * most `maxIterations` steps. Never throws for a numerical outcome.
  *
- * Writes data.frames/flange/toolPose (at the returned q), data.jacobian and data.ik scratch; the
- * returned `q` is a new array (the only allocation besides the result object).
+ * Writes data.frames/flange/toolPose (at the returned q), data.jacobian and data.ik scratch. The
+ * iteration loop does not allocate; each call allocates a few small objects (the restart
+ * generator, the neutral start when `initial` is absent, the result and its `q`).
  *
  * @throws RangeError on a foreign `data`, a malformed target, or invalid options.
  */
