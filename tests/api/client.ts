@@ -1,7 +1,6 @@
 // Calls route handlers directly with real Request objects (the database behind them is real).
 import { expect } from "vitest";
 
-type Handler = (req: Request, ctx: { params: Promise<Record<string, string>> }) => Response | Promise<Response>;
 
 export interface CallOptions {
   method?: string;
@@ -18,6 +17,8 @@ export const BASE = "http://localhost:3000";
 // Response bodies are inspected loosely in tests.
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type Body = any;
+
+type Handler = (req: Request, ctx: { params: Promise<Body> }) => Response | Promise<Response>;
 
 export async function call(handler: Handler, path: string, opts: CallOptions = {}): Promise<{ status: number; body: Body; res: Response }> {
   const headers: Record<string, string> = { host: "localhost:3000", ...opts.headers };
