@@ -72,14 +72,23 @@ export function svdRows(a: ArrayLike<number>, m: number, n: number, rowStart = 0
     for (let k = 0; k < n; k++) s += w[j * n + k] * w[j * n + k];
     norms[j] = Math.sqrt(s);
   }
-  // Sort descending (stable on index for ties, so the result is deterministic).
-  const order = Array.from({ length: m }, (_, j) => j).sort((x, y) => norms[y] - norms[x] || x - y);
+  // Sort descending (insertion sort, stable on index for ties, so the result is deterministic).
+  const order = new Int32Array(m);
+  for (let j = 0; j < m; j++) {
+    let p = j;
+    while (p > 0 && norms[order[p - 1]] < norms[j]) { order[p] = order[p - 1]; p--; }
+    order[p] = j;
+  }
+  let sorted = true;
+  for (let j = 0; j < m; j++) if (order[j] !== j) sorted = false;
+  if (sorted) return { m, n, sigma: norms, u, w };
   const sigma = new Float64Array(m), uS = new Float64Array(m * m), wS = new Float64Array(m * n);
-  order.forEach((src, dst) => {
+  for (let dst = 0; dst < m; dst++) {
+    const src = order[dst];
     sigma[dst] = norms[src];
     for (let r = 0; r < m; r++) uS[r * m + dst] = u[r * m + src];
     for (let k = 0; k < n; k++) wS[dst * n + k] = w[src * n + k];
-  });
+  }
   return { m, n, sigma, u: uS, w: wS };
 }
 

@@ -1,0 +1,66 @@
+/**
+ * The per-arm setup of an analysis: the arm placed in the cell with the requirement set's tool
+ * attached, its loads, and its structural Jacobian ranks.
+ *
+ * Frames: the model's world is the CELL frame. model.base = T_cell_base · arm.base and
+ * model.tool = arm.tool · tool.tcp, so the model's tool point is the requirement set's TCP and
+ * every Jacobian is expressed in the cell frame with gravity along −z of the cell (a tilted or
+ * hanging base therefore gets the right gravity direction).
+ */
+import type { ArmDocument } from "@/shared/schemas/arm";
+import type { RequirementSet } from "@/shared/schemas/requirements";
+import { computeJacobian, createData, createModel, createRng, randomConfiguration, type ArmData, type ArmModel } from "@/lib/kinematics";
+import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
+import { IDENTITY_4, invertRigid, mul4, transformPoint } from "./geometry";
+import type { PointLoad } from "./statics";
+
+export interface ArmContext {
+  model: ArmModel;
+  data: ArmData;
+  /** 6n scratch Jacobian. */
+  jac: Float64Array;
+  ranks: StructuralRanks;
+  /** Tool CoG in the TCP frame (m). */
+  toolCogInTcp: [number, number, number];
+  /** Loads carried at the flange side: tool and payload, points in the TCP frame. */
+  loads: PointLoad[];
+  /** Tool + payload mass (kg). */
+  loadMass: number;
+  /** tool.tcp (arm tool point → TCP) and its inverse. */
+  tcp: Float64Array;
+  tcpInverse: Float64Array;
+  /** True when at least one joint has a maxTorque / maxSpeed. */
+  hasTorqueLimits: boolean;
+  hasSpeedLimits: boolean;
+}
+
+/** Builds the context; throws RangeError (from createModel) on an invalid arm. */
+export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1): ArmContext {
+  const base = mul4(req.base, arm.base ?? IDENTITY_4);
+  const tcp = Float64Array.from(req.tool.tcp);
+  const tool = mul4(arm.tool ?? IDENTITY_4, tcp);
+  const model = createModel({ name: arm.name, convention: arm.convention, joints: arm.joints, base: Array.from(base), tool: Array.from(tool) });
+  const data = createData(model);
+  const jac = new Float64Array(6 * model.n);
+  const tcpInverse = invertRigid(tcp);
+  const toolCogInTcp = transformPoint(tcpInverse, req.tool.cog);
+  const loads: PointLoad[] = [];
+  if (req.tool.mass > 0) loads.push({ mass: req.tool.mass, pointInTool: toolCogInTcp });
+  if (req.payload.mass > 0) loads.push({ mass: req.payload.mass, pointInTool: req.payload.cog });
+  const rng = createRng(seed);
+  const q = new Float64Array(model.n);
+  const jacs: Float64Array[] = [];
+  for (let i = 0; i < 6; i++) {
+    randomConfiguration(model, rng, q);
+    jacs.push(Float64Array.from(computeJacobian(model, data, q, jac)));
+  }
+  let hasTorqueLimits = false, hasSpeedLimits = false;
+  for (let i = 0; i < model.n; i++) {
+    if (model.maxTorque[i] > 0) hasTorqueLimits = true;
+    if (model.maxSpeed[i] > 0) hasSpeedLimits = true;
+  }
+  return {
+    model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n), toolCogInTcp, loads,
+    loadMass: req.tool.mass + req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
+  };
+}

@@ -1,0 +1,356 @@
+/**
+ * Path analysis: samples along the waypoints (position linear, orientation by slerp), IK by
+ * continuation from the previous sample, configuration flips and limit hits, the joint speeds the
+ * required tool speed needs (q̇ = A⁺·ẋ for the task rows of the Jacobian), the achievable fraction
+ * of the required speed, and profiles of the smallest singular value and the dexterity margin.
+ */
+import type { PathSpec } from "@/shared/schemas/requirements";
+import { computeJacobian, solveIk, solveIkMulti, type IkResult } from "@/lib/kinematics";
+import type { ArmContext } from "./context";
+import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
+import { deg, mm, num, pct } from "./format";
+import { poseFromQuaternion, poseFromRpy, quaternionOf, relativeRotation, slerp } from "./geometry";
+import { determinant, pseudoInverseSolve, svdRows } from "./linalg";
+import type { Verdict } from "./types";
+
+/** A joint jump between neighbouring samples larger than this (rad) is a configuration flip. */
+export const FLIP_JUMP = (30 * Math.PI) / 180;
+/** For prismatic joints: a jump larger than this fraction of the range is a flip. */
+export const FLIP_JUMP_PRISMATIC_FRACTION = 0.1;
+/** A joint within this normalised margin of a limit (0.5 % of its range from an end) is a limit hit. */
+export const LIMIT_HIT_MARGIN = 0.01;
+/** The speed ratio needed for `meets`; between 1 and this it is `marginal` (20 % headroom). */
+export const SPEED_MARGINAL_RATIO = 1.2;
+/** Sampling step for rotation-only segments (rad). */
+export const ROTATION_STEP = (2 * Math.PI) / 180;
+
+/** Budget for one path. */
+export interface PathBudget {
+  /** Samples per path at most; a finer step is coarsened to fit, and the result says so. */
+  maxSamples: number;
+  /** Iterations of the continuation step from the previous sample. */
+  continuationIterations: number;
+  /** Restarts when continuation fails at a sample. */
+  fallbackRestarts: number;
+  /**
+   * Restart attempts allowed per traversal in all; once spent, samples get continuation only (a
+   * path far out of reach would otherwise cost restarts at every sample). The result says so.
+   */
+  restartBudget: number;
+  /** Distinct start branches tried when the first one does not carry through the path. */
+  startBranches: number;
+}
+export const DEFAULT_PATH_BUDGET: PathBudget = { maxSamples: 1000, continuationIterations: 20, fallbackRestarts: 6, restartBudget: 48, startBranches: 2 };
+
+/** One sample event (flip, restart, limit hit). */
+export interface PathEvent {
+  /** Sample index. */
+  index: number;
+  /** Arc length at the sample (m). */
+  s: number;
+  /** 1-based joint concerned, or null. */
+  joint: number | null;
+  /** Words. */
+  detail: string;
+}
+
+/** Everything about one (arm, path). */
+export interface PathAnalysis {
+  name: string;
+  mode: PathSpec["mode"];
+  verdict: Verdict;
+  reason: string;
+  /** Path length (m) and the step actually used (m). */
+  length: number;
+  step: number;
+  samples: number;
+  /** Samples reached. */
+  reached: number;
+  /** First sample not reached, or null. */
+  firstUnreached: PathEvent | null;
+  /** Large joint jumps or a sign change of the square task Jacobian's determinant between samples. */
+  flips: PathEvent[];
+  /** Samples where continuation failed and restarts found a solution (a discontinuity). */
+  restarts: PathEvent[];
+  /** Samples with a joint at (within 0.5 % of range of) a limit. */
+  limitHits: PathEvent[];
+  speed: {
+    /** Required TCP speed (m/s). */
+    required: number;
+    /** min over samples and joints of maxSpeed/|q̇|, uncapped; null when no joint has a speed limit. */
+    ratio: number | null;
+    /** min(1, ratio): the fraction of the required speed the joints allow. */
+    achievableFraction: number | null;
+    limitingJoint: number | null;
+    limitingSample: number | null;
+    note: string;
+  };
+  /** Smallest dexterity margin over the reached samples (null when none). */
+  minDexterityMargin: number | null;
+  /** Per-sample profiles (same length as `samples`; null where a sample was not reached). */
+  profile: {
+    s: number[];
+    sigmaMinTranslation: (number | null)[];
+    dexterityMargin: (number | null)[];
+    speedRatio: (number | null)[];
+  };
+  /** Joint values at each sample (rad or m), for plotting; null where not reached. */
+  q: (number[] | null)[];
+}
+
+interface Sample {
+  s: number;
+  pose: Float64Array;
+  /** Required twist (v, ω) in the cell frame (m/s, rad/s); null for rotation-only segments. */
+  twist: number[] | null;
+}
+
+/** Samples a path; returns the samples, the path length and the step used. */
+export function samplePath(path: PathSpec, maxSamples: number): { samples: Sample[]; length: number; step: number; coarsened: boolean } {
+  const wps = path.waypoints;
+  const quats = wps.map((w) => quaternionOf(poseFromRpy(w.position, w.rpy)));
+  const segs = wps.slice(1).map((w, k) => {
+    const p0 = wps[k].position, p1 = w.position;
+    const d = [p1[0] - p0[0], p1[1] - p0[1], p1[2] - p0[2]];
+    const len = Math.hypot(d[0], d[1], d[2]);
+    const rot = relativeRotation(quats[k], quats[k + 1]);
+    return { p0, d, len, rot, q0: quats[k], q1: quats[k + 1] };
+  });
+  const length = segs.reduce((a, s) => a + s.len, 0);
+  let step = path.step;
+  const count = (st: number) => segs.reduce((a, s) => a + Math.max(1, s.len > 1e-9 ? Math.ceil(s.len / st - 1e-9) : Math.ceil(s.rot.angle / ROTATION_STEP - 1e-9)), 0) + 1;
+  let coarsened = false;
+  while (count(step) > maxSamples) { step *= 1.25; coarsened = true; }
+  const samples: Sample[] = [];
+  let sAcc = 0;
+  segs.forEach((seg, k) => {
+    const nSeg = Math.max(1, seg.len > 1e-9 ? Math.ceil(seg.len / step - 1e-9) : Math.ceil(seg.rot.angle / ROTATION_STEP - 1e-9));
+    const twist = seg.len > 1e-9
+      ? [seg.d[0] / seg.len * path.speed, seg.d[1] / seg.len * path.speed, seg.d[2] / seg.len * path.speed,
+        ...seg.rot.axis.map((a) => (a * seg.rot.angle * path.speed) / seg.len)]
+      : null;
+    const last = k === segs.length - 1;
+    for (let i = 0; i <= (last ? nSeg : nSeg - 1); i++) {
+      const t = i / nSeg;
+      const p = [seg.p0[0] + t * seg.d[0], seg.p0[1] + t * seg.d[1], seg.p0[2] + t * seg.d[2]];
+      samples.push({ s: sAcc + t * seg.len, pose: poseFromQuaternion(p, slerp(seg.q0, seg.q1, t)), twist });
+    }
+    sAcc += seg.len;
+  });
+  return { samples, length, step, coarsened };
+}
+
+/** Analyses one path for one arm. `seed` makes the restarts deterministic. */
+export function analyzePath(ctx: ArmContext, path: PathSpec, budget: PathBudget, seed: number, posTol = 1e-5, rotTol = 1e-4): PathAnalysis {
+  const { model, data } = ctx;
+  const { samples, length, step, coarsened } = samplePath(path, budget.maxSamples);
+  const opts = { mode: path.mode, positionTolerance: posTol, rotationTolerance: rotTol };
+  const starts = solveIkMulti(model, data, samples[0].pose, { ...opts, maxRestarts: 12, maxSolutions: Math.max(1, budget.startBranches), seed })
+    .filter((r) => r.status === "reached");
+  // Try start branches in order of their dexterity margin; keep the first that carries through.
+  const ranked = starts.map((r) => {
+    computeJacobian(model, data, r.q, ctx.jac);
+    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks).margin };
+  }).sort((a, b) => b.m - a.m);
+  let best: Traversal | null = null;
+  for (const st of ranked.slice(0, Math.max(1, budget.startBranches))) {
+    const tr = traverse(ctx, path, samples, st.r, opts, budget, seed);
+    if (!best || tr.score > best.score) best = tr;
+    if (tr.unreached === 0 && tr.flips.length === 0) break;
+  }
+  if (!best) best = traverse(ctx, path, samples, null, opts, budget, seed);
+  return summarise(ctx, path, samples, best, length, step, coarsened);
+}
+
+interface Traversal {
+  qs: (Float64Array | null)[];
+  flips: PathEvent[];
+  restarts: PathEvent[];
+  unreached: number;
+  firstUnreached: PathEvent | null;
+  /** True when the restart budget ran out (later misses had continuation only). */
+  budgetSpent: boolean;
+  /** Higher is better: reached samples minus flips. */
+  score: number;
+}
+
+function traverse(ctx: ArmContext, path: PathSpec, samples: Sample[], start: IkResult | null, opts: { mode: PathSpec["mode"]; positionTolerance: number; rotationTolerance: number }, budget: PathBudget, seed: number): Traversal {
+  const { model, data } = ctx;
+  const n = model.n;
+  const qs: (Float64Array | null)[] = [];
+  const flips: PathEvent[] = [], restarts: PathEvent[] = [];
+  let unreached = 0, firstUnreached: PathEvent | null = null;
+  let prev: Float64Array | null = start ? start.q : null;
+  let guess: Float64Array | null = null;
+  let prevDet: number | null = null;
+  let restartsLeft = budget.restartBudget, budgetSpent = false;
+  for (let k = 0; k < samples.length; k++) {
+    const smp = samples[k];
+    let res: IkResult | null = k === 0 && start ? start : null;
+    const from = prev ?? guess;
+    if (!res && from) res = solveIk(model, data, smp.pose, { ...opts, initial: from, maxRestarts: 0, maxIterations: budget.continuationIterations });
+    let restarted = false;
+    if (!res || res.status !== "reached") {
+      const allowed = Math.min(budget.fallbackRestarts, restartsLeft);
+      const again = solveIk(model, data, smp.pose, { ...opts, initial: prev ?? guess ?? undefined, maxRestarts: allowed, seed: seed + k });
+      restartsLeft -= Math.min(allowed, again.restarts + (again.status === "reached" ? 0 : 1));
+      if (restartsLeft <= 0 && allowed > 0) budgetSpent = true;
+      if (again.status === "reached" && prev) restarted = true;
+      if (!res || again.positionError < res.positionError || again.status === "reached") res = again;
+    }
+    if (res.status !== "reached") {
+      unreached++;
+      if (!firstUnreached) firstUnreached = { index: k, s: smp.s, joint: null, detail: `not reached: position error ${mm(res.positionError)}` };
+      qs.push(null);
+      guess = res.q; // the best iterate: the next sample continues from the nearest miss
+      continue;
+    }
+    const q = res.q;
+    if (restarted) restarts.push({ index: k, s: smp.s, joint: null, detail: "continuation failed; found again by restarts" });
+    if (prev) {
+      let worst = 0, wj = -1, wRatio = 0;
+      for (let i = 0; i < n; i++) {
+        let d = q[i] - prev[i];
+        let limit = FLIP_JUMP;
+        if (model.prismatic[i] === 0) {
+          d = Math.atan2(Math.sin(d), Math.cos(d));
+        } else {
+          limit = FLIP_JUMP_PRISMATIC_FRACTION * (model.upper[i] - model.lower[i]);
+        }
+        const ratio = Math.abs(d) / limit;
+        if (ratio > wRatio) { wRatio = ratio; worst = Math.abs(d); wj = i; }
+      }
+      if (wRatio > 1) {
+        flips.push({ index: k, s: smp.s, joint: wj + 1, detail: `joint ${wj + 1} jumps ${model.prismatic[wj] ? mm(worst) : deg(worst)}` });
+      }
+    }
+    // Sign of the square task Jacobian's determinant (elbow/wrist branch indicator).
+    const det = taskDeterminant(ctx, q, path.mode);
+    if (det !== null && prevDet !== null && det * prevDet < 0 && !(flips.length && flips[flips.length - 1].index === k)) {
+      flips.push({ index: k, s: smp.s, joint: null, detail: "the task Jacobian's determinant changes sign (crossed a singularity: branch change)" });
+    }
+    if (det !== null) prevDet = det;
+    qs.push(q);
+    prev = q;
+  }
+  return { qs, flips, restarts, unreached, firstUnreached, budgetSpent, score: samples.length - unreached - flips.length };
+}
+
+/** det of the square task Jacobian (rows by mode), or null when it is not square. */
+function taskDeterminant(ctx: ArmContext, q: Float64Array, mode: PathSpec["mode"]): number | null {
+  const n = ctx.model.n;
+  const rows = mode === "pose" ? 6 : mode === "axis" ? 5 : 3;
+  if (rows !== n) return null;
+  const a = taskJacobian(ctx, q, mode);
+  return determinant(a.matrix, n);
+}
+
+/** Task Jacobian rows (point: v; axis: v and ω about the tool x and y axes; pose: v, ω). */
+function taskJacobian(ctx: ArmContext, q: Float64Array, mode: PathSpec["mode"]): { matrix: Float64Array; rows: number; toolX: number[]; toolY: number[] } {
+  const { model, data } = ctx;
+  const n = model.n;
+  computeJacobian(model, data, q, ctx.jac);
+  const t = data.toolPose;
+  const toolX = [t[0], t[4], t[8]], toolY = [t[1], t[5], t[9]];
+  const rows = mode === "pose" ? 6 : mode === "axis" ? 5 : 3;
+  const m = new Float64Array(rows * n);
+  for (let r = 0; r < Math.min(rows, 6); r++) if (r < 3 || mode === "pose") for (let c = 0; c < n; c++) m[r * n + c] = ctx.jac[r * n + c];
+  if (mode === "axis") {
+    for (let c = 0; c < n; c++) {
+      const wx = ctx.jac[3 * n + c], wy = ctx.jac[4 * n + c], wz = ctx.jac[5 * n + c];
+      m[3 * n + c] = toolX[0] * wx + toolX[1] * wy + toolX[2] * wz;
+      m[4 * n + c] = toolY[0] * wx + toolY[1] * wy + toolY[2] * wz;
+    }
+  }
+  return { matrix: m, rows, toolX, toolY };
+}
+
+function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Traversal, length: number, step: number, coarsened: boolean): PathAnalysis {
+  const { model } = ctx;
+  const n = model.n;
+  const prof = { s: [] as number[], sigmaMinTranslation: [] as (number | null)[], dexterityMargin: [] as (number | null)[], speedRatio: [] as (number | null)[] };
+  const limitHits: PathEvent[] = [];
+  let ratio: number | null = null, limJoint: number | null = null, limSample: number | null = null;
+  let minMargin: number | null = null;
+  let rotationOnly = false;
+  samples.forEach((smp, k) => {
+    prof.s.push(smp.s);
+    const q = tr.qs[k];
+    if (!q) { prof.sigmaMinTranslation.push(null); prof.dexterityMargin.push(null); prof.speedRatio.push(null); return; }
+    const task = taskJacobian(ctx, q, path.mode); // also leaves the full Jacobian in ctx.jac
+    const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks);
+    prof.sigmaMinTranslation.push(dex.translation.minSingularValue);
+    prof.dexterityMargin.push(dex.margin);
+    minMargin = minMargin === null ? dex.margin : Math.min(minMargin, dex.margin);
+    for (let i = 0; i < n; i++) {
+      if (dex.jointLimits.perJoint[i] < LIMIT_HIT_MARGIN && (limitHits.length === 0 || limitHits[limitHits.length - 1].index !== k - 1 || limitHits[limitHits.length - 1].joint !== i + 1)) {
+        limitHits.push({ index: k, s: smp.s, joint: i + 1, detail: `joint ${i + 1} at its limit` });
+      }
+    }
+    if (!smp.twist) { rotationOnly = true; prof.speedRatio.push(null); return; }
+    const tw = smp.twist;
+    const b = path.mode === "point" ? tw.slice(0, 3)
+      : path.mode === "axis" ? [tw[0], tw[1], tw[2], dot(task.toolX, tw.slice(3)), dot(task.toolY, tw.slice(3))]
+      : tw;
+    const qd = pseudoInverseSolve(svdRows(task.matrix, task.rows, n), b);
+    let r: number | null = null, rj: number | null = null;
+    for (let i = 0; i < n; i++) {
+      const vmax = model.maxSpeed[i];
+      if (!(vmax > 0)) continue;
+      const v = Math.abs(qd[i]);
+      const ri = v > 0 ? vmax / v : Infinity;
+      if (r === null || ri < r) { r = ri; rj = i + 1; }
+    }
+    prof.speedRatio.push(r === null || !Number.isFinite(r) ? null : r);
+    if (r !== null && (ratio === null || r < ratio)) { ratio = r; limJoint = rj; limSample = k; }
+  });
+  const finiteRatio = ratio !== null && Number.isFinite(ratio) ? (ratio as number) : ratio === null ? null : Infinity;
+  const fraction = finiteRatio === null ? null : Math.min(1, finiteRatio);
+  const speedNote = !ctx.hasSpeedLimits ? "no joint speed limits on the datasheet: speed not checked"
+    : `${fraction !== null && fraction < 1 ? `${pct(fraction)} of` : "the full"} ${num(path.speed * 1000, 0)} mm/s${limJoint ? `, limited by joint ${limJoint}` : ""}` + (rotationOnly ? "; rotation-only segments have no speed requirement" : "");
+
+  let verdict: Verdict = "meets";
+  const parts: string[] = [];
+  const reachedCount = tr.qs.filter(Boolean).length;
+  if (tr.unreached > 0) {
+    verdict = "fails";
+    parts.push(`${tr.unreached} of ${samples.length} samples not reached (first at ${mm(tr.firstUnreached!.s)} along the path: ${tr.firstUnreached!.detail})`);
+  } else {
+    parts.push(`followed over ${mm(length)} in ${samples.length} samples`);
+  }
+  const jumpFlips = tr.flips.filter((f) => f.joint !== null);
+  if (jumpFlips.length) {
+    verdict = "fails";
+    parts.push(`configuration flip at ${mm(jumpFlips[0].s)} (${jumpFlips[0].detail}): not continuous as sampled`);
+  } else if (tr.flips.length) {
+    if (verdict === "meets") verdict = "marginal";
+    parts.push(`branch change at ${mm(tr.flips[0].s)} (${tr.flips[0].detail})`);
+  }
+  if (tr.restarts.length && verdict === "meets") verdict = "marginal";
+  if (tr.restarts.length) parts.push(`${tr.restarts.length} discontinuit${tr.restarts.length === 1 ? "y" : "ies"} (IK restarted)`);
+  if (limitHits.length) { if (verdict === "meets") verdict = "marginal"; parts.push(`${limitHits[0].detail} at ${mm(limitHits[0].s)}`); }
+  if (!ctx.hasSpeedLimits) {
+    if (verdict === "meets") verdict = "unknown";
+    parts.push(speedNote);
+  } else if (finiteRatio !== null) {
+    if (finiteRatio < 1) { verdict = "fails"; parts.push(`joint speeds allow ${speedNote}`); }
+    else if (finiteRatio < SPEED_MARGINAL_RATIO) { if (verdict === "meets") verdict = "marginal"; parts.push(`speed reached with less than ${pct(SPEED_MARGINAL_RATIO - 1)} headroom (joint ${limJoint})`); }
+    else parts.push(`speed ${num(path.speed * 1000, 0)} mm/s reached with ${num(finiteRatio, 2)}× headroom`);
+  }
+  if (minMargin !== null && minMargin < DEXTERITY_MARGINAL_THRESHOLD) {
+    if (verdict === "meets") verdict = "marginal";
+    parts.push(`dexterity margin drops to ${num(minMargin)}`);
+  }
+  if (coarsened) parts.push(`step coarsened to ${mm(step)} (sample cap)`);
+  if (tr.budgetSpent) parts.push("restart budget spent: later samples tried by continuation only");
+  return {
+    name: path.name, mode: path.mode, verdict, reason: parts.join("; "), length, step, samples: samples.length, reached: reachedCount,
+    firstUnreached: tr.firstUnreached, flips: tr.flips, restarts: tr.restarts, limitHits,
+    speed: { required: path.speed, ratio: finiteRatio === Infinity ? null : finiteRatio, achievableFraction: fraction, limitingJoint: limJoint, limitingSample: limSample, note: speedNote },
+    minDexterityMargin: minMargin, profile: prof, q: tr.qs.map((q) => (q ? Array.from(q) : null)),
+  };
+}
+
+function dot(a: readonly number[], b: readonly number[]): number {
+  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
+}

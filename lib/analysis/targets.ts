@@ -1,0 +1,313 @@
+/**
+ * Per-target analysis: every distinct IK branch, the dexterity of each, the branch with the best
+ * dexterity margin chosen, and the statics of the chosen one (holding the tool and payload,
+ * payload capacity, force ellipsoid at the payload CoG, the exact capability for a required
+ * force/moment, and the wrist load check).
+ */
+import type { ArmDocument } from "@/shared/schemas/arm";
+import type { RequirementSet, Target } from "@/shared/schemas/requirements";
+import { computeJacobian, solveIkMulti } from "@/lib/kinematics";
+import type { ArmContext } from "./context";
+import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
+import { deg, mm, num, pct } from "./format";
+import { poseFromRpy, rotationOf, transformPoint, mul4 } from "./geometry";
+import {
+  capacityAlong, ellipsoidEstimateAlong, forceEllipsoid, gravityTorque, payloadCapacity, transposeTimes, wristAxisLoad,
+  type CapacityResult, type ForceEllipsoid, type WristBody,
+} from "./statics";
+import { worseVerdict, type Verdict } from "./types";
+
+/** A required force counts as `marginal` when the capability exceeds it by less than this fraction. */
+export const FORCE_MARGINAL_FRACTION = 0.2;
+
+/** Search budget for one target. */
+export interface TargetBudget {
+  /** Random restarts after the first attempt (solveIkMulti's maxRestarts). */
+  restarts: number;
+  /** Most distinct branches kept. */
+  maxSolutions: number;
+  /** Iterations per attempt. */
+  maxIterations: number;
+}
+export const DEFAULT_TARGET_BUDGET: TargetBudget = { restarts: 12, maxSolutions: 4, maxIterations: 60 };
+
+/** A compact summary of one IK branch. */
+export interface SolutionSummary {
+  /** Joint values (rad or m). */
+  q: number[];
+  /** Dexterity margin D ∈ [0, 1]. */
+  margin: number;
+  limiting: DexterityReport["limiting"];
+  translationInverseCondition: number;
+  orientationInverseCondition: number;
+  jointLimitMargin: number;
+}
+
+/** Holding the tool and payload still at the chosen configuration. */
+export interface HoldingCheck {
+  verdict: Verdict;
+  reason: string;
+  /** τ_hold with links, tool and payload (N·m or N per joint). */
+  gravityTorque: number[];
+  /** |τ_hold,i| / maxTorque_i per joint (null where no limit). */
+  torqueUtilisation: (number | null)[];
+  /** Largest extra mass at the payload CoG on top of tool + payload (kg), or null. */
+  extraPayloadCapacity: number | null;
+  /** Tool + payload + extra (kg): the total load the pose can hold at the payload CoG, or null. */
+  payloadCapacity: number | null;
+  limitingJoint: number | null;
+  /** "torque-limits" (exact), "rated-payload" (datasheet fallback) or "none". */
+  basis: "torque-limits" | "rated-payload" | "none";
+}
+
+/** A required force/moment at the target against the exact capability. */
+export interface ForceCheck {
+  verdict: Verdict;
+  reason: string;
+  /** Required force and moment applied by the tool at the TCP (cell frame, N and N·m). */
+  force: number[];
+  moment: number[];
+  /** Largest scale s of the required wrench the joints can apply (s ≥ 1: met), or null. */
+  capacityRatio: number | null;
+  /** s·|F| (N) and s·|M| (N·m): the capability along the required direction. */
+  forceCapacity: number | null;
+  momentCapacity: number | null;
+  status: CapacityResult["status"];
+  limitingJoint: number | null;
+  /** The force ellipsoid's estimate of s (ignores gravity, inscribes the torque box): shown beside, never used. */
+  ellipsoidEstimateRatio: number | null;
+}
+
+/** Load on one wrist axis against the datasheet's allowable values. */
+export interface WristAxisCheck {
+  joint: number;
+  momentAtPose: number;
+  momentWorstCase: number;
+  inertia: number;
+  inertiaComplete: boolean;
+  allowableMoment: number | null;
+  allowableInertia: number | null;
+  verdict: Verdict;
+  reason: string;
+}
+
+export interface WristCheck {
+  verdict: Verdict;
+  reason: string;
+  axes: WristAxisCheck[];
+}
+
+/** Everything about one (arm, target). */
+export interface TargetAnalysis {
+  name: string;
+  mode: Target["mode"];
+  verdict: Verdict;
+  /** One sentence a person can read. */
+  reason: string;
+  reached: boolean;
+  /** Best residuals (m, rad) of the chosen branch or of the best failed attempt. */
+  positionError: number;
+  rotationError: number;
+  /** IK's own account (attempts, iterations, why it ended). */
+  ikReason: string;
+  /** Distinct reached branches (empty when not reached). */
+  solutions: SolutionSummary[];
+  /** Index into `solutions` of the chosen branch (best dexterity margin), or null. */
+  chosen: number | null;
+  /** Full dexterity report of the chosen branch. */
+  dexterity: DexterityReport | null;
+  /** Force ellipsoid at the payload CoG (chosen branch). */
+  forceEllipsoid: ForceEllipsoid | null;
+  holding: HoldingCheck | null;
+  force: ForceCheck | null;
+  wrist: WristCheck | null;
+}
+
+/** The target's pose in the cell frame (row-major 4×4). */
+export function targetPose(t: Pick<Target, "position" | "rpy">): Float64Array {
+  return poseFromRpy(t.position, t.rpy);
+}
+
+/** Optional wall-clock accounting of the parts (benchmark only; never part of a result). */
+export interface StageClock {
+  now(): number;
+  add(stage: "ik" | "dexterity" | "statics", ms: number): void;
+}
+
+/** Analyses one target for one arm (allocates its result). `seed` makes the restarts deterministic. */
+export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: RequirementSet, target: Target, budget: TargetBudget, seed: number, clock?: StageClock): TargetAnalysis {
+  const { model, data } = ctx;
+  const pose = targetPose(target);
+  let t0 = clock?.now() ?? 0;
+  const lap = (stage: "ik" | "dexterity" | "statics") => {
+    if (!clock) return;
+    const t1 = clock.now();
+    clock.add(stage, t1 - t0);
+    t0 = t1;
+  };
+  const results = solveIkMulti(model, data, pose, {
+    mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
+    maxRestarts: budget.restarts, maxSolutions: budget.maxSolutions, maxIterations: budget.maxIterations, seed,
+  });
+  lap("ik");
+  const reached = results.filter((r) => r.status === "reached");
+  const base = { name: target.name, mode: target.mode };
+  if (reached.length === 0) {
+    const best = results[0];
+    const reason = `not reached after ${best.restarts} restart${best.restarts === 1 ? "" : "s"}: best position error ${mm(best.positionError)}` +
+      (target.mode === "point" ? "" : `, rotation error ${deg(best.rotationError)}`) +
+      (/beyond/.test(best.reason) ? " (beyond the arm's largest possible reach)" : best.positionError > 0.005 ? " (outside reach?)" : "");
+    return {
+      ...base, verdict: "fails", reason, reached: false, positionError: best.positionError, rotationError: best.rotationError,
+      ikReason: best.reason, solutions: [], chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null,
+    };
+  }
+  const reports: DexterityReport[] = reached.map((r) => {
+    computeJacobian(model, data, r.q, ctx.jac);
+    return dexterityAt(ctx.jac, model.n, model, r.q, target.mode, ctx.ranks);
+  });
+  let chosen = 0;
+  for (let i = 1; i < reports.length; i++) if (reports[i].margin > reports[chosen].margin) chosen = i;
+  const solutions: SolutionSummary[] = reached.map((r, i) => ({
+    q: Array.from(r.q), margin: reports[i].margin, limiting: reports[i].limiting,
+    translationInverseCondition: reports[i].translation.inverseCondition,
+    orientationInverseCondition: reports[i].orientation.inverseCondition,
+    jointLimitMargin: reports[i].jointLimits.margin,
+  }));
+  const q = reached[chosen].q;
+  const dex = reports[chosen];
+  const n = model.n;
+  lap("dexterity");
+
+  // Statics at the chosen configuration.
+  const tauHold = gravityTorque(model, data, q, ctx.loads, ctx.jac);
+  computeJacobian(model, data, q, ctx.jac, req.payload.cog);
+  const ellipsoid = forceEllipsoid(ctx.jac, n, model.maxTorque);
+  const holding = holdingCheck(ctx, arm, tauHold);
+  let force: ForceCheck | null = null;
+  if (target.force || target.moment) {
+    computeJacobian(model, data, q, ctx.jac); // at the TCP, where the tool applies the wrench
+    force = forceCheck(ctx, tauHold, target.force ?? [0, 0, 0], target.moment ?? [0, 0, 0]);
+  }
+  const wrist = wristCheck(ctx, arm, req, q);
+  lap("statics");
+
+  let verdict: Verdict = dex.marginal ? "marginal" : "meets";
+  const parts: string[] = [`reached with dexterity margin ${num(dex.margin)}`];
+  if (dex.marginal || dex.limiting.value < 0.5) parts.push(`limiting: ${describeLimit(dex)}`);
+  if (dex.marginal) parts.push(`below the ${num(DEXTERITY_MARGINAL_THRESHOLD, 1)} threshold`);
+  if (reached.length > 1) parts.push(`${reached.length} branches found`);
+  if (holding.verdict !== "meets") { verdict = worseVerdict(verdict, holding.verdict); parts.push(holding.reason); }
+  if (force) { verdict = worseVerdict(verdict, force.verdict); parts.push(force.reason); }
+  if (wrist.verdict === "fails" || wrist.verdict === "marginal") { verdict = worseVerdict(verdict, wrist.verdict); parts.push(wrist.reason); }
+  return {
+    ...base, verdict, reason: parts.join("; "), reached: true,
+    positionError: reached[chosen].positionError, rotationError: reached[chosen].rotationError, ikReason: reached[chosen].reason,
+    solutions, chosen, dexterity: dex, forceEllipsoid: ellipsoid, holding, force, wrist,
+  };
+}
+
+/** Words for the limiting factor of a dexterity report. */
+export function describeLimit(d: DexterityReport): string {
+  switch (d.limiting.factor) {
+    case "translation": return `translational conditioning 1/κ = ${num(d.limiting.value, 3)} (arm near stretched or folded)`;
+    case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)} (near a wrist singularity)`;
+    default: return `joint ${d.limiting.joint} near its limit (margin ${num(d.jointLimits.margin, 3)})`;
+  }
+}
+
+function holdingCheck(ctx: ArmContext, arm: ArmDocument, tauHold: Float64Array): HoldingCheck {
+  const { model } = ctx;
+  const n = model.n;
+  const util = Array.from({ length: n }, (_, i) => (model.maxTorque[i] > 0 ? Math.abs(tauHold[i]) / model.maxTorque[i] : null));
+  const common = { gravityTorque: Array.from(tauHold), torqueUtilisation: util };
+  if (ctx.hasTorqueLimits) {
+    // Jacobian at the payload CoG is in ctx.jac (set by the caller).
+    const cap = payloadCapacity(tauHold, ctx.jac, n, model.maxTorque);
+    if (cap.status === "overloaded") {
+      const j = cap.limitingJoint!;
+      return { ...common, verdict: "fails", reason: `cannot hold the ${num(ctx.loadMass, 1)} kg tool and payload here: joint ${j} needs ${pct(util[j - 1]!)} of its torque limit`, extraPayloadCapacity: 0, payloadCapacity: 0, limitingJoint: j, basis: "torque-limits" };
+    }
+    const extra = cap.extraMass;
+    const total = extra === null ? null : extra + ctx.loadMass;
+    return {
+      ...common, verdict: "meets",
+      reason: extra === null ? "holds the load (no limited joint carries extra weight here)" : `holds ${num(total!, 1)} kg at the payload CoG (limiting joint ${cap.limitingJoint})`,
+      extraPayloadCapacity: extra, payloadCapacity: total, limitingJoint: cap.limitingJoint, basis: "torque-limits",
+    };
+  }
+  const rated = arm.specs?.ratedPayload;
+  if (ctx.loadMass === 0) return { ...common, verdict: "meets", reason: "no tool or payload mass", extraPayloadCapacity: null, payloadCapacity: null, limitingJoint: null, basis: "none" };
+  if (rated !== undefined) {
+    const ok = ctx.loadMass <= rated;
+    return {
+      ...common, verdict: ok ? "meets" : "fails",
+      reason: `${ok ? "" : "cannot hold: "}tool + payload ${num(ctx.loadMass, 2)} kg ${ok ? "within" : "exceeds"} the rated payload ${num(rated, 2)} kg (datasheet; no joint torque limits to check the pose)`,
+      extraPayloadCapacity: rated - ctx.loadMass, payloadCapacity: rated, limitingJoint: null, basis: "rated-payload",
+    };
+  }
+  return { ...common, verdict: "unknown", reason: `holding the ${num(ctx.loadMass, 2)} kg load not checked: no joint torque limits and no rated payload`, extraPayloadCapacity: null, payloadCapacity: null, limitingJoint: null, basis: "none" };
+}
+
+function forceCheck(ctx: ArmContext, tauHold: Float64Array, force: readonly number[], moment: readonly number[]): ForceCheck {
+  const { model } = ctx;
+  const n = model.n;
+  const fN = Math.hypot(force[0], force[1], force[2]), mN = Math.hypot(moment[0], moment[1], moment[2]);
+  const w = [force[0], force[1], force[2], moment[0], moment[1], moment[2]];
+  const b = transposeTimes(ctx.jac, 6, n, w);
+  const r = capacityAlong(tauHold, b, model.maxTorque);
+  const est = ellipsoidEstimateAlong(ctx.jac, 6, n, model.maxTorque, w);
+  const what = fN > 0 && mN > 0 ? `${num(fN, 0)} N with ${num(mN, 1)} N·m` : fN > 0 ? `${num(fN, 0)} N` : `${num(mN, 1)} N·m`;
+  const base = { force: [...force], moment: [...moment], status: r.status, limitingJoint: r.limitingJoint, ellipsoidEstimateRatio: est };
+  if (r.status === "no-limits") {
+    return { ...base, verdict: "unknown", reason: `required ${what} not checked: no joint torque limits on the datasheet`, capacityRatio: null, forceCapacity: null, momentCapacity: null };
+  }
+  if (r.status === "unbounded") {
+    return { ...base, verdict: "meets", reason: `required ${what}: carried by the structure at this pose (no limited joint feels it)`, capacityRatio: null, forceCapacity: null, momentCapacity: null };
+  }
+  const s = r.capacity!;
+  const cap = fN > 0 ? `${num(s * fN, 0)} N` : `${num(s * mN, 1)} N·m`;
+  const estText = est === null ? "" : ` (ellipsoid estimate ${fN > 0 ? `${num(est * fN, 0)} N` : `${num(est * mN, 1)} N·m`}, not used)`;
+  const verdict: Verdict = s < 1 ? "fails" : s < 1 + FORCE_MARGINAL_FRACTION ? "marginal" : "meets";
+  const reason = r.status === "overloaded"
+    ? `required ${what} impossible: holding the load already exceeds joint ${r.limitingJoint}'s torque limit`
+    : `${verdict === "fails" ? "cannot apply" : "can apply"} the required ${what}: capability ${cap} along it after gravity, limiting joint ${r.limitingJoint}${verdict === "marginal" ? ` (within ${pct(FORCE_MARGINAL_FRACTION)})` : ""}${estText}`;
+  return { ...base, verdict, reason, capacityRatio: s, forceCapacity: fN > 0 ? s * fN : null, momentCapacity: mN > 0 ? s * mN : null };
+}
+
+function wristCheck(ctx: ArmContext, arm: ArmDocument, req: RequirementSet, q: Float64Array): WristCheck {
+  const allow = arm.specs?.wristAllowables ?? [];
+  if (allow.length === 0) return { verdict: "unknown", reason: "wrist load not checked: the datasheet gives no allowable wrist moments or inertias", axes: [] };
+  if (ctx.loadMass === 0) return { verdict: "meets", reason: "no wrist load", axes: [] };
+  const { model, data } = ctx;
+  computeJacobian(model, data, q, ctx.jac); // runs FK: data.frames and data.toolPose at q
+  const tcpPose = data.toolPose;
+  const toolPointPose = mul4(tcpPose, ctx.tcpInverse);
+  const bodies: WristBody[] = [
+    { mass: req.tool.mass, cog: transformPoint(toolPointPose, req.tool.cog), rotation: rotationOf(toolPointPose), inertia: req.tool.inertia ?? null },
+    { mass: req.payload.mass, cog: transformPoint(tcpPose, req.payload.cog), rotation: rotationOf(tcpPose), inertia: req.payload.inertia ?? null },
+  ];
+  const axes: WristAxisCheck[] = [];
+  let verdict: Verdict = "meets";
+  const reasons: string[] = [];
+  for (const a of allow) {
+    const f = 16 * (a.joint - 1 + model.axisFrameOffset);
+    const fr = data.frames;
+    const load = wristAxisLoad([fr[f + 2], fr[f + 6], fr[f + 10]], [fr[f + 3], fr[f + 7], fr[f + 11]], bodies);
+    let v: Verdict = "meets";
+    const why: string[] = [];
+    if (a.moment !== undefined) {
+      if (load.momentAtPose > a.moment) { v = "fails"; why.push(`moment ${num(load.momentAtPose)} N·m > allowable ${num(a.moment)} N·m`); }
+      else if (load.momentWorstCase > a.moment) { v = worseVerdict(v, "marginal"); why.push(`moment ${num(load.momentAtPose)} N·m here but up to ${num(load.momentWorstCase)} N·m in other wrist orientations > allowable ${num(a.moment)} N·m`); }
+    }
+    if (a.inertia !== undefined) {
+      if (load.inertia > a.inertia) { v = "fails"; why.push(`inertia ${num(load.inertia, 4)} kg·m² ${load.inertiaComplete ? "" : "(point-mass lower bound) "}> allowable ${num(a.inertia, 4)} kg·m²`); }
+      else if (!load.inertiaComplete) { v = worseVerdict(v, "unknown"); why.push(`inertia not checked: tool or payload inertia not given (point-mass value ${num(load.inertia, 4)} kg·m²)`); }
+    }
+    if (a.moment === undefined && a.inertia === undefined) { v = "unknown"; why.push("no allowable values given"); }
+    axes.push({ joint: a.joint, momentAtPose: load.momentAtPose, momentWorstCase: load.momentWorstCase, inertia: load.inertia, inertiaComplete: load.inertiaComplete, allowableMoment: a.moment ?? null, allowableInertia: a.inertia ?? null, verdict: v, reason: why.join("; ") || "within the allowable values" });
+    verdict = worseVerdict(verdict, v);
+    if (v !== "meets") reasons.push(`joint ${a.joint}: ${why.join("; ")}`);
+  }
+  return { verdict, reason: reasons.length ? `wrist load ${reasons.join("; ")}` : "wrist load within the allowable values", axes };
+}
