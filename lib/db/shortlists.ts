@@ -1,0 +1,362 @@
+import { randomUUID } from "node:crypto";
+import { z } from "zod";
+import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
+import { analysisKey } from "@/lib/analysis/key";
+import { ANALYSIS_VERSION, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
+import { db } from "./client";
+import { recordAudit } from "./audit";
+import { NotFoundError, ValidationError } from "./errors";
+import { readStoredDocument, userRef, type UserRef } from "./documents";
+
+/** A running analysis that has not reported progress for this long is taken as dead. */
+export const STALE_RUN_MS = 2 * 60 * 1000;
+
+/** The revisions a shortlist (or one of its runs) is pinned to. */
+export interface Pins {
+  requirement: { setId: string; revision: number };
+  arms: { armId: string; revision: number }[];
+}
+
+const pinsSchema = z.object({
+  requirement: z.object({ setId: z.string(), revision: z.number().int() }),
+  arms: z.array(z.object({ armId: z.string(), revision: z.number().int() })),
+});
+
+export type RunStatus = "queued" | "running" | "done" | "failed";
+
+/** One analysis run without its result. */
+export interface RunInfo {
+  id: string;
+  shortlistId: string;
+  key: string;
+  analysisVersion: string;
+  status: RunStatus;
+  progress: number;
+  stage: string | null;
+  error: string | null;
+  pins: Pins | null;
+  createdAt: Date;
+  startedAt: Date | null;
+  finishedAt: Date | null;
+  reusedFromId: string | null;
+}
+
+/** A pinned item next to the current revision of what it pins. */
+export interface PinnedArm {
+  armId: string;
+  name: string;
+  revision: number;
+  currentRevision: number;
+  deleted: boolean;
+}
+
+export interface ShortlistRecord {
+  id: string;
+  name: string;
+  createdAt: Date;
+  updatedAt: Date;
+  createdBy: UserRef | null;
+  requirement: { setId: string; name: string; revision: number; currentRevision: number; deleted: boolean };
+  arms: PinnedArm[];
+  /** Human lines for every pin that has a newer revision ("arm X: rev 1 → 2"). */
+  stale: string[];
+}
+
+export interface ShortlistSummary {
+  id: string;
+  name: string;
+  requirementName: string;
+  requirementRevision: number;
+  arms: number;
+  createdAt: Date;
+  createdBy: UserRef | null;
+  latestRun: { id: string; status: RunStatus; finishedAt: Date | null } | null;
+}
+
+const createInput = z.object({
+  name: z.string({ error: "must be text" }).trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
+  requirementSetId: z.string({ error: "choose a requirement set" }).min(1, "choose a requirement set"),
+  armIds: z
+    .array(z.string().min(1), { error: "must be a list of arm ids" })
+    .min(1, "choose at least one arm")
+    .max(40, "at most 40 arms per shortlist")
+    .refine((ids) => new Set(ids).size === ids.length, "an arm is listed twice"),
+});
+export type CreateShortlistInput = z.input<typeof createInput>;
+
+function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
+  const r = schema.safeParse(input);
+  if (!r.success) {
+    throw new ValidationError(r.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })));
+  }
+  return r.data;
+}
+
+function toRunInfo(r: {
+  id: string; shortlistId: string; key: string; analysisVersion: string; status: string; progress: number; stage: string | null;
+  error: string | null; pins: string | null; createdAt: Date; startedAt: Date | null; finishedAt: Date | null; reusedFromId: string | null;
+}): RunInfo {
+  let pins: Pins | null = null;
+  if (r.pins) {
+    const p = pinsSchema.safeParse(JSON.parse(r.pins));
+    pins = p.success ? p.data : null;
+  }
+  return {
+    id: r.id, shortlistId: r.shortlistId, key: r.key, analysisVersion: r.analysisVersion, status: r.status as RunStatus,
+    progress: r.progress, stage: r.stage, error: r.error, pins, createdAt: r.createdAt, startedAt: r.startedAt,
+    finishedAt: r.finishedAt, reusedFromId: r.reusedFromId,
+  };
+}
+
+const runSelect = {
+  id: true, shortlistId: true, key: true, analysisVersion: true, status: true, progress: true, stage: true, error: true,
+  pins: true, createdAt: true, startedAt: true, finishedAt: true, reusedFromId: true,
+} as const;
+
+/** Creates a shortlist pinned to the current revisions of the requirement set and the arms. */
+export async function createShortlist(userId: string | null, input: unknown): Promise<{ id: string; pins: Pins }> {
+  const body = parse(createInput, input);
+  const id = randomUUID();
+  return db().$transaction(async (tx) => {
+    const set = await tx.requirementSet.findUnique({ where: { id: body.requirementSetId } });
+    if (!set || set.deletedAt) throw new ValidationError([{ path: "requirementSetId", message: `requirement set ${body.requirementSetId} does not exist` }]);
+    const arms = await tx.arm.findMany({ where: { id: { in: body.armIds }, deletedAt: null } });
+    const byId = new Map(arms.map((a) => [a.id, a]));
+    const missing = body.armIds.map((a, i) => ({ a, i })).filter((x) => !byId.has(x.a));
+    if (missing.length) throw new ValidationError(missing.map((m) => ({ path: `armIds.${m.i}`, message: `arm ${m.a} does not exist` })));
+    await tx.shortlist.create({ data: { id, name: body.name, requirementSetId: set.id, requirementRevision: set.currentRevision, createdById: userId } });
+    const pins: Pins = { requirement: { setId: set.id, revision: set.currentRevision }, arms: [] };
+    for (const [position, armId] of body.armIds.entries()) {
+      const revision = byId.get(armId)!.currentRevision;
+      await tx.shortlistArm.create({ data: { shortlistId: id, armId, armRevision: revision, position } });
+      pins.arms.push({ armId, revision });
+    }
+    await recordAudit(tx, { actorId: userId, action: "shortlist.create", entityType: "shortlist", entityId: id, detail: pins });
+    return { id, pins };
+  });
+}
+
+/** The pins a shortlist has now (arm order as chosen). */
+export async function getPins(shortlistId: string): Promise<Pins | null> {
+  const s = await db().shortlist.findUnique({
+    where: { id: shortlistId },
+    select: { requirementSetId: true, requirementRevision: true, deletedAt: true, arms: { orderBy: { position: "asc" }, select: { armId: true, armRevision: true } } },
+  });
+  if (!s || s.deletedAt) return null;
+  return { requirement: { setId: s.requirementSetId, revision: s.requirementRevision }, arms: s.arms.map((a) => ({ armId: a.armId, revision: a.armRevision })) };
+}
+
+/** A shortlist with its pins, the current revisions beside them, and what is out of date. */
+export async function getShortlist(id: string): Promise<ShortlistRecord | null> {
+  const s = await db().shortlist.findUnique({
+    where: { id },
+    include: {
+      createdBy: { select: { id: true, name: true } },
+      requirement: { select: { set: { select: { name: true, currentRevision: true, deletedAt: true } } } },
+      arms: { orderBy: { position: "asc" }, include: { arm: { select: { arm: { select: { name: true, currentRevision: true, deletedAt: true } } } } } },
+    },
+  });
+  if (!s || s.deletedAt) return null;
+  const set = s.requirement.set;
+  const arms: PinnedArm[] = s.arms.map((a) => ({
+    armId: a.armId, name: a.arm.arm.name, revision: a.armRevision, currentRevision: a.arm.arm.currentRevision, deleted: a.arm.arm.deletedAt !== null,
+  }));
+  const stale: string[] = [];
+  if (set.currentRevision !== s.requirementRevision) stale.push(`requirement set ${set.name}: revision ${s.requirementRevision} → ${set.currentRevision}`);
+  for (const a of arms) if (a.currentRevision !== a.revision) stale.push(`arm ${a.name}: revision ${a.revision} → ${a.currentRevision}`);
+  return {
+    id: s.id, name: s.name, createdAt: s.createdAt, updatedAt: s.updatedAt, createdBy: userRef(s.createdBy),
+    requirement: { setId: s.requirementSetId, name: set.name, revision: s.requirementRevision, currentRevision: set.currentRevision, deleted: set.deletedAt !== null },
+    arms, stale,
+  };
+}
+
+export async function listShortlists(): Promise<ShortlistSummary[]> {
+  const rows = await db().shortlist.findMany({
+    where: { deletedAt: null },
+    orderBy: [{ createdAt: "desc" }, { id: "asc" }],
+    include: {
+      createdBy: { select: { id: true, name: true } },
+      requirement: { select: { set: { select: { name: true } } } },
+      _count: { select: { arms: true } },
+      runs: { orderBy: { createdAt: "desc" }, take: 1, select: { id: true, status: true, finishedAt: true } },
+    },
+  });
+  return rows.map((r) => ({
+    id: r.id, name: r.name, requirementName: r.requirement.set.name, requirementRevision: r.requirementRevision, arms: r._count.arms,
+    createdAt: r.createdAt, createdBy: userRef(r.createdBy),
+    latestRun: r.runs[0] ? { id: r.runs[0].id, status: r.runs[0].status as RunStatus, finishedAt: r.runs[0].finishedAt } : null,
+  }));
+}
+
+/**
+ * Moves every pin to the current revision (arms deleted since stay at their pinned revision).
+ * Runs and their results are kept: each run records its own pins.
+ */
+export async function repinShortlist(userId: string | null, id: string): Promise<Pins> {
+  return db().$transaction(async (tx) => {
+    const s = await tx.shortlist.findUnique({ where: { id }, include: { arms: true } });
+    if (!s || s.deletedAt) throw new NotFoundError(`shortlist ${id} does not exist`);
+    const set = await tx.requirementSet.findUniqueOrThrow({ where: { id: s.requirementSetId } });
+    const current = await tx.arm.findMany({ where: { id: { in: s.arms.map((a) => a.armId) } } });
+    const byId = new Map(current.map((a) => [a.id, a]));
+    const changed: string[] = [];
+    if (set.currentRevision !== s.requirementRevision) {
+      await tx.shortlist.update({ where: { id }, data: { requirementRevision: set.currentRevision } });
+      changed.push(`requirement ${s.requirementRevision}→${set.currentRevision}`);
+    }
+    for (const a of s.arms) {
+      const arm = byId.get(a.armId);
+      if (arm && !arm.deletedAt && arm.currentRevision !== a.armRevision) {
+        await tx.shortlistArm.update({ where: { shortlistId_armId: { shortlistId: id, armId: a.armId } }, data: { armRevision: arm.currentRevision } });
+        changed.push(`${arm.name} ${a.armRevision}→${arm.currentRevision}`);
+      }
+    }
+    if (changed.length) await tx.shortlist.update({ where: { id }, data: { updatedAt: new Date() } });
+    await recordAudit(tx, { actorId: userId, action: "shortlist.repin", entityType: "shortlist", entityId: id, detail: { changed } });
+    const arms = [...s.arms].sort((x, y) => x.position - y.position);
+    return {
+      requirement: { setId: s.requirementSetId, revision: set.currentRevision },
+      arms: arms.map((a) => {
+        const arm = byId.get(a.armId);
+        return { armId: a.armId, revision: arm && !arm.deletedAt ? arm.currentRevision : a.armRevision };
+      }),
+    };
+  });
+}
+
+/** Loads the pinned documents: the analysis input. */
+export async function loadPinnedInputs(pins: Pins): Promise<{ arms: ShortlistArm[]; requirementSet: RequirementSet }> {
+  const req = await db().requirementRevision.findUnique({ where: { setId_revision: { setId: pins.requirement.setId, revision: pins.requirement.revision } } });
+  if (!req) throw new NotFoundError(`requirement set ${pins.requirement.setId} has no revision ${pins.requirement.revision}`);
+  const requirementSet = readStoredDocument(requirementSetSchema, req.document, `requirement set ${pins.requirement.setId} revision ${pins.requirement.revision}`);
+  const revs = pins.arms.length
+    ? await db().armRevision.findMany({ where: { OR: pins.arms.map((a) => ({ armId: a.armId, revision: a.revision })) } })
+    : [];
+  const byKey = new Map(revs.map((r) => [`${r.armId}@${r.revision}`, r]));
+  const arms = pins.arms.map((p): ShortlistArm => {
+    const r = byKey.get(`${p.armId}@${p.revision}`);
+    if (!r) throw new NotFoundError(`arm ${p.armId} has no revision ${p.revision}`);
+    const arm: ArmDocument = readStoredDocument(armSchema, r.document, `arm ${p.armId} revision ${p.revision}`);
+    return { id: p.armId, revision: p.revision, arm };
+  });
+  return { arms, requirementSet };
+}
+
+/**
+ * Asks for an analysis of the shortlist's current pins. Returns, in this order of preference:
+ * - this shortlist's unfinished run with the same key (not stale): nothing new starts;
+ * - a finished run with the same key (analysis version + content hash): a `done` row is made for
+ *   this shortlist that reuses the result (cache hit), unless the latest run of this shortlist is it;
+ * - otherwise a new `queued` run, which the caller must start (`needsStart`).
+ */
+export async function requestAnalysisRun(shortlistId: string): Promise<{ run: RunInfo; cached: boolean; needsStart: boolean }> {
+  await failStaleRuns(shortlistId);
+  const pins = await getPins(shortlistId);
+  if (!pins) throw new NotFoundError(`shortlist ${shortlistId} does not exist`);
+  const inputs = await loadPinnedInputs(pins);
+  const key = analysisKey(inputs.arms, inputs.requirementSet);
+  const client = db();
+  return client.$transaction(async (tx) => {
+    const own = await tx.analysisRun.findFirst({ where: { shortlistId, key }, orderBy: { createdAt: "desc" }, select: runSelect });
+    if (own && (own.status === "queued" || own.status === "running" || own.status === "done")) {
+      const latest = await tx.analysisRun.findFirst({ where: { shortlistId }, orderBy: [{ createdAt: "desc" }, { id: "desc" }], select: { id: true } });
+      if (own.status !== "done" || latest?.id === own.id) return { run: toRunInfo(own), cached: own.status === "done", needsStart: false };
+    }
+    const now = new Date();
+    const done = await tx.analysisRun.findFirst({ where: { key, status: "done", reusedFromId: null }, orderBy: { finishedAt: "desc" }, select: { id: true, resultJson: true } });
+    const id = randomUUID();
+    if (done) {
+      const row = await tx.analysisRun.create({
+        data: {
+          id, shortlistId, key, analysisVersion: ANALYSIS_VERSION, status: "done", progress: 1, stage: "reused an earlier result with the same inputs",
+          resultJson: done.resultJson, pins: JSON.stringify(pins), createdAt: now, startedAt: now, finishedAt: now, reusedFromId: done.id,
+        },
+        select: runSelect,
+      });
+      return { run: toRunInfo(row), cached: true, needsStart: false };
+    }
+    const row = await tx.analysisRun.create({
+      data: { id, shortlistId, key, analysisVersion: ANALYSIS_VERSION, status: "queued", progress: 0, stage: "queued", pins: JSON.stringify(pins), createdAt: now, heartbeatAt: now },
+      select: runSelect,
+    });
+    return { run: toRunInfo(row), cached: false, needsStart: true };
+  });
+}
+
+/** Marks queued or running runs without a sign of life for STALE_RUN_MS as failed. */
+export async function failStaleRuns(shortlistId?: string, now: Date = new Date()): Promise<number> {
+  const cutoff = new Date(now.getTime() - STALE_RUN_MS);
+  const r = await db().analysisRun.updateMany({
+    where: { ...(shortlistId ? { shortlistId } : {}), status: { in: ["queued", "running"] }, OR: [{ heartbeatAt: { lt: cutoff } }, { heartbeatAt: null, createdAt: { lt: cutoff } }] },
+    data: { status: "failed", error: `the analysis process stopped reporting progress for more than ${STALE_RUN_MS / 60000} minutes and was given up`, finishedAt: now },
+  });
+  return r.count;
+}
+
+/** One run (stale ones failed first), or null. */
+export async function getRun(runId: string): Promise<RunInfo | null> {
+  const row = await db().analysisRun.findUnique({ where: { id: runId }, select: runSelect });
+  if (!row) return null;
+  if (row.status === "queued" || row.status === "running") {
+    if (await failStaleRuns(row.shortlistId)) return getRun(runId);
+  }
+  return toRunInfo(row);
+}
+
+/** Runs of a shortlist, newest first (stale ones failed first). */
+export async function listRuns(shortlistId: string): Promise<RunInfo[]> {
+  await failStaleRuns(shortlistId);
+  const rows = await db().analysisRun.findMany({ where: { shortlistId }, orderBy: [{ createdAt: "desc" }, { id: "desc" }], select: runSelect });
+  return rows.map(toRunInfo);
+}
+
+/** Results of finished runs are immutable: keep the parsed form of the most recent few in memory. */
+const resultCache = new Map<string, ShortlistAnalysis>();
+const RESULT_CACHE_SIZE = 16;
+
+/** The stored result of a finished run (parsed once per process), or null. */
+export async function getRunResult(runId: string): Promise<ShortlistAnalysis | null> {
+  const hit = resultCache.get(runId);
+  if (hit) {
+    resultCache.delete(runId);
+    resultCache.set(runId, hit);
+    return hit;
+  }
+  const row = await db().analysisRun.findUnique({ where: { id: runId }, select: { status: true, resultJson: true } });
+  if (!row || row.status !== "done" || !row.resultJson) return null;
+  const parsed = JSON.parse(row.resultJson) as ShortlistAnalysis;
+  resultCache.set(runId, parsed);
+  if (resultCache.size > RESULT_CACHE_SIZE) resultCache.delete(resultCache.keys().next().value!);
+  return parsed;
+}
+
+/** queued → running; false when someone else took it or it is no longer queued. */
+export async function claimRun(runId: string): Promise<boolean> {
+  const now = new Date();
+  const r = await db().analysisRun.updateMany({ where: { id: runId, status: "queued" }, data: { status: "running", startedAt: now, heartbeatAt: now, stage: "starting" } });
+  return r.count === 1;
+}
+
+export async function reportRunProgress(runId: string, progress: number, stage: string): Promise<void> {
+  await db().analysisRun.updateMany({
+    where: { id: runId, status: "running" },
+    data: { progress: Math.min(1, Math.max(0, progress)), stage, heartbeatAt: new Date() },
+  });
+}
+
+export async function finishRun(runId: string, result: ShortlistAnalysis): Promise<void> {
+  const now = new Date();
+  await db().analysisRun.updateMany({
+    where: { id: runId, status: "running" },
+    data: { status: "done", progress: 1, stage: "done", resultJson: JSON.stringify(result), finishedAt: now, heartbeatAt: now },
+  });
+}
+
+export async function failRun(runId: string, message: string): Promise<void> {
+  const now = new Date();
+  await db().analysisRun.updateMany({
+    where: { id: runId, status: { in: ["queued", "running"] } },
+    data: { status: "failed", error: message.slice(0, 2000), finishedAt: now, heartbeatAt: now },
+  });
+}
