@@ -10,6 +10,8 @@ const COMMANDS: Record<string, () => Promise<CliCommand>> = {
   fk: () => import("./commands/fk").then((m) => m.command),
   jacobian: () => import("./commands/jacobian").then((m) => m.command),
   ik: () => import("./commands/ik").then((m) => m.command),
+  statics: () => import("./commands/statics").then((m) => m.command),
+  analyze: () => import("./commands/analyze").then((m) => m.command),
 };
 
 async function main(argv: readonly string[]): Promise<number> {

@@ -1,0 +1,65 @@
+/**
+ * `analyze`: the shortlist analysis of arm files against a requirement-set file, as JSON (the
+ * full result with its cache key) or as the CSV compliance table (one row per requirement × arm).
+ */
+import path from "node:path";
+import { analyzeShortlist, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis";
+import { analysisKey } from "@/lib/analysis/key";
+import { requirementSetSchema } from "@/shared/schemas/requirements";
+import { CliError, parseOptions, readArm, readJsonFile, required, type CliCommand } from "../io";
+
+/** RFC 4180 field: quoted when it holds a comma, quote or line break. */
+function csvField(v: unknown): string {
+  const s = v === null || v === undefined ? "" : String(v);
+  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** The compliance table: specs, then targets and paths, each against every arm. */
+export function complianceCsv(result: ShortlistAnalysis): string {
+  const rows: unknown[][] = [["kind", "requirement", "priority", "required", "arm", "value", "unit", "verdict", "reason"]];
+  const nSpecs = result.requirementSet.specs.length;
+  for (let i = 0; i < nSpecs; i++) {
+    for (const a of result.arms) {
+      const s = a.specs[i];
+      rows.push(["spec", s.label, s.priority, `${{ atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" }[s.comparator]} ${s.requiredDisplay}`, a.name, s.valueDisplay, s.displayUnit, s.verdict, s.reason]);
+    }
+  }
+  result.requirementSet.targets.forEach((name, i) => {
+    for (const a of result.arms) {
+      const t = a.targets[i];
+      if (!t) { rows.push(["target", name, "", "reached", a.name, "", "", "unknown", a.error ?? ""]); continue; }
+      rows.push(["target", name, "", `reached (${t.mode})`, a.name, t.reached ? t.dexterity!.margin.toFixed(3) : (t.positionError * 1000).toFixed(1), t.reached ? "dexterity margin" : "mm position error", t.verdict, t.reason]);
+    }
+  });
+  result.requirementSet.paths.forEach((name, i) => {
+    for (const a of result.arms) {
+      const p = a.paths[i];
+      if (!p) { rows.push(["path", name, "", "followed", a.name, "", "", "unknown", a.error ?? ""]); continue; }
+      const f = p.speed.achievableFraction;
+      rows.push(["path", name, "", `${(p.speed.required * 1000).toFixed(0)} mm/s`, a.name, f === null ? "" : (f * 100).toFixed(0), f === null ? "" : "% of required speed", p.verdict, p.reason]);
+    }
+  });
+  return rows.map((r) => r.map(csvField).join(",")).join("\n") + "\n";
+}
+
+export const command: CliCommand = {
+  usage: "analyze  --arms A.json,B.json --requirements R.json [--format json|csv]  → the shortlist analysis (JSON) or the compliance table (CSV)",
+  run(argv) {
+    const options = parseOptions(argv, ["arms", "requirements", "format"]);
+    const format = options.get("format") ?? "json";
+    if (format !== "json" && format !== "csv") throw new CliError("--format", `must be json or csv, got "${format}"`);
+    const files = required(options, "arms").split(",").map((s) => s.trim()).filter(Boolean);
+    if (files.length === 0) throw new CliError("--arms", "needs at least one arm file");
+    const arms: ShortlistArm[] = files.map((f, i) => ({ id: `${i + 1}:${path.basename(f)}`, revision: 1, arm: readArm(f, "--arms") }));
+    const reqFile = required(options, "requirements");
+    const parsed = requirementSetSchema.safeParse(readJsonFile(reqFile, "--requirements"));
+    if (!parsed.success) {
+      const issue = parsed.error.issues[0];
+      const where = issue.path.length ? issue.path.map(String).join(".") : "(root)";
+      throw new CliError(`--requirements ${reqFile}: ${where}`, issue.message);
+    }
+    const result = analyzeShortlist(arms, parsed.data);
+    if (format === "csv") return complianceCsv(result);
+    return { key: analysisKey(arms, parsed.data), ...result } as unknown as Record<string, unknown>;
+  },
+};
