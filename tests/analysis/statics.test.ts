@@ -165,3 +165,20 @@ describe("force ellipsoid and wrist loads", () => {
     expect(wristAxisLoad([0, 0, 1], [0, 0, 0], [{ ...body, inertia: null }]).inertiaComplete).toBe(false);
   });
 });
+
+describe("gravity is −z of the cell, whatever the base pose", () => {
+  it("a ceiling-mounted arm feels the opposite gravity torque of the same arm on the floor (τ_hold is linear in g)", async () => {
+    const { createArmContext } = await import("@/lib/analysis/context");
+    const { requirementSetSchema } = await import("@/shared/schemas/requirements");
+    const I4 = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+    const cell = (base: number[]) => requirementSetSchema.parse({ name: "c", base, tool: { tcp: I4, mass: 0, cog: [0, 0, 0] }, payload: { mass: 0, cog: [0, 0, 0] }, targets: [], paths: [], specs: [] });
+    const floor = createArmContext(REF.endToEnd.arm, cell(I4));
+    // Rx(180°) at 2.5 m: hanging from the ceiling.
+    const ceiling = createArmContext(REF.endToEnd.arm, cell([1, 0, 0, 0.4, 0, -1, 0, 0, 0, 0, -1, 2.5, 0, 0, 0, 1]));
+    const q = [0.3, -0.6, 0.8, 0.2, 0.5, 0.1];
+    const a = gravityTorque(floor.model, floor.data, q, [], floor.jac);
+    const b = gravityTorque(ceiling.model, ceiling.data, q, [], ceiling.jac);
+    for (let i = 0; i < 6; i++) expect(b[i]).toBeCloseTo(-a[i], 9);
+    expect(Math.abs(a[1])).toBeGreaterThan(1);
+  });
+});
