@@ -1,0 +1,104 @@
+/**
+ * The ranking and the compliance table as plain rows (pure): the one source for the CSV, XLSX
+ * and JSON exports, so every format carries the same values, units and verdict words.
+ */
+import type { Weights } from "@/shared/schemas/requirements";
+import { SUB_SCORE_KEYS, type RankedArm, type SubScoreKey } from "@/lib/analysis/ranking";
+import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
+
+/** Display names of the sub-scores (also used by the page). */
+export const SUB_SCORE_LABELS: Record<SubScoreKey, string> = {
+  coverage: "Target coverage",
+  dexterity: "Worst dexterity margin",
+  payload: "Payload margin",
+  force: "Force margin",
+  pathSpeed: "Path speed",
+  price: "Price",
+};
+
+/** What every export states about where its numbers come from. */
+export interface ExportMeta {
+  shortlist: { id: string; name: string };
+  run: { id: string; finishedAt: string | null };
+  analysisVersion: string;
+  requirement: { id: string; name: string; revision: number };
+  arms: { id: string; name: string; revision: number }[];
+  /** Weights the ranking was computed with. */
+  weights: Weights;
+  /** True when they differ from the requirement set's stored weights. */
+  weightsAdjusted: boolean;
+  caution: string;
+  /** When the export was made (ISO). */
+  exportedAt: string;
+}
+
+export type Cell = string | number | null;
+
+export interface Table {
+  title: string;
+  columns: string[];
+  rows: Cell[][];
+}
+
+const NUMERIC = /^-?\d+(\.\d+)?$/;
+/** A display value as a number when it is one (so spreadsheets can compute with it). */
+const asCell = (text: string): Cell => (NUMERIC.test(text) ? Number(text) : text === "" ? null : text);
+const round = (v: number, d = 4) => Math.round(v * 10 ** d) / 10 ** d;
+
+/** The ranking, best first; `ranking` may be a re-rank with other weights. */
+export function rankingTable(analysis: ShortlistAnalysis, ranking: readonly RankedArm[] = analysis.ranking): Table {
+  const byId = new Map(analysis.arms.map((a) => [a.id, a]));
+  const columns = [
+    "Rank", "Arm", "Maker", "Model code", "Arm revision", "Status", "Score (0–1)",
+    ...SUB_SCORE_KEYS.map((k) => `${SUB_SCORE_LABELS[k]} contribution (0–1)`),
+    ...SUB_SCORE_KEYS.map((k) => `${SUB_SCORE_LABELS[k]} sub-score (0–1)`),
+    ...SUB_SCORE_KEYS.map((k) => `${SUB_SCORE_LABELS[k]} weight (share of 1)`),
+    "Targets reached (count)", "Targets (count)", "Failed must requirements", "Must requirements with missing data", "Summary",
+  ];
+  const rows = ranking.map((r): Cell[] => {
+    const a = byId.get(r.armId)!;
+    return [
+      r.rank, a.name, a.maker, a.modelCode, a.revision, r.disqualified ? "disqualified" : "qualified", round(r.score),
+      ...SUB_SCORE_KEYS.map((k) => round(r.contributions[k])),
+      ...SUB_SCORE_KEYS.map((k) => (a.subScores[k].applicable ? round(a.subScores[k].value) : "not applicable")),
+      ...SUB_SCORE_KEYS.map((k) => round(r.weights[k])),
+      a.targets.filter((t) => t.reached).length, a.targets.length,
+      r.failedMusts.join("; "), r.unknownMusts.join("; "), a.summary,
+    ];
+  });
+  return { title: "Ranking", columns, rows };
+}
+
+const COMPARATOR_WORDS = { atLeast: "at least", atMost: "at most", equals: "equals", includes: "includes" } as const;
+
+/** Every spec requirement against every arm: one row per (requirement, arm). */
+export function complianceTable(analysis: ShortlistAnalysis): Table {
+  const columns = ["Requirement", "Priority", "Comparator", "Required value", "Required unit", "Arm", "Arm revision", "Arm value", "Arm value unit", "Verdict", "Reason"];
+  const rows: Cell[][] = [];
+  const count = analysis.requirementSet.specs.length;
+  for (let i = 0; i < count; i++) {
+    for (const a of analysis.arms) {
+      const s = a.specs[i];
+      if (!s) continue;
+      rows.push([
+        s.label, s.priority, COMPARATOR_WORDS[s.comparator], asCell(s.requiredDisplay), s.displayUnit || null,
+        a.name, a.revision, s.value === null ? "no data" : asCell(s.valueDisplay), s.value === null ? null : s.displayUnit || null, s.verdict, s.reason,
+      ]);
+    }
+  }
+  return { title: "Compliance", columns, rows };
+}
+
+/** The metadata block as (key, value) pairs. */
+export function metadataPairs(meta: ExportMeta): [string, string][] {
+  return [
+    ["Shortlist", `${meta.shortlist.name} (${meta.shortlist.id})`],
+    ["Analysis version", meta.analysisVersion],
+    ["Analysis run", `${meta.run.id}${meta.run.finishedAt ? `, finished ${meta.run.finishedAt}` : ""}`],
+    ["Requirement set", `${meta.requirement.name} (${meta.requirement.id}) revision ${meta.requirement.revision}`],
+    ...meta.arms.map((a): [string, string] => ["Arm", `${a.name} (${a.id}) revision ${a.revision}`]),
+    ["Weights", SUB_SCORE_KEYS.map((k) => `${k} ${meta.weights[k]}`).join(", ") + (meta.weightsAdjusted ? " (adjusted on the page, not saved)" : " (the requirement set's)")],
+    ["Exported", meta.exportedAt],
+    ["Caution", meta.caution],
+  ];
+}

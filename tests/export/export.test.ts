@@ -1,0 +1,110 @@
+// Exports of a shortlist result: the CSV and XLSX are parsed back and compared with the analysis
+// library's result for the demo bench-assembly scenario (values, units, verdict words, metadata).
+import { beforeAll, describe, expect, it } from "vitest";
+import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
+import { analyzeShortlist, rankArms, type ShortlistAnalysis } from "@/lib/analysis";
+import { complianceTable, csvField, rankingTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
+import { readCsvExport, readXlsx, sheetRecords } from "./parse";
+
+let analysis: ShortlistAnalysis;
+let meta: ExportMeta;
+beforeAll(() => {
+  const req = loadSeedRequirementSets().find((r) => r.name.startsWith("Bench assembly"))!;
+  const arms = loadSeedArms().map((arm, i) => ({ id: `arm-${i + 1}`, revision: i + 1, arm }));
+  analysis = analyzeShortlist(arms, req);
+  meta = {
+    shortlist: { id: "sl-1", name: "Press-fit cell, \"round 1\"" },
+    run: { id: "run-1", finishedAt: "2026-01-02T03:04:05.000Z" },
+    analysisVersion: analysis.version,
+    requirement: { id: "req-1", name: req.name, revision: 3 },
+    arms: arms.map((a) => ({ id: a.id, name: a.arm.name, revision: a.revision })),
+    weights: analysis.weights,
+    weightsAdjusted: false,
+    caution: analysis.caution,
+    exportedAt: "2026-01-02T03:05:00.000Z",
+  };
+});
+
+describe("CSV", () => {
+  it("quotes, doubles quotes and guards formula-like text", () => {
+    expect(csvField('a "b", c')).toBe('"a ""b"", c"');
+    expect(csvField("=HYPERLINK(1)")).toBe("'=HYPERLINK(1)");
+    expect(csvField("-12.5")).toBe("-12.5");
+    expect(csvField(-3)).toBe("-3");
+    expect(csvField(null)).toBe("");
+  });
+
+  it("compliance: one row per requirement and arm with the display value, unit and verdict word", () => {
+    const text = toCsv(complianceTable(analysis), meta);
+    const { meta: lines, columns, records } = readCsvExport(text);
+    expect(columns).toEqual(["Requirement", "Priority", "Comparator", "Required value", "Required unit", "Arm", "Arm revision", "Arm value", "Arm value unit", "Verdict", "Reason"]);
+    expect(records).toHaveLength(analysis.arms.length * analysis.requirementSet.specs.length);
+    expect(lines).toContain(`Analysis version: ${analysis.version}`);
+    expect(lines).toContain(`Requirement set: ${meta.requirement.name} (req-1) revision 3`);
+    expect(lines.filter((l) => l.startsWith("Arm: "))).toHaveLength(7);
+    expect(lines.some((l) => l.startsWith("Caution: ") && l.includes("ISO 12100"))).toBe(true);
+    for (const a of analysis.arms) {
+      for (const s of a.specs) {
+        const rec = records.find((r) => r.Arm === a.name && r.Requirement === s.label)!;
+        expect(rec.Verdict).toBe(s.verdict);
+        expect(["meets", "marginal", "fails", "unknown"]).toContain(rec.Verdict);
+        expect(rec["Arm value"]).toBe(s.value === null ? "no data" : s.valueDisplay);
+        expect(rec["Required unit"]).toBe(s.displayUnit);
+        expect(rec["Arm revision"]).toBe(String(a.revision));
+      }
+    }
+    // Reach is shown in mm (stored in m): the demo requirement asks for ≥ 600 mm.
+    const reach = records.find((r) => r.Requirement.startsWith("Reach"))!;
+    expect(reach["Required value"]).toBe("600");
+    expect(reach["Required unit"]).toBe("mm");
+  });
+
+  it("ranking: rank order, status and contributions as computed by rankArms", () => {
+    const weights = { ...analysis.weights, price: 10 };
+    const reranked = rankArms(analysis.arms.map((a) => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), weights);
+    const { records } = readCsvExport(toCsv(rankingTable(analysis, reranked), { ...meta, weights, weightsAdjusted: true }));
+    expect(records.map((r) => r.Arm)).toEqual(reranked.map((r) => analysis.arms.find((a) => a.id === r.armId)!.name));
+    records.forEach((rec, i) => {
+      const r = reranked[i];
+      expect(Number(rec.Rank)).toBe(r.rank);
+      expect(rec.Status).toBe(r.disqualified ? "disqualified" : "qualified");
+      expect(Number(rec["Score (0–1)"])).toBeCloseTo(r.score, 4);
+      expect(Number(rec["Price contribution (0–1)"])).toBeCloseTo(r.contributions.price, 4);
+      expect(rec["Failed must requirements"]).toBe(r.failedMusts.join("; "));
+    });
+  });
+});
+
+describe("XLSX", () => {
+  it("has Ranking, Compliance and Metadata sheets with numbers as numbers and verdicts as words", async () => {
+    const bytes = await toXlsx([rankingTable(analysis), complianceTable(analysis)], meta);
+    const sheets = await readXlsx(bytes);
+    expect(Object.keys(sheets)).toEqual(["Ranking", "Compliance", "Metadata"]);
+    const ranking = sheetRecords(sheets.Ranking);
+    expect(ranking.map((r) => r.Rank)).toEqual(analysis.ranking.map((r) => r.rank));
+    expect(ranking[0]["Score (0–1)"]).toBeCloseTo(analysis.ranking[0].score, 4);
+    const compliance = sheetRecords(sheets.Compliance);
+    const armMass = compliance.filter((r) => String(r.Requirement).startsWith("Arm mass"));
+    expect(armMass).toHaveLength(7);
+    for (const row of armMass) {
+      const arm = analysis.arms.find((a) => a.name === row.Arm)!;
+      const s = arm.specs.find((x) => x.field === "armMass")!;
+      expect(row["Arm value"]).toBe(Number(s.valueDisplay));
+      expect(row["Arm value unit"]).toBe("kg");
+      expect(row.Verdict).toBe(s.verdict);
+    }
+    const md = Object.fromEntries(sheets.Metadata.slice(1).filter((r) => r[0] !== "Arm").map((r) => [r[0], r[1]]));
+    expect(md["Analysis version"]).toBe(analysis.version);
+    expect(md["Requirement set"]).toContain("revision 3");
+    expect(sheets.Metadata.filter((r) => r[0] === "Arm").map((r) => r[1])).toEqual(meta.arms.map((a) => `${a.name} (${a.id}) revision ${a.revision}`));
+  });
+});
+
+describe("JSON", () => {
+  it("round-trips the analysis with its metadata and ranking", () => {
+    const parsed = JSON.parse(toShortlistJson(meta, analysis, analysis.ranking));
+    expect(parsed.format).toBe("armsift-shortlist-1");
+    expect(parsed.meta.requirement.revision).toBe(3);
+    expect(parsed.analysis).toEqual(JSON.parse(JSON.stringify(analysis)));
+  });
+});
