@@ -18,13 +18,67 @@ export function databaseUrl(env: NodeJS.ProcessEnv = process.env): string {
   return `file:${env.ARMSIFT_DB ?? path.join(".", "data", "armsift.db")}`;
 }
 
-/** Opens every connection with WAL journaling, a busy timeout and foreign keys enforced. */
+/** A promise-chain mutex: `run` executes callbacks one at a time, in call order. */
+function createLock() {
+  let tail: Promise<unknown> = Promise.resolve();
+  return {
+    acquire(): Promise<() => void> {
+      let release!: () => void;
+      const held = new Promise<void>((r) => (release = r));
+      const ready = tail.then(() => release);
+      tail = tail.then(() => held);
+      return ready;
+    },
+  };
+}
+
+/**
+ * Opens every connection with WAL journaling, a busy timeout and foreign keys enforced.
+ *
+ * The adapter has one connection. An interactive transaction holds it from BEGIN to COMMIT, but
+ * plain queries would otherwise run on the same connection in the middle of it and be rolled
+ * back with it. Here a statement outside a transaction waits until no transaction is open.
+ */
 class ArmsiftSqliteAdapter extends PrismaBetterSQLite3 {
   override async connect(): ReturnType<PrismaBetterSQLite3["connect"]> {
     const adapter = await super.connect();
     await adapter.executeScript(
       `PRAGMA journal_mode = WAL; PRAGMA busy_timeout = ${BUSY_TIMEOUT_MS}; PRAGMA foreign_keys = ON; PRAGMA synchronous = NORMAL;`,
     );
+    const lock = createLock();
+    const startTransaction = adapter.startTransaction.bind(adapter);
+    adapter.startTransaction = async (isolationLevel) => {
+      const release = await lock.acquire();
+      try {
+        const tx = await startTransaction(isolationLevel);
+        const commit = tx.commit.bind(tx);
+        const rollback = tx.rollback.bind(tx);
+        tx.commit = () => commit().finally(release);
+        tx.rollback = () => rollback().finally(release);
+        return tx;
+      } catch (err) {
+        release();
+        throw err;
+      }
+    };
+    const queryRaw = adapter.queryRaw.bind(adapter);
+    const executeRaw = adapter.executeRaw.bind(adapter);
+    adapter.queryRaw = async (query) => {
+      const release = await lock.acquire();
+      try {
+        return await queryRaw(query);
+      } finally {
+        release();
+      }
+    };
+    adapter.executeRaw = async (query) => {
+      const release = await lock.acquire();
+      try {
+        return await executeRaw(query);
+      } finally {
+        release();
+      }
+    };
     return adapter;
   }
 }

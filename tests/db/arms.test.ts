@@ -15,6 +15,8 @@ import {
 } from "@/lib/db/arms";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/db/errors";
 import { createUser } from "@/lib/db/users";
+import { insertSession } from "@/lib/db/sessions";
+import { db } from "@/lib/db/client";
 
 let t: TestDb;
 let userId: string;
@@ -127,6 +129,22 @@ describe("concurrent edits", () => {
     expect(outputs.map((o) => o.outcome).sort()).toEqual(["conflict", "saved"]);
     const history = await listArmRevisions(id);
     expect(history?.map((r) => r.revision)).toEqual([2, 1]);
+  });
+
+  it("a plain write that arrives during a transaction that fails is kept", async () => {
+    const token = "plain-write-during-rollback";
+    let outside: Promise<void> | undefined;
+    const failed = db()
+      .$transaction(async (tx) => {
+        await tx.arm.updateMany({ where: { id: "none" }, data: { name: "x" } });
+        outside = insertSession(token, userId, new Date(Date.now() + 60_000)); // not part of the transaction
+        await new Promise((r) => setTimeout(r, 100));
+        throw new Error("roll back");
+      })
+      .catch((e: Error) => e.message);
+    expect(await failed).toBe("roll back");
+    await outside;
+    expect(await t.client.session.count({ where: { id: token } })).toBe(1);
   });
 
   it("a baseRevision newer than the current one is a field error", async () => {
