@@ -43,11 +43,6 @@ export function AuthForm({ mode, next }: Props) {
       );
       return;
     }
-    if (mode === "signup") {
-      // The account exists; make sure a session does too.
-      const me = await api("/api/auth/me", "GET");
-      if (!me.ok) await api("/api/auth/signin", "POST", { email, password });
-    }
     window.location.assign(safeNext(next));
   }
 
@@ -55,10 +50,14 @@ export function AuthForm({ mode, next }: Props) {
   return (
     <form onSubmit={submit} noValidate className="panel narrow" aria-labelledby="auth-title">
       <h1 id="auth-title">{mode === "signup" ? "Create an account" : "Sign in"}</h1>
+      <p className="sub">Armsift keeps candidate arm models and cell requirement sets for a team shortlisting robot arms.</p>
       {mode === "signup" && (
         <p className="sub">The first account becomes the administrator; later accounts start as viewers until an administrator changes their role.</p>
       )}
-      <ErrorSummary title={message ?? undefined} messages={message && fieldMessages.length === 0 ? [message] : fieldMessages} />
+      <ErrorSummary
+        title={message ? (mode === "signin" ? "Not signed in" : "Account not created") : undefined}
+        messages={message && fieldMessages.length === 0 ? [message] : fieldMessages}
+      />
       <TextField label="Email" type="email" name="email" autoComplete="email" value={email} onChange={setEmail} error={errText(errors, "email")} required />
       {mode === "signup" && (
         <TextField label="Name" name="name" autoComplete="name" value={name} onChange={setName} error={errText(errors, "name")} required />

@@ -22,7 +22,7 @@ export function PoseFieldset(props: {
     <fieldset className="panel" data-testid={props.idPrefix}>
       <legend>{props.legend}</legend>
       {props.description && <p className="hint">{props.description}</p>}
-      <div className="grid">
+      <div className="pose-grid">
         {POSE_KEYS.map((k) => (
           <NumberField
             key={k}

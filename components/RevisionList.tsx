@@ -16,9 +16,7 @@ export function RevisionList({ revisions, baseHref, current }: { revisions: Revi
       <table data-testid="revision-table">
         <thead>
           <tr>
-            <th scope="col" className="num">
-              Revision
-            </th>
+            <th scope="col">Revision</th>
             <th scope="col">Saved</th>
             <th scope="col">Author</th>
             <th scope="col">Summary</th>
@@ -27,11 +25,11 @@ export function RevisionList({ revisions, baseHref, current }: { revisions: Revi
         <tbody>
           {revisions.map((r) => (
             <tr key={r.revision}>
-              <td className="num">
+              <td>
                 <Link href={`${baseHref}/${r.revision}`}>Revision {r.revision}</Link>
                 {r.revision === current && <span className="sub"> (current)</span>}
               </td>
-              <td>{when(r.createdAt)}</td>
+              <td className="when">{when(r.createdAt)}</td>
               <td>{r.author ?? "–"}</td>
               <td>{r.summary}</td>
             </tr>

@@ -7,10 +7,14 @@ import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
 
 export const RPY_CONVENTION = "roll-pitch-yaw about the fixed axes X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll)";
 
-/** Shown number: up to 12 significant digits, no float noise such as 100.00000000000001. */
+/**
+ * Shown number: up to 9 significant digits, so float noise (100.00000000000001) and the last digits
+ * of angles stored as rounded radians (90.0000000017°) do not show. Forms send unedited values
+ * back exactly as loaded, so this rounding never changes stored data.
+ */
 export function show(v: number | undefined | null): string {
   if (v === undefined || v === null || !Number.isFinite(v)) return "";
-  const r = Number(v.toPrecision(12));
+  const r = Number(v.toPrecision(9));
   return Object.is(r, -0) ? "0" : String(r);
 }
 

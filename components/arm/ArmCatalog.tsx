@@ -169,7 +169,7 @@ export function ArmCatalog({ arms, canWrite }: { arms: ArmRow[]; canWrite: boole
                     {a.specs.price !== undefined ? `${a.specs.price.toLocaleString("en-US", { maximumFractionDigits: 2 })} ${a.specs.currency ?? ""}`.trim() : dash}
                   </td>
                   <td className="num">{a.revision}</td>
-                  <td>
+                  <td className="when">
                     {when(a.updatedAt)}
                     {a.updatedBy && <span className="sub"> by {a.updatedBy}</span>}
                   </td>

@@ -84,7 +84,7 @@ export function ArmEditor(props: Props) {
     const { doc, errors: clientErrors } = validateArmForm(form);
     if (clientErrors.length) {
       setErrors(clientErrors);
-      setMessage("Not saved: fix the fields marked below.");
+      setMessage(`Not saved: ${clientErrors.length === 1 ? "1 problem" : `${clientErrors.length} problems`}, marked at the fields and listed above this bar.`);
       return;
     }
     setBusy(true);
@@ -262,7 +262,7 @@ export function ArmEditor(props: Props) {
         )}
       </fieldset>
 
-      <div className="grid wide" style={{ gap: "0 1rem" }}>
+      <div className="two-col">
         <PoseFieldset
           legend="Base transform (arm base → first DH frame)"
           idPrefix="base"
@@ -340,7 +340,7 @@ export function ArmEditor(props: Props) {
         {form.specs.wristAllowables.length === 0 ? (
           <p className="empty">None stated.</p>
         ) : (
-          <div className="table-wrap" style={{ maxWidth: 560 }}>
+          <div className="table-wrap">
             <table className="cell-table">
               <thead>
                 <tr>

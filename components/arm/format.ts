@@ -11,7 +11,8 @@ export function formatArmValue(path: string, value: unknown, doc: ArmDocument | 
     const type = doc?.joints[Number(p[1])]?.type ?? "revolute";
     if (p[2] === "com") return `${show(mToMm(value))} mm`;
     const f = p[2] as JointNumField;
-    return `${show(jointFieldToDisplay(f, type, value))} ${jointFieldUnit(f, type)}`;
+    const unit = jointFieldUnit(f, type);
+    return `${show(jointFieldToDisplay(f, type, value))}${unit === "°" ? "" : " "}${unit}`;
   }
   if (p[0] === "joints" && p[2] === "com" && Array.isArray(value)) return `${value.map((v) => show(mToMm(v as number))).join(", ")} mm`;
   if ((p[0] === "base" || p[0] === "tool") && Array.isArray(value) && value.length === 16) {

@@ -83,7 +83,7 @@ export function RequirementEditor(props: Props) {
     const { doc, errors: clientErrors } = validateReqForm(form);
     if (clientErrors.length) {
       setErrors(clientErrors);
-      setMessage("Not saved: fix the fields marked below.");
+      setMessage(`Not saved: ${clientErrors.length === 1 ? "1 problem" : `${clientErrors.length} problems`}, marked at the fields and listed above this bar.`);
       return;
     }
     setBusy(true);
@@ -225,7 +225,7 @@ export function RequirementEditor(props: Props) {
         </p>
       </fieldset>
 
-      <div className="grid wide">
+      <div className="two-col">
         <PoseFieldset
           legend="Arm base placement in the cell"
           idPrefix="base"
@@ -247,7 +247,7 @@ export function RequirementEditor(props: Props) {
           readOnly={readOnly}
         />
       </div>
-      <div className="grid wide">
+      <div className="two-col">
         <fieldset className="panel">
           <legend>Tool mass</legend>
           <div className="grid">
@@ -269,7 +269,7 @@ export function RequirementEditor(props: Props) {
         <p className="hint">
           TCP poses in the cell frame, orientation as roll-pitch-yaw about the fixed cell axes X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll). Mode: <strong>pose</strong> = full position and orientation;{" "}
           <strong>axis</strong> = position and tool z-axis, free spin about it; <strong>point</strong> = position only. Force and moment (optional) are what the tool applies to the environment, in
-          the cell frame.
+          the cell frame; leave all three empty for none, an empty cell next to a filled one counts as 0.
         </p>
         <TargetTable rows={form.targets} errors={errMap} readOnly={readOnly} onChange={(rows, s) => update({ targets: rows }, s)} />
       </fieldset>

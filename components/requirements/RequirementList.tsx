@@ -133,7 +133,7 @@ export function RequirementList({ sets, canWrite }: { sets: RequirementRow[]; ca
                   <td className="num">{s.targets}</td>
                   <td className="num">{s.paths}</td>
                   <td className="num">{s.revision}</td>
-                  <td>
+                  <td className="when">
                     {when(s.updatedAt)}
                     {s.updatedBy && <span className="sub"> by {s.updatedBy}</span>}
                   </td>

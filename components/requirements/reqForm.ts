@@ -246,8 +246,9 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     return poseMatrix(p, r);
   };
   const vec = (ids: string[], texts: string[], c: Conv, path: string, what: string, optional: boolean): [number, number, number] | undefined => {
+    // An optional vector is absent when all three cells are empty; otherwise empty cells mean 0.
     if (optional && texts.every((s) => s.trim() === "")) return undefined;
-    return texts.map((s, i) => num(ids[i], s, c, `${path}.${i}`, `${what} ${"xyz"[i]}`) ?? 0) as [number, number, number];
+    return texts.map((s, i) => num(ids[i], s, c, `${path}.${i}`, `${what} ${"xyz"[i]}`, !optional) ?? 0) as [number, number, number];
   };
 
   const targets = form.targets.map((t, i) => {

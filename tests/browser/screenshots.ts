@@ -1,0 +1,72 @@
+/**
+ * Screenshots of every page at 1280 and 390 px wide, for looking at the UI (not a test):
+ *   npx tsx tests/browser/screenshots.ts [outDir]
+ * Uses the harness: temporary seeded database, built server, headless Chromium.
+ */
+import { mkdirSync } from "node:fs";
+import path from "node:path";
+import { signUp, startHarness } from "./harness";
+
+async function main(): Promise<void> {
+  const out = path.resolve(process.argv[2] ?? "test-results/shots");
+  mkdirSync(out, { recursive: true });
+  const h = await startHarness();
+  try {
+    const b = await h.browser();
+    const t = await b.open("/signin");
+    const p = t.page;
+    const shots: [string, string][] = [];
+    const snap = async (name: string) => {
+      for (const width of [1280, 390]) {
+        await p.setViewportSize({ width, height: 900 });
+        await p.waitForTimeout(150);
+        const file = path.join(out, `${name}-${width}.png`);
+        await p.screenshot({ path: file, fullPage: true });
+        shots.push([name, file]);
+      }
+      await p.setViewportSize({ width: 1280, height: 900 });
+    };
+    await snap("signin");
+    await p.goto("/signup");
+    await snap("signup");
+    await signUp(t, { email: "shots@example.test", name: "Sam Shots", password: "screenshots only 123" });
+    await snap("arms");
+    const firstArm = await p.getByTestId("arm-table").locator("tbody tr a").first().getAttribute("href");
+    await p.goto("/arms/new");
+    await snap("arm-new");
+    await p.goto(firstArm!);
+    await snap("arm-edit");
+    await p.getByRole("button", { name: "Paste from spreadsheet…" }).click();
+    await p.getByLabel("Pasted table").fill("type\ta\talpha\td\ttheta\tmin\tmax\nR\t0\t90\t300\t0\t-170\t170\nR\t250\tabc\t0\t0\t-120\t120");
+    await p.getByLabel("joint 1 max (°)", { exact: true }).fill("-400");
+    await p.getByRole("button", { name: "Save new revision" }).click();
+    await snap("arm-edit-errors");
+    await p.goto(firstArm! + "/history");
+    await snap("arm-history");
+    await p.goto(firstArm! + "/history/1");
+    await snap("arm-revision");
+    await p.goto("/requirements");
+    await snap("requirements");
+    const firstSet = await p.getByTestId("requirement-table").locator("tbody tr a").first().getAttribute("href").catch(() => null);
+    await p.goto("/requirements/new");
+    await snap("requirement-new");
+    if (firstSet) {
+      await p.goto(firstSet);
+      await snap("requirement-edit");
+    }
+    await p.goto("/admin/users");
+    await p.getByRole("table").waitFor();
+    await snap("users");
+    await p.goto("/no-such-page");
+    await snap("not-found");
+    console.log(shots.map(([, f]) => f).join("\n"));
+    if (t.errors().length) console.log("console errors:\n" + t.errors().join("\n"));
+  } finally {
+    await h.close();
+  }
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});
