@@ -1,4 +1,0 @@
-import * as r from "../_lib/routes";
-
-export const dynamic = "force-dynamic";
-export const GET = r.get;
