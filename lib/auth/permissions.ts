@@ -8,6 +8,21 @@ export interface SessionUser {
   role: Role;
 }
 
+/**
+ * A visitor holding a valid (known, unexpired, unrevoked) share link. A guest has no account;
+ * everything it may do is bounded by the link: one shortlist, view or comment access.
+ */
+export interface LinkGuest {
+  kind: "link";
+  linkId: string;
+  shortlistId: string;
+  access: "view" | "comment";
+  hidePrices: boolean;
+}
+
+/** Whoever asks: a member, a link guest, or nobody (null = anonymous). */
+export type Principal = SessionUser | LinkGuest;
+
 export type Action =
   | "arm:read"
   | "arm:write"
@@ -16,11 +31,25 @@ export type Action =
   | "user:admin"
   | "shortlist:read"
   | "shortlist:write"
+  | "comment:read"
   | "comment:write"
+  | "comment:edit"
+  | "comment:delete"
+  | "comment:resolve"
   | "share:manage"
+  | "share:revoke"
+  | "price:read"
   | "audit:read";
 
-/** Which roles may do what. The one place that decides; every route handler asks `can()`. */
+/** What an action is about, for the decisions that depend on it (owner, shortlist). */
+export interface Resource {
+  /** The shortlist the action touches; a link guest is confined to its own. */
+  shortlistId?: string;
+  /** The account that made the thing (comment author, link creator); null for a guest's comment. */
+  ownerId?: string | null;
+}
+
+/** Which member roles may do what. */
 const GRANTS: Record<Action, readonly Role[]> = {
   "arm:read": ["admin", "editor", "viewer"],
   "arm:write": ["admin", "editor"],
@@ -29,12 +58,54 @@ const GRANTS: Record<Action, readonly Role[]> = {
   "user:admin": ["admin"],
   "shortlist:read": ["admin", "editor", "viewer"],
   "shortlist:write": ["admin", "editor"],
+  "comment:read": ["admin", "editor", "viewer"],
   "comment:write": ["admin", "editor", "viewer"],
+  // Own comments only (see OWN_ONLY); an admin may also delete anyone's (moderation).
+  "comment:edit": ["admin", "editor", "viewer"],
+  "comment:delete": ["admin", "editor", "viewer"],
+  "comment:resolve": ["admin", "editor", "viewer"],
   "share:manage": ["admin", "editor"],
+  // An editor revokes the links they made; an admin any link.
+  "share:revoke": ["admin", "editor"],
+  "price:read": ["admin", "editor", "viewer"],
   "audit:read": ["admin"],
 };
 
-export function can(user: SessionUser | null | undefined, action: Action): boolean {
-  if (!user) return false;
-  return GRANTS[action].includes(user.role);
+/** Actions on a thing that a member may do only to their own, unless the role is listed. */
+const OWN_ONLY: Partial<Record<Action, readonly Role[]>> = {
+  "comment:edit": [],
+  "comment:delete": ["admin"],
+  "share:revoke": ["admin"],
+};
+
+/** What a link guest may do, by the link's access; always confined to the link's shortlist. */
+const GUEST_GRANTS: Record<LinkGuest["access"], readonly Action[]> = {
+  view: ["shortlist:read", "comment:read", "price:read"],
+  comment: ["shortlist:read", "comment:read", "comment:write", "price:read"],
+};
+
+export const isLinkGuest = (p: Principal | null | undefined): p is LinkGuest =>
+  typeof p === "object" && p !== null && (p as LinkGuest).kind === "link";
+
+/**
+ * The one place that decides who may do what: every route handler and page asks `can()`.
+ * - anonymous (null): nothing (signing in and up is open and needs no decision);
+ * - a member: by role (GRANTS), and for OWN_ONLY actions only on their own thing unless the role
+ *   is exempt;
+ * - a link guest: what its link grants (GUEST_GRANTS), only on the link's shortlist, never prices
+ *   when the link hides them, never edits, deletes, resolves or link management.
+ */
+export function can(principal: Principal | null | undefined, action: Action, resource: Resource = {}): boolean {
+  if (!principal) return false;
+  if (isLinkGuest(principal)) {
+    if (resource.shortlistId !== undefined && resource.shortlistId !== principal.shortlistId) return false;
+    if (action === "price:read" && principal.hidePrices) return false;
+    return GUEST_GRANTS[principal.access].includes(action);
+  }
+  if (!GRANTS[action].includes(principal.role)) return false;
+  const exempt = OWN_ONLY[action];
+  if (exempt && resource.ownerId !== undefined && !exempt.includes(principal.role)) {
+    return resource.ownerId !== null && resource.ownerId === principal.id;
+  }
+  return true;
 }

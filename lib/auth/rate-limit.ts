@@ -62,3 +62,15 @@ export function clientAddress(req: Request): string {
   }
   return req.headers.get("x-real-ip")?.trim() || "unknown";
 }
+
+/** Comment posting: at most 30 comments per minute per member, or per guest link and address. */
+export const COMMENT_WINDOW_MS = 60 * 1000;
+export const commentPosts = new SlidingWindowLimiter(30, COMMENT_WINDOW_MS);
+
+/**
+ * Share-link access by token: at most 20 unknown, expired or revoked tokens per client address in
+ * 10 minutes (guessing), and at most 600 token requests per address per minute overall.
+ */
+export const SHARE_FAILURE_WINDOW_MS = 10 * 60 * 1000;
+export const shareTokenFailures = new SlidingWindowLimiter(20, SHARE_FAILURE_WINDOW_MS);
+export const shareTokenRequests = new SlidingWindowLimiter(600, 60 * 1000);

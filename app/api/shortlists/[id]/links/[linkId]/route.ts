@@ -1,0 +1,4 @@
+import * as r from "@/app/api/share/_lib/routes";
+
+export const dynamic = "force-dynamic";
+export const DELETE = r.revokeLink;

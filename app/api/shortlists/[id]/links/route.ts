@@ -1,0 +1,5 @@
+import * as r from "@/app/api/share/_lib/routes";
+
+export const dynamic = "force-dynamic";
+export const GET = r.listLinks;
+export const POST = r.createLink;

@@ -1,0 +1,116 @@
+// Discussion on a temporary database: anchors checked against the pins, threads, edits kept as
+// immutable revisions, soft delete, resolve/reopen, mentions, unread counts, idempotent posts,
+// guest names cleaned, and the audit trail.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "./helpers";
+import { createArm } from "@/lib/db/arms";
+import { createRequirementSet } from "@/lib/db/requirements";
+import { createShortlist } from "@/lib/db/shortlists";
+import { createUser } from "@/lib/db/users";
+import { listAuditEvents } from "@/lib/db/audit-read";
+import { ValidationError } from "@/lib/db/errors";
+import { createShareLink } from "@/lib/db/shares";
+import {
+  createComment, deleteComment, editComment, listCommentRevisions, listCommentThreads, markDiscussionRead, setCommentResolved, unreadCounts,
+} from "@/lib/db/comments";
+
+let t: TestDb;
+let shortlistId: string, armId: string, ada: string, bob: string, linkId: string;
+const member = (userId: string) => ({ kind: "member" as const, userId });
+
+beforeAll(async () => {
+  t = createTestDb();
+  ada = (await createUser({ email: "ada@example.test", name: "Ada", passwordHash: "x" })).id;
+  bob = (await createUser({ email: "bob.lee@example.test", name: "Bob", passwordHash: "x" })).id;
+  armId = (await createArm(null, sampleArm())).id;
+  const set = (await createRequirementSet(null, sampleRequirementSet({ paths: [{ name: "seam", waypoints: [{ position: [0.4, 0, 0.2], rpy: [Math.PI, 0, 0] }, { position: [0.4, 0.1, 0.2], rpy: [Math.PI, 0, 0] }], mode: "point", step: 0.01, speed: 0.1 }] }))).id;
+  shortlistId = (await createShortlist(ada, { name: "Cell 7", requirementSetId: set, armIds: [armId] })).id;
+  linkId = (await createShareLink(ada, shortlistId, { access: "comment" })).link.id;
+});
+afterAll(async () => t.cleanup());
+
+describe("discussion", () => {
+  it("anchors to the shortlist, an arm, a target, a path or a compliance row of the pins only", async () => {
+    for (const anchor of [undefined, { type: "arm", id: armId }, { type: "target", id: "pick" }, { type: "path", id: "seam" }, { type: "compliance", id: `${armId}#0` }]) {
+      const r = await createComment(member(ada), shortlistId, { body: "ok", anchor });
+      expect(r.created).toBe(true);
+    }
+    for (const anchor of [{ type: "arm", id: "nope" }, { type: "target", id: "nowhere" }, { type: "path", id: "pick" }, { type: "compliance", id: `${armId}#9` }, { type: "shortlist", id: "x" }, { type: "target" }]) {
+      const e = await createComment(member(ada), shortlistId, { body: "x", anchor }).catch((x) => x);
+      expect(e, JSON.stringify(anchor)).toBeInstanceOf(ValidationError);
+      expect(e.fieldErrors[0].path).toBe("anchor.id");
+    }
+    const e = await createComment(member(ada), shortlistId, { body: "   " }).catch((x) => x);
+    expect(e.fieldErrors[0].path).toBe("body");
+  });
+
+  it("threads replies (a reply to a reply joins the thread, keeping the anchor)", async () => {
+    const root = await createComment(member(ada), shortlistId, { body: "Which gripper?", anchor: { type: "target", id: "place" } });
+    const r1 = await createComment(member(bob), shortlistId, { body: "vacuum", parentId: root.id });
+    await createComment(member(ada), shortlistId, { body: "agreed", parentId: r1.id });
+    const thread = (await listCommentThreads(shortlistId)).find((x) => x.id === root.id)!;
+    expect(thread.replies.map((r) => r.body)).toEqual(["vacuum", "agreed"]);
+    expect(thread.replies.every((r) => r.parentId === root.id && r.anchor.type === "target" && r.anchor.id === "place")).toBe(true);
+  });
+
+  it("keeps every edit as an immutable revision and deletes softly", async () => {
+    const c = await createComment(member(bob), shortlistId, { body: "first" });
+    expect(await editComment(bob, c.id, { body: "second", baseRevision: 1 })).toEqual({ id: c.id, revision: 2 });
+    const stale = await editComment(bob, c.id, { body: "third", baseRevision: 1 }).catch((x) => x);
+    expect(stale).toBeInstanceOf(ValidationError);
+    await editComment(bob, c.id, { body: "third" });
+    expect((await listCommentRevisions(c.id))!.map((r) => [r.revision, r.body])).toEqual([[1, "first"], [2, "second"], [3, "third"]]);
+    await expect(t.client.$executeRawUnsafe(`UPDATE CommentRevision SET body = 'x' WHERE commentId = '${c.id}'`)).rejects.toThrow(/immutable/);
+    await expect(t.client.$executeRawUnsafe(`DELETE FROM CommentRevision WHERE commentId = '${c.id}'`)).rejects.toThrow(/immutable/);
+    await deleteComment(bob, c.id);
+    expect((await listCommentThreads(shortlistId)).some((x) => x.id === c.id)).toBe(false);
+    expect((await listCommentRevisions(c.id))!.length).toBe(3);
+    expect((await t.client.comment.findUnique({ where: { id: c.id } }))!.deletedAt).not.toBeNull();
+  });
+
+  it("resolves and reopens threads, not replies", async () => {
+    const root = await createComment(member(ada), shortlistId, { body: "payload margin?" });
+    const reply = await createComment(member(bob), shortlistId, { body: "fine", parentId: root.id });
+    expect((await setCommentResolved(bob, root.id, true)).resolvedAt).not.toBeNull();
+    expect((await listCommentThreads(shortlistId)).find((x) => x.id === root.id)!.resolvedBy).toEqual({ id: bob, name: "Bob" });
+    expect((await setCommentResolved(ada, root.id, false)).resolvedAt).toBeNull();
+    await expect(setCommentResolved(ada, reply.id, true)).rejects.toBeInstanceOf(ValidationError);
+  });
+
+  it("records mentions of members by handle and counts unread comments per member", async () => {
+    await markDiscussionRead(ada, shortlistId, new Date());
+    await markDiscussionRead(bob, shortlistId, new Date());
+    await new Promise((r) => setTimeout(r, 5));
+    const c = await createComment(member(ada), shortlistId, { body: "@bob.lee please check, cc @nobody" });
+    const thread = (await listCommentThreads(shortlistId)).find((x) => x.id === c.id)!;
+    expect(thread.mentions).toEqual([{ id: bob, name: "Bob" }]);
+    expect(thread.html).toContain('<span class="mention">@bob.lee</span>');
+    expect(thread.html).not.toContain('<span class="mention">@nobody');
+    await createComment({ kind: "guest", linkId, name: "Guest" }, shortlistId, { body: "from outside" });
+    const forBob = (await unreadCounts(bob, [shortlistId])).get(shortlistId);
+    const forAda = (await unreadCounts(ada, [shortlistId])).get(shortlistId);
+    expect(forBob).toEqual({ unread: 2, mentions: 1 });
+    expect(forAda).toEqual({ unread: 1, mentions: 0 }); // her own comment does not count
+    await markDiscussionRead(bob, shortlistId);
+    expect((await unreadCounts(bob, [shortlistId])).get(shortlistId)).toEqual({ unread: 0, mentions: 0 });
+  });
+
+  it("stores a retried post once (client key) and cleans guest display names", async () => {
+    const a = await createComment(member(ada), shortlistId, { body: "once", clientKey: "key-00000001" });
+    const b = await createComment(member(ada), shortlistId, { body: "once", clientKey: "key-00000001" });
+    expect(b).toEqual({ id: a.id, created: false });
+    expect(await t.client.comment.count({ where: { clientKey: "key-00000001" } })).toBe(1);
+    const g = await createComment({ kind: "guest", linkId, name: "  Eve\u202E\u200B  Moneypenny " }, shortlistId, { body: "hi" });
+    expect((await t.client.comment.findUnique({ where: { id: g.id } }))!.authorLabel).toBe("Eve Moneypenny");
+    const e = await createComment({ kind: "guest", linkId, name: "\u200B\u202E" }, shortlistId, { body: "hi" }).catch((x) => x);
+    expect(e).toBeInstanceOf(ValidationError);
+  });
+
+  it("writes an audit event for every change", async () => {
+    const events = await listAuditEvents({ entityType: "comment", limit: 1000 });
+    const actions = new Set(events.map((e) => e.action));
+    expect(actions).toEqual(new Set(["comment.create", "comment.edit", "comment.delete", "comment.resolve", "comment.reopen"]));
+    const comments = await t.client.comment.count();
+    expect(events.filter((e) => e.action === "comment.create").length).toBe(comments);
+  });
+});
