@@ -15,7 +15,7 @@ export default defineConfig({
         test: {
           name: "unit",
           include: ["tests/**/*.test.ts"],
-          exclude: ["tests/db/**", "tests/browser/**", "tests/api/**"],
+          exclude: ["tests/db/**", "tests/browser/**", "tests/api/**", "tests/security/**", "tests/load/**"],
           environment: "node",
         },
       },
@@ -23,7 +23,8 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "db",
-          include: ["tests/db/**/*.test.ts", "tests/api/**/*.test.ts"],
+          include: ["tests/db/**/*.test.ts", "tests/api/**/*.test.ts", "tests/security/**/*.test.ts"],
+          exclude: ["tests/security/**/*.browser.test.ts"],
           environment: "node",
           pool: "forks",
           testTimeout: 30_000,
@@ -33,7 +34,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "browser",
-          include: ["tests/browser/**/*.test.ts"],
+          include: ["tests/browser/**/*.test.ts", "tests/security/**/*.browser.test.ts", "tests/load/**/*.test.ts"],
           environment: "node",
           fileParallelism: false,
           testTimeout: 120_000,
