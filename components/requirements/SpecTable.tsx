@@ -108,7 +108,7 @@ export function SpecTable(props: { rows: SpecRow[]; onChange: (rows: SpecRow[], 
                       </select>
                     </td>
                     <td>
-                      <input className="name" aria-label={`spec requirement ${i + 1} note`} value={r.note} readOnly={readOnly} onChange={(ev) => set(i, { note: ev.target.value })} />
+                      <input className="note" aria-label={`spec requirement ${i + 1} note`} value={r.note} readOnly={readOnly} onChange={(ev) => set(i, { note: ev.target.value })} />
                     </td>
                     {!readOnly && (
                       <td>

@@ -148,4 +148,19 @@ describe("arm editor", () => {
     expect(ta.errors()).toEqual([]);
     expect(tb.errors()).toEqual([]);
   });
+
+  it("deletes an arm after confirmation and restores it from the catalog", async () => {
+    const p = ta.page;
+    await p.goto(armPath);
+    await p.getByRole("button", { name: "Delete…" }).click();
+    await p.getByRole("button", { name: "Yes, delete" }).click();
+    await p.waitForURL("**/arms");
+    expect(await p.getByRole("link", { name: "Test arm TA-2b" }).count()).toBe(0);
+    await p.getByLabel(/Show deleted/).check();
+    await p.getByRole("button", { name: "Restore Test arm TA-2b" }).click();
+    await p.getByText("Restored Test arm TA-2b.").waitFor();
+    await p.getByLabel(/Show deleted/).uncheck();
+    await p.getByRole("link", { name: "Test arm TA-2b" }).waitFor();
+    expect(ta.errors()).toEqual([]);
+  });
 });
