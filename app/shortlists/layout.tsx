@@ -1,0 +1,5 @@
+import "./shortlist.css";
+
+export default function ShortlistsLayout({ children }: { children: React.ReactNode }) {
+  return children;
+}

@@ -1,0 +1,63 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { listShortlists } from "@/lib/db/shortlists";
+import { allowed, requireUser } from "@/app/_lib/session";
+import { utc } from "@/components/shortlist/verdict";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Shortlists" };
+
+export default async function ShortlistsPage() {
+  const user = await requireUser("/shortlists");
+  const rows = await listShortlists();
+  return (
+    <>
+      <div className="page-head">
+        <h1>Shortlists</h1>
+        <span className="sub">{rows.length} shortlist{rows.length === 1 ? "" : "s"}</span>
+        <div className="actions">
+          {allowed(user, "shortlist:write") && (
+            <Link className="button primary" href="/shortlists/new">
+              New shortlist
+            </Link>
+          )}
+        </div>
+      </div>
+      {rows.length === 0 ? (
+        <p className="empty">No shortlists yet.</p>
+      ) : (
+        <div className="table-wrap">
+          <table data-testid="shortlist-table">
+            <thead>
+              <tr>
+                <th scope="col">Name</th>
+                <th scope="col">Requirement set</th>
+                <th scope="col" className="num">Arms</th>
+                <th scope="col">Latest analysis</th>
+                <th scope="col">Created</th>
+              </tr>
+            </thead>
+            <tbody>
+              {rows.map((r) => (
+                <tr key={r.id}>
+                  <td>
+                    <Link href={`/shortlists/${r.id}`}>{r.name}</Link>
+                  </td>
+                  <td>
+                    {r.requirementName} <span className="sub">rev {r.requirementRevision}</span>
+                  </td>
+                  <td className="num">{r.arms}</td>
+                  <td>{r.latestRun ? `${r.latestRun.status}${r.latestRun.finishedAt ? `, ${utc(r.latestRun.finishedAt)}` : ""}` : "none"}</td>
+                  <td>
+                    {utc(r.createdAt)}
+                    {r.createdBy && <span className="sub"> by {r.createdBy.name}</span>}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </>
+  );
+}

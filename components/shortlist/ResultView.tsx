@@ -1,0 +1,235 @@
+import type { Weights } from "@/shared/schemas/requirements";
+import type { ArmAnalysis, ShortlistAnalysis } from "@/lib/analysis/shortlist";
+import { PathProfileChart, WorkspaceChart } from "./Charts";
+import { RankingPanel, type RankingArm } from "./RankingPanel";
+import { TaskMatrix } from "./TaskMatrix";
+import { fmtNum, VerdictTag } from "./verdict";
+import { matrixColumns, matrixRows, pathProfile, workspaceData } from "./view";
+
+const norm = (v: readonly number[]) => Math.hypot(...v);
+const dirText = (v: readonly number[]) => {
+  const n = norm(v);
+  return n > 0 ? `(${v.map((x) => fmtNum(x / n, 2)).join(", ")})` : "–";
+};
+
+function ForceTable({ arm }: { arm: ArmAnalysis }) {
+  const rows = arm.targets.filter((t) => t.force);
+  if (rows.length === 0) return <p className="sub">No target of this requirement set asks for a force or moment.</p>;
+  return (
+    <div className="table-wrap">
+      <table className="printable">
+        <caption>Force capability along each required direction (exact, after gravity) with the force ellipsoid&apos;s estimate beside it</caption>
+        <thead>
+          <tr>
+            <th scope="col">Target</th>
+            <th scope="col" className="num">Required force (N)</th>
+            <th scope="col">Direction (cell frame)</th>
+            <th scope="col" className="num">Capability, exact (N)</th>
+            <th scope="col" className="num">Ellipsoid estimate (N)</th>
+            <th scope="col" className="num">Required moment (N·m)</th>
+            <th scope="col" className="num">Capability, exact (N·m)</th>
+            <th scope="col" className="num">Limiting joint</th>
+            <th scope="col">Verdict</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((t) => {
+            const f = t.force!;
+            const fN = norm(f.force), mN = norm(f.moment);
+            const est = f.ellipsoidEstimateRatio;
+            return (
+              <tr key={t.name}>
+                <th scope="row">{t.name}</th>
+                <td className="num">{fN > 0 ? fmtNum(fN, 1) : "–"}</td>
+                <td>{fN > 0 ? dirText(f.force) : mN > 0 ? dirText(f.moment) : "–"}</td>
+                <td className="num">{f.forceCapacity !== null ? fmtNum(f.forceCapacity, 1) : f.status === "unbounded" ? "structure" : "–"}</td>
+                <td className="num">{est !== null && fN > 0 ? fmtNum(est * fN, 1) : "–"}</td>
+                <td className="num">{mN > 0 ? fmtNum(mN, 2) : "–"}</td>
+                <td className="num">{f.momentCapacity !== null ? fmtNum(f.momentCapacity, 2) : "–"}</td>
+                <td className="num">{f.limitingJoint ?? "–"}</td>
+                <td title={f.reason}>
+                  <VerdictTag v={f.verdict} />
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+function PayloadTable({ arm }: { arm: ArmAnalysis }) {
+  const rows = arm.targets.filter((t) => t.holding);
+  const withBoth = rows.find((t) => t.holding!.payloadCapacity !== null && t.holding!.extraPayloadCapacity !== null);
+  const load = withBoth ? withBoth.holding!.payloadCapacity! - withBoth.holding!.extraPayloadCapacity! : null;
+  if (rows.length === 0) return <p className="sub">No target reached: no payload check.</p>;
+  return (
+    <div className="table-wrap">
+      <table className="printable">
+        <caption>Payload margin at each reached target (tool + payload held at the payload CoG{load !== null ? `; load ${fmtNum(load, 2)} kg` : ""})</caption>
+        <thead>
+          <tr>
+            <th scope="col">Target</th>
+            <th scope="col" className="num">Holdable total load (kg)</th>
+            <th scope="col" className="num">Margin (kg)</th>
+            <th scope="col" className="num">Limiting joint</th>
+            <th scope="col">Basis</th>
+            <th scope="col">Verdict</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((t) => {
+            const h = t.holding!;
+            return (
+              <tr key={t.name}>
+                <th scope="row">{t.name}</th>
+                <td className="num">{fmtNum(h.payloadCapacity, 2)}</td>
+                <td className="num">{fmtNum(h.extraPayloadCapacity, 2)}</td>
+                <td className="num">{h.limitingJoint ?? "–"}</td>
+                <td>{h.basis === "torque-limits" ? "joint torque limits" : h.basis === "rated-payload" ? "rated payload (datasheet)" : "none"}</td>
+                <td title={h.reason}>
+                  <VerdictTag v={h.verdict} />
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+function ArmSection({ arm, index }: { arm: ArmAnalysis; index: number }) {
+  const ws = workspaceData(arm);
+  return (
+    <section className="panel arm-section" aria-labelledby={`arm-${index}-h`} data-testid="arm-section">
+      <h3 id={`arm-${index}-h`}>
+        {arm.name} <span className="sub">{[arm.maker, arm.modelCode].filter(Boolean).join(" · ")} · {arm.axes} axes · revision {arm.revision}</span>
+      </h3>
+      <p>{arm.summary}</p>
+      {arm.error ? (
+        <p className="notice bad">Not analysed: {arm.error}</p>
+      ) : (
+        <>
+          <h4>Force capability</h4>
+          <ForceTable arm={arm} />
+          <h4>Payload</h4>
+          <p className="sub">{arm.subScores.payload.note}</p>
+          <PayloadTable arm={arm} />
+          {arm.paths.length > 0 && <h4>Path profiles</h4>}
+          {arm.paths.map((p) => (
+            <div key={p.name}>
+              <p className="sub">
+                <VerdictTag v={p.verdict} /> {p.reason}
+              </p>
+              {p.reached > 0 ? <PathProfileChart data={pathProfile(p)} /> : <p className="sub">No sample of {p.name} reached: no profile.</p>}
+            </div>
+          ))}
+          {ws && (
+            <>
+              <h4>Workspace</h4>
+              <WorkspaceChart data={ws} />
+            </>
+          )}
+        </>
+      )}
+    </section>
+  );
+}
+
+export function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
+  const specs = analysis.requirementSet.specs;
+  const first = analysis.arms.find((a) => a.specs.length === specs.length);
+  return (
+    <section className="panel" aria-labelledby="compliance-h" data-testid="compliance">
+      <h2 id="compliance-h">Compliance table</h2>
+      {specs.length === 0 || !first ? (
+        <p className="sub">The requirement set has no spec requirements.</p>
+      ) : (
+        <div className="table-wrap">
+          <table className="compliance printable" data-testid="compliance-table">
+            <thead>
+              <tr>
+                <th scope="col">Requirement</th>
+                <th scope="col">Priority</th>
+                <th scope="col">Required</th>
+                <th scope="col">Unit</th>
+                {analysis.arms.map((a) => (
+                  <th scope="col" key={a.id} data-arm-id={a.id}>
+                    {a.name}
+                    <br />
+                    <span className="hint">rev {a.revision}</span>
+                  </th>
+                ))}
+              </tr>
+            </thead>
+            <tbody>
+              {specs.map((_, i) => {
+                const s0 = first.specs[i];
+                const op = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" }[s0.comparator];
+                return (
+                  <tr key={i} data-testid="compliance-row">
+                    <th scope="row">{s0.label}</th>
+                    <td>{s0.priority}</td>
+                    <td className="num">
+                      {op} {s0.requiredDisplay}
+                    </td>
+                    <td>{s0.displayUnit || "–"}</td>
+                    {analysis.arms.map((a) => {
+                      const s = a.specs[i];
+                      return (
+                        <td key={a.id} className="ccell" title={s.reason} data-arm-id={a.id}>
+                          <span className="cval" data-testid="compliance-value">
+                            {s.value === null ? "no data" : s.valueDisplay}
+                            {s.value !== null && s.displayUnit ? ` ${s.displayUnit}` : ""}
+                          </span>
+                          <br />
+                          <VerdictTag v={s.verdict} />
+                        </td>
+                      );
+                    })}
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+      <p className="sub">{analysis.thresholds.ipRule}</p>
+    </section>
+  );
+}
+
+/** Everything shown from one stored analysis result. */
+export function ResultView(props: {
+  analysis: ShortlistAnalysis;
+  shortlistId: string;
+  runId: string;
+  requirementSetId: string;
+  canSaveWeights: boolean;
+}) {
+  const { analysis } = props;
+  const arms: RankingArm[] = analysis.arms.map((a) => ({
+    id: a.id, armId: a.id, name: a.name, revision: a.revision, summary: a.summary, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts,
+  }));
+  return (
+    <>
+      <RankingPanel
+        shortlistId={props.shortlistId}
+        runId={props.runId}
+        arms={arms}
+        weights={analysis.weights as Weights}
+        requirementSetId={props.requirementSetId}
+        requirementName={analysis.requirementSet.name}
+        canSaveWeights={props.canSaveWeights}
+      />
+      <TaskMatrix columns={matrixColumns(analysis)} rows={matrixRows(analysis)} threshold={analysis.thresholds.dexterityMarginal} />
+      <ComplianceTable analysis={analysis} />
+      <h2 className="print-break">Per arm</h2>
+      {analysis.arms.map((a, i) => (
+        <ArmSection key={a.id} arm={a} index={i} />
+      ))}
+    </>
+  );
+}

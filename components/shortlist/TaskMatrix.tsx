@@ -1,0 +1,118 @@
+"use client";
+import { useId, useState } from "react";
+import type { Verdict } from "@/lib/analysis/types";
+import { fmtNum, VERDICT_SYMBOL } from "./verdict";
+
+export interface MatrixCell {
+  kind: "target" | "path";
+  name: string;
+  verdict: Verdict;
+  /** Dexterity margin (chosen branch, or the smallest along a path); null when not reached. */
+  margin: number | null;
+  /** Limiting factor, in words. */
+  limiting: string;
+  reason: string;
+  /** Further lines: residuals, branches, holding, force, wrist, path events. */
+  details: string[];
+}
+
+export interface MatrixRow {
+  armId: string;
+  armName: string;
+  cells: MatrixCell[];
+}
+
+/**
+ * Arms × targets and paths. Each cell is a button: its verdict word and symbol with the dexterity
+ * margin; hovering or focusing shows the limiting factor, activating it opens the details panel.
+ */
+export function TaskMatrix({ columns, rows, threshold }: { columns: { kind: "target" | "path"; name: string }[]; rows: MatrixRow[]; threshold: number }) {
+  const uid = useId();
+  const [open, setOpen] = useState<{ r: number; c: number } | null>(null);
+  const cell = open ? rows[open.r]?.cells[open.c] : undefined;
+  return (
+    <section className="panel" aria-labelledby={uid + "-h"} data-testid="task-matrix">
+      <h2 id={uid + "-h"}>Task matrix</h2>
+      <p className="sub">
+        Each cell: verdict and dexterity margin D (0–1; below {fmtNum(threshold, 1)} is marginal). Hover or focus a cell for the limiting factor; press it for the details.
+      </p>
+      <div className="table-wrap">
+        <table className="matrix">
+          <thead>
+            <tr>
+              <th scope="col">Arm</th>
+              {columns.map((c) => (
+                <th scope="col" key={`${c.kind}:${c.name}`}>
+                  <span className="sub">{c.kind}</span>
+                  <br />
+                  {c.name}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((row, r) => (
+              <tr key={row.armId}>
+                <th scope="row">{row.armName}</th>
+                {row.cells.map((x, c) => {
+                  const tipId = `${uid}-tip-${r}-${c}`;
+                  const isOpen = open?.r === r && open?.c === c;
+                  return (
+                    <td key={c} className="mcell">
+                      <button
+                        type="button"
+                        className={`cellbtn v-${x.verdict}${isOpen ? " open" : ""}`}
+                        aria-describedby={tipId}
+                        aria-expanded={isOpen}
+                        aria-controls={uid + "-details"}
+                        aria-label={`${row.armName}, ${x.kind} ${x.name}: ${x.verdict}${x.margin !== null ? `, dexterity margin ${fmtNum(x.margin)}` : ""}`}
+                        onClick={() => setOpen(isOpen ? null : { r, c })}
+                      >
+                        <span aria-hidden="true" className="vsym">
+                          {VERDICT_SYMBOL[x.verdict]}
+                        </span>
+                        <span className="vword">{x.verdict}</span>
+                        <span className="margin">{x.margin !== null ? `D ${fmtNum(x.margin)}` : "—"}</span>
+                      </button>
+                      <span role="tooltip" id={tipId} className="tip">
+                        {x.limiting}
+                      </span>
+                    </td>
+                  );
+                })}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <div id={uid + "-details"} className="cell-details" role="region" aria-label="Cell details" aria-live="polite" data-testid="cell-details">
+        {cell && open ? (
+          <>
+            <h3>
+              {rows[open.r].armName} · {cell.kind} {cell.name}:{" "}
+              <span className={`verdict v-${cell.verdict}`}>
+                <span aria-hidden="true">{VERDICT_SYMBOL[cell.verdict]}</span> {cell.verdict}
+              </span>
+            </h3>
+            <p>{cell.reason}</p>
+            <p>
+              <strong>Limiting factor:</strong> {cell.limiting}
+            </p>
+            {cell.details.length > 0 && (
+              <ul>
+                {cell.details.map((d, i) => (
+                  <li key={i}>{d}</li>
+                ))}
+              </ul>
+            )}
+            <button type="button" className="small" onClick={() => setOpen(null)}>
+              Close details
+            </button>
+          </>
+        ) : (
+          <p className="sub">No cell selected.</p>
+        )}
+      </div>
+    </section>
+  );
+}

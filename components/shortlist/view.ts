@@ -1,0 +1,91 @@
+/**
+ * Turns a stored analysis into what the page components draw (display units: mm, degrees, kg, N),
+ * keeping the client payload small (profiles thinned to at most 200 points).
+ */
+import type { ArmAnalysis, ShortlistAnalysis } from "@/lib/analysis/shortlist";
+import type { TargetAnalysis } from "@/lib/analysis/targets";
+import type { PathAnalysis } from "@/lib/analysis/paths";
+import type { MatrixCell, MatrixRow } from "./TaskMatrix";
+import type { PathProfileData, WorkspaceData } from "./Charts";
+import { fmtNum } from "./verdict";
+
+const mm = (m: number) => m * 1000;
+const deg = (r: number) => (r * 180) / Math.PI;
+
+function limitingText(t: TargetAnalysis): string {
+  if (!t.reached || !t.dexterity) return `not reached: ${t.reason}`;
+  const l = t.dexterity.limiting;
+  const what = l.factor === "translation" ? "translational conditioning (position singularity nearby)"
+    : l.factor === "orientation" ? "orientation conditioning (wrist singularity nearby)"
+    : `joint ${l.joint ?? "?"} near its limit`;
+  return `${what}: factor ${fmtNum(l.value)}`;
+}
+
+function targetCell(t: TargetAnalysis): MatrixCell {
+  const details: string[] = [`mode ${t.mode}`, `position error ${fmtNum(mm(t.positionError), 4)} mm` + (t.mode === "point" ? "" : `, rotation error ${fmtNum(deg(t.rotationError), 4)}°`)];
+  if (t.reached) details.push(`${t.solutions.length} distinct branch${t.solutions.length === 1 ? "" : "es"} found; best dexterity margin chosen`);
+  if (t.dexterity) details.push(`translational inverse condition ${fmtNum(t.dexterity.translation.inverseCondition, 3)}, orientation ${fmtNum(t.dexterity.orientation.inverseCondition, 3)}, joint-limit margin ${fmtNum(t.dexterity.jointLimits.margin, 3)}`);
+  if (t.holding) details.push(`holding: ${t.holding.verdict} — ${t.holding.reason}`);
+  if (t.force) details.push(`force: ${t.force.verdict} — ${t.force.reason}`);
+  if (t.wrist) details.push(`wrist: ${t.wrist.verdict} — ${t.wrist.reason}`);
+  details.push(`inverse kinematics: ${t.ikReason}`);
+  return { kind: "target", name: t.name, verdict: t.verdict, margin: t.dexterity?.margin ?? null, limiting: limitingText(t), reason: t.reason, details };
+}
+
+function pathCell(p: PathAnalysis): MatrixCell {
+  const details = [`${p.reached} of ${p.samples} samples reached (step ${fmtNum(mm(p.step), 1)} mm over ${fmtNum(mm(p.length), 0)} mm)`, `speed: ${p.speed.note}`];
+  if (p.firstUnreached) details.push(`first sample not reached at ${fmtNum(mm(p.firstUnreached.s), 0)} mm: ${p.firstUnreached.detail}`);
+  for (const f of p.flips.slice(0, 5)) details.push(`configuration flip at ${fmtNum(mm(f.s), 0)} mm: ${f.detail}`);
+  if (p.limitHits.length) details.push(`${p.limitHits.length} sample${p.limitHits.length === 1 ? "" : "s"} at a joint limit`);
+  const limiting = p.reached < p.samples ? "part of the path is not reached"
+    : p.flips.length ? "configuration flip along the path"
+    : p.speed.limitingJoint !== null ? `joint ${p.speed.limitingJoint} speed (${p.speed.achievableFraction !== null ? `${fmtNum(p.speed.achievableFraction * 100, 0)} % of the required tool speed possible` : "unknown"})`
+    : p.speed.note;
+  return { kind: "path", name: p.name, verdict: p.verdict, margin: p.minDexterityMargin, limiting, reason: p.reason, details };
+}
+
+export function matrixRows(a: ShortlistAnalysis): MatrixRow[] {
+  return a.arms.map((arm) => ({
+    armId: arm.id,
+    armName: arm.name,
+    cells: arm.error
+      ? [...a.requirementSet.targets.map((name) => ({ kind: "target" as const, name })), ...a.requirementSet.paths.map((name) => ({ kind: "path" as const, name }))].map((c) => ({
+          ...c, verdict: "unknown" as const, margin: null, limiting: "arm not analysed", reason: arm.summary, details: [],
+        }))
+      : [...arm.targets.map(targetCell), ...arm.paths.map(pathCell)],
+  }));
+}
+
+export function matrixColumns(a: ShortlistAnalysis): { kind: "target" | "path"; name: string }[] {
+  return [...a.requirementSet.targets.map((name) => ({ kind: "target" as const, name })), ...a.requirementSet.paths.map((name) => ({ kind: "path" as const, name }))];
+}
+
+const MAX_POINTS = 200;
+
+export function pathProfile(p: PathAnalysis): PathProfileData {
+  const n = p.profile.s.length;
+  const stride = Math.max(1, Math.ceil(n / MAX_POINTS));
+  const points: PathProfileData["points"] = [];
+  for (let i = 0; i < n; i += stride) {
+    const sig = p.profile.sigmaMinTranslation[i];
+    const ratio = p.profile.speedRatio[i];
+    points.push({
+      s: Math.round(mm(p.profile.s[i]) * 10) / 10,
+      sigma: sig === null ? null : Math.round(mm(sig) * 10) / 10,
+      speedUse: ratio === null || !(ratio > 0) ? null : Math.round((100 / ratio) * 10) / 10,
+    });
+  }
+  return { name: p.name, points };
+}
+
+export function workspaceData(arm: ArmAnalysis): WorkspaceData | null {
+  const w = arm.workspace;
+  if (!w) return null;
+  const r1 = (v: number) => Math.round(mm(v));
+  return {
+    side: w.side.map(([r, z]) => ({ r: r1(r), z: r1(z) })),
+    top: w.top.map(([x, y]) => ({ x: r1(x), y: r1(y) })),
+    targets: w.targets.map((t) => ({ name: t.name, r: r1(t.r), z: r1(t.z), x: r1(t.x), y: r1(t.y), reached: t.reached })),
+    note: w.note,
+  };
+}
