@@ -148,7 +148,12 @@ async function storeMentions(tx: Tx, commentId: string, body: string): Promise<s
  */
 export async function createComment(author: CommentAuthor, shortlistId: string, input: unknown, now: Date = new Date()): Promise<{ id: string; created: boolean }> {
   const body = parse(createCommentInput, input);
-  const guestName = author.kind === "guest" ? parse(displayNameSchema, author.name) : null;
+  let guestName: string | null = null;
+  if (author.kind === "guest") {
+    const r = displayNameSchema.safeParse(author.name);
+    if (!r.success) throw new ValidationError(r.error.issues.map((i) => ({ path: "name", message: i.message })));
+    guestName = r.data;
+  }
   return db().$transaction(async (tx) => {
     const s = await tx.shortlist.findUnique({ where: { id: shortlistId }, select: { deletedAt: true } });
     if (!s || s.deletedAt) throw new NotFoundError(`shortlist ${shortlistId} does not exist`);

@@ -9,7 +9,7 @@
 import { can, type LinkGuest } from "@/lib/auth/permissions";
 import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { Verdict } from "@/lib/analysis/types";
-import { getRunResult, getShortlist, listRuns } from "./shortlists";
+import { getPins, getRunResult, getShortlist, listRuns, loadPinnedInputs } from "./shortlists";
 
 export interface GuestVisibility {
   access: "view" | "comment";
@@ -19,7 +19,7 @@ export interface GuestVisibility {
 }
 
 export interface GuestShortlistView {
-  shortlist: { name: string; requirement: { name: string; revision: number }; arms: { id: string; name: string; revision: number }[] };
+  shortlist: { name: string; requirement: { name: string; revision: number }; arms: { id: string; name: string; revision: number; price: string | null }[] };
   visibility: GuestVisibility;
   caution: string | null;
   analysis: null | {
@@ -56,12 +56,20 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
     shortlist: {
       name: s.name,
       requirement: { name: s.requirement.name, revision: s.requirement.revision },
-      arms: s.arms.map((a) => ({ id: a.armId, name: a.name, revision: a.revision })),
+      arms: s.arms.map((a) => ({ id: a.armId, name: a.name, revision: a.revision, price: null })),
     },
     visibility: guestVisibility(guest),
     caution: null,
     analysis: null,
   };
+  if (prices) {
+    const pins = await getPins(s.id);
+    const docs = pins ? (await loadPinnedInputs(pins)).arms : [];
+    for (const a of view.shortlist.arms) {
+      const sp = docs.find((d) => d.id === a.id)?.arm.specs;
+      if (sp?.price !== undefined && sp.price !== null) a.price = `${sp.price.toLocaleString("en-GB")}${sp.currency ? ` ${sp.currency}` : ""}`;
+    }
+  }
   const run = (await listRuns(s.id)).find((r) => r.status === "done");
   const result = run ? await getRunResult(run.id) : null;
   if (!run || !result) return view;
