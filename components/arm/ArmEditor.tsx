@@ -24,6 +24,8 @@ interface Props {
   /** Viewing a past revision: read-only, no save. */
   viewingRevision?: number;
   deleted?: boolean;
+  /** Just created: say so once. */
+  created?: boolean;
 }
 
 interface ConflictState {
@@ -64,7 +66,7 @@ export function ArmEditor(props: Props) {
   const [baseRevision, setBaseRevision] = useState<number | undefined>(props.revision);
   const [errors, setErrors] = useState<FieldError[]>([]);
   const [message, setMessage] = useState<string>("");
-  const [saved, setSaved] = useState<string>("");
+  const [saved, setSaved] = useState<string>(props.created ? "Created as revision 1." : "");
   const [busy, setBusy] = useState(false);
   const [pasteOpen, setPasteOpen] = useState(false);
   const [conflict, setConflict] = useState<ConflictState | null>(null);
@@ -95,14 +97,13 @@ export function ArmEditor(props: Props) {
     if (res.ok) {
       setErrors([]);
       if (!props.id) {
-        router.push(`/arms/${res.data.id}?saved=1`);
+        router.push(`/arms/${res.data.id}?created=1`);
         return;
       }
       setBaseRevision(res.data.revision);
       setStartDoc(res.data.arm);
       setForm(armFormFromDoc(res.data.arm));
       setSaved(`Saved as revision ${res.data.revision}.`);
-      router.refresh();
       return;
     }
     if (res.status === 409 && res.error.conflict) {

@@ -22,6 +22,8 @@ interface Props {
   canWrite: boolean;
   viewingRevision?: number;
   deleted?: boolean;
+  /** Just created: say so once. */
+  created?: boolean;
 }
 
 interface ConflictState {
@@ -64,7 +66,7 @@ export function RequirementEditor(props: Props) {
   const [baseRevision, setBaseRevision] = useState<number | undefined>(props.revision);
   const [errors, setErrors] = useState<FieldError[]>([]);
   const [message, setMessage] = useState("");
-  const [saved, setSaved] = useState("");
+  const [saved, setSaved] = useState(props.created ? "Created as revision 1." : "");
   const [busy, setBusy] = useState(false);
   const [conflict, setConflict] = useState<ConflictState | null>(null);
   const [kept, setKept] = useState<{ rows: { label: string; path: string; mine: string }[]; json: string } | null>(null);
@@ -95,14 +97,13 @@ export function RequirementEditor(props: Props) {
     if (res.ok) {
       setErrors([]);
       if (!props.id) {
-        router.push(`/requirements/${res.data.id}`);
+        router.push(`/requirements/${res.data.id}?created=1`);
         return;
       }
       setBaseRevision(res.data.revision);
       setStartDoc(res.data.requirementSet);
       setForm(reqFormFromDoc(res.data.requirementSet));
       setSaved(`Saved as revision ${res.data.revision}.`);
-      router.refresh();
       return;
     }
     if (res.status === 409 && res.error.conflict) {

@@ -50,6 +50,7 @@ describe("arm editor", () => {
     await p.waitForURL(/\/arms\/[0-9a-f-]{36}/);
     armPath = new URL(p.url()).pathname;
     await p.getByText("revision 1", { exact: true }).waitFor();
+    await p.getByTestId("save-status").getByText("Created as revision 1.").waitFor();
     expect(await p.getByLabel("joint 2 a (mm)", { exact: true }).inputValue()).toBe("250");
     expect(await p.getByLabel("Reach", { exact: true }).inputValue()).toBe("550");
 

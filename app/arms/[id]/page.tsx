@@ -7,10 +7,21 @@ import { ArmEditor } from "@/components/arm/ArmEditor";
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Arm" };
 
-export default async function ArmPage({ params }: { params: Promise<{ id: string }> }) {
+export default async function ArmPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ created?: string }> }) {
   const { id } = await params;
+  const { created } = await searchParams;
   const user = await requireUser(`/arms/${id}`);
   const rec = await getArm(id);
   if (!rec) notFound();
-  return <ArmEditor key={`${rec.id}-${rec.revision}`} id={rec.id} revision={rec.revision} initial={rec.arm} canWrite={allowed(user, "arm:write")} deleted={rec.deletedAt !== null} />;
+  return (
+    <ArmEditor
+      key={rec.id}
+      id={rec.id}
+      revision={rec.revision}
+      initial={rec.arm}
+      canWrite={allowed(user, "arm:write")}
+      deleted={rec.deletedAt !== null}
+      created={created === "1" && rec.revision === 1}
+    />
+  );
 }

@@ -7,19 +7,21 @@ import { RequirementEditor } from "@/components/requirements/RequirementEditor";
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Requirement set" };
 
-export default async function RequirementPage({ params }: { params: Promise<{ id: string }> }) {
+export default async function RequirementPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ created?: string }> }) {
   const { id } = await params;
+  const { created } = await searchParams;
   const user = await requireUser(`/requirements/${id}`);
   const rec = await getRequirementSet(id);
   if (!rec) notFound();
   return (
     <RequirementEditor
-      key={`${rec.id}-${rec.revision}`}
+      key={rec.id}
       id={rec.id}
       revision={rec.revision}
       initial={rec.requirementSet}
       canWrite={allowed(user, "req:write")}
       deleted={rec.deletedAt !== null}
+      created={created === "1" && rec.revision === 1}
     />
   );
 }
