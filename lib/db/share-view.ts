@@ -27,7 +27,7 @@ export interface GuestShortlistView {
     ranking: { rank: number; armId: string; name: string; score: number; disqualified: boolean; failedMusts: string[]; hiddenFailedMusts: number }[];
     targets: { name: string; cells: { armId: string; verdict: Verdict; reason: string }[] }[];
     paths: { name: string; cells: { armId: string; verdict: Verdict; reason: string }[] }[];
-    compliance: { label: string; priority: string; cells: { armId: string; value: string; verdict: Verdict; reason: string }[] }[];
+    compliance: { index: number; label: string; priority: string; cells: { armId: string; value: string; verdict: Verdict; reason: string }[] }[];
     subScores: { key: string; cells: { armId: string; value: number; applicable: boolean }[] }[];
   };
 }
@@ -102,6 +102,7 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
       const sp = result.arms.map((a) => a.specs.find((x) => x.index === i)).find((x) => x !== undefined);
       if (!sp || !shownSpec(sp.field)) return [];
       return [{
+        index: i,
         label: `${sp.label} ${sp.comparator} ${sp.requiredDisplay}${sp.displayUnit ? ` ${sp.displayUnit}` : ""}`,
         priority: sp.priority,
         cells: result.arms.map((a) => {

@@ -8,6 +8,7 @@ import { ResultView } from "@/components/shortlist/ResultView";
 import { RunProgress } from "@/components/shortlist/RunProgress";
 import { PrintButton, RunAction } from "@/components/shortlist/RunActions";
 import { utc } from "@/components/shortlist/verdict";
+import { ShortlistCollaboration } from "@/components/discussion/ShortlistCollaboration";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Shortlist" };
@@ -143,6 +144,7 @@ export default async function ShortlistPage({ params, searchParams }: { params: 
           </ol>
         </section>
       )}
+      <ShortlistCollaboration shortlistId={id} user={user} />
       <p className="caution">{CAUTION}</p>
     </>
   );

@@ -1,0 +1,72 @@
+import type { Metadata } from "next";
+import { headers } from "next/headers";
+import { notFound } from "next/navigation";
+import { can } from "@/lib/auth/permissions";
+import { clientAddress, shareTokenFailures, shareTokenRequests } from "@/lib/auth/rate-limit";
+import { resolveShareToken } from "@/lib/db/shares";
+import { shortlistForGuest } from "@/lib/db/share-view";
+import { CAUTION } from "@/lib/analysis/shortlist";
+import { DiscussionPanel, type AnchorOption } from "@/components/discussion/DiscussionPanel";
+import { GuestResult } from "@/components/share/GuestResult";
+import "@/components/discussion/discussion.css";
+
+export const dynamic = "force-dynamic";
+// The address holds the token: never send it on as a Referer, never index it.
+export const metadata: Metadata = { title: "Shared shortlist", referrer: "no-referrer", robots: { index: false, follow: false } };
+
+/**
+ * The share view of a link guest. Unknown, malformed, expired and revoked tokens all get the
+ * same not-found page; token lookups are rate limited per client address like the API's.
+ */
+export default async function SharePage({ params }: { params: Promise<{ token: string }> }) {
+  const { token } = await params;
+  const ip = clientAddress(new Request("http://share.invalid/", { headers: await headers() }));
+  if (shareTokenRequests.retryAfterMs(ip) > 0 || shareTokenFailures.retryAfterMs(ip) > 0) notFound();
+  shareTokenRequests.record(ip);
+  const guest = await resolveShareToken(token);
+  if (!guest) {
+    shareTokenFailures.record(ip);
+    notFound();
+  }
+  if (!can(guest, "shortlist:read", { shortlistId: guest.shortlistId })) notFound();
+  const view = await shortlistForGuest(guest);
+  if (!view) notFound();
+
+  const anchors: AnchorOption[] = [
+    { type: "shortlist", id: null, label: "the whole shortlist" },
+    ...view.shortlist.arms.map((a): AnchorOption => ({ type: "arm", id: a.id, label: `arm: ${a.name}` })),
+    ...(view.analysis?.targets ?? []).map((t): AnchorOption => ({ type: "target", id: t.name, label: `target: ${t.name}` })),
+    ...(view.analysis?.paths ?? []).map((p): AnchorOption => ({ type: "path", id: p.name, label: `path: ${p.name}` })),
+    ...view.shortlist.arms.flatMap((a) =>
+      (view.analysis?.compliance ?? []).map((c): AnchorOption => ({ type: "compliance", id: `${a.id}#${c.index}`, label: `compliance: ${a.name} / ${c.label}` })),
+    ),
+  ];
+
+  return (
+    <div className="share-view">
+      <div className="page-head">
+        <h1>
+          Shared shortlist: <span data-testid="share-name">{view.shortlist.name}</span>
+        </h1>
+        <span className="sub">
+          {guest.access === "comment" ? "view and comment link" : "view-only link"}
+          {guest.expiresAt ? `, works until ${guest.expiresAt.toISOString().slice(0, 10)}` : ""}
+        </span>
+      </div>
+      <section className="panel visibility" aria-labelledby="visibility-h" data-testid="visibility">
+        <h2 id="visibility-h">What guests can see</h2>
+        <ul>
+          {view.visibility.statements.map((s) => (
+            <li key={s}>{s}</li>
+          ))}
+        </ul>
+      </section>
+      <p className="caution-top" data-testid="caution">
+        {view.caution ?? CAUTION}
+      </p>
+      <GuestResult view={view} />
+      <DiscussionPanel anchors={anchors} mode={{ kind: "guest", token, canWrite: can(guest, "comment:write", { shortlistId: guest.shortlistId }) }} />
+      <p className="caution">{CAUTION}</p>
+    </div>
+  );
+}
