@@ -1,6 +1,8 @@
 // `npm test`: install what is missing, generate the Prisma client, then type check, lint, unit
 // tests, database/API tests, production build and browser tests, stopping at the first failure.
-import { existsSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
 import { bin, ensureGenerated, ensureInstalled, nextBin, root, run } from "./ensure.mjs";
 
 const env = { ...process.env, NEXT_TELEMETRY_DISABLED: "1" };
@@ -13,14 +15,33 @@ ensureGenerated(env, true);
 
 const chromium = "/usr/bin/chromium";
 const ci = Boolean(process.env.CI) && process.env.CI !== "false" && process.env.CI !== "0";
+// Each vitest run also writes a JSON report so the closing line can count every test.
+const reports = mkdtempSync(path.join(tmpdir(), "armsift-test-"));
+const vitest = (project) => [
+  "run", "--project", project, "--reporter=default", "--reporter=json", `--outputFile.json=${path.join(reports, `${project}.json`)}`,
+];
 const steps = [
   ["typecheck", bin("tsc"), ["--noEmit", "-p", "tsconfig.json"]],
   ["lint", bin("eslint"), ["--max-warnings=0", "."]],
-  ["unit tests", bin("vitest"), ["run", "--project", "unit"]],
-  ["database and API tests", bin("vitest"), ["run", "--project", "db"]],
+  ["unit tests", bin("vitest"), vitest("unit")],
+  ["database and API tests", bin("vitest"), vitest("db")],
   ["next build", process.execPath, [nextBin(), "build"]],
-  ["browser tests", bin("vitest"), ["run", "--project", "browser"]],
+  ["browser tests", bin("vitest"), vitest("browser")],
 ];
+
+/** Sums passed / failed / skipped over the JSON reports written so far. */
+function counts() {
+  let passed = 0, failed = 0, skipped = 0;
+  for (const project of ["unit", "db", "browser"]) {
+    const file = path.join(reports, `${project}.json`);
+    if (!existsSync(file)) continue;
+    const r = JSON.parse(readFileSync(file, "utf8"));
+    passed += r.numPassedTests ?? 0;
+    failed += r.numFailedTests ?? 0;
+    skipped += (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
+  }
+  return `${passed} passed, ${failed} failed` + (skipped ? `, ${skipped} skipped` : "");
+}
 
 for (const [label, cmd, args] of steps) {
   if (label === "browser tests" && !existsSync(chromium)) {
@@ -39,7 +60,11 @@ for (const [label, cmd, args] of steps) {
   timings.push(`${label} ${secs(Date.now() - t0)}`);
   if (status !== 0) {
     console.log(`\nnpm test: FAILED at ${label} (exit ${status}) after ${secs(Date.now() - started)} [${timings.join(", ")}]`);
+    console.log(`tests: ${counts()}`);
+    rmSync(reports, { recursive: true, force: true });
     process.exit(status);
   }
 }
 console.log(`\nnpm test: all steps passed in ${secs(Date.now() - started)} [${timings.join(", ")}] (root ${root})`);
+console.log(`tests: ${counts()}`);
+rmSync(reports, { recursive: true, force: true });
