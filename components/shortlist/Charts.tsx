@@ -1,6 +1,7 @@
 "use client";
 import { CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from "recharts";
 import { fmtNum } from "./verdict";
+import { useMounted } from "./useMounted";
 
 export interface PathProfileData {
   name: string;
@@ -12,6 +13,8 @@ const SIZE = { width: 420, height: 220 };
 
 /** Smallest singular value and joint speed use along one path. */
 export function PathProfileChart({ data }: { data: PathProfileData }) {
+  const mounted = useMounted();
+  if (!mounted) return <div className="chart-placeholder" style={{ height: 230 }} aria-hidden="true" />;
   return (
     <figure className="chart">
       <figcaption>
@@ -63,6 +66,7 @@ function TargetShape(props: { cx?: number; cy?: number; payload?: { reached: boo
 
 /** Sampled reach envelope in a side view (r, z) and a top view (x, y), with the targets. */
 export function WorkspaceChart({ data }: { data: WorkspaceData }) {
+  const mounted = useMounted();
   const reached = data.targets.filter((t) => t.reached);
   const missed = data.targets.filter((t) => !t.reached);
   const view = (kind: "side" | "top") => {
@@ -86,6 +90,7 @@ export function WorkspaceChart({ data }: { data: WorkspaceData }) {
       </ResponsiveContainer>
     );
   };
+  if (!mounted) return <div className="chart-placeholder" style={{ height: 270 }} aria-hidden="true" />;
   return (
     <figure className="chart">
       <figcaption>Workspace envelope (cell frame): side view and top view, with the targets. {data.note}</figcaption>

@@ -7,6 +7,7 @@ import { rankArms, SUB_SCORE_KEYS, type ArmScoreInput, type SubScore, type SubSc
 import { SUB_SCORE_LABELS } from "@/lib/export/tables";
 import { api } from "../api";
 import { fmtNum } from "./verdict";
+import { useMounted } from "./useMounted";
 
 export interface RankingArm extends ArmScoreInput {
   id: string;
@@ -47,6 +48,7 @@ export function RankingPanel(props: {
 }) {
   const router = useRouter();
   const uid = useId();
+  const mounted = useMounted();
   const [weights, setWeights] = useState<Weights>(props.weights);
   const [saveMsg, setSaveMsg] = useState<{ ok: boolean; text: string } | null>(null);
   const [saving, setSaving] = useState(false);
@@ -127,7 +129,7 @@ export function RankingPanel(props: {
           <div aria-live="polite">{saveMsg && <p className={`notice${saveMsg.ok ? "" : " bad"}`}>{saveMsg.text}</p>}</div>
         </fieldset>
         <div className="ranking-chart" aria-hidden="true">
-          {qualified.length > 0 && (
+          {qualified.length > 0 && mounted && (
             <ResponsiveContainer width="100%" height={Math.max(120, 44 * qualified.length + 60)} initialDimension={{ width: 600, height: 300 }}>
               <BarChart data={chartData} layout="vertical" margin={{ top: 4, right: 16, bottom: 4, left: 8 }}>
                 <CartesianGrid horizontal={false} stroke="#e7eaee" />
