@@ -164,4 +164,25 @@ describe("arm editor", () => {
     await p.getByRole("link", { name: "Test arm TA-2b" }).waitFor();
     expect(ta.errors()).toEqual([]);
   });
+
+  it("imports an exported arm JSON file from the catalog as a new arm", async () => {
+    const p = ta.page;
+    const id = armPath.split("/")[2];
+    const exported = await p.evaluate(async (armId) => (await fetch(`/api/arms/${armId}/export`)).text(), id);
+    const doc = JSON.parse(exported);
+    doc.name = "Imported copy of TA-2b";
+    await p.goto("/arms");
+    await p.getByLabel("Arm JSON file to import").setInputFiles({ name: "arm.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(doc)) });
+    await p.waitForURL((u) => /\/arms\/[0-9a-f-]{36}$/.test(u.pathname) && u.pathname !== armPath);
+    await p.getByRole("heading", { name: "Imported copy of TA-2b" }).waitFor();
+    expect(await p.getByLabel("joint 1 max (°)", { exact: true }).inputValue()).toBe("160");
+
+    // A file that is not an arm is refused with the field named.
+    await p.goto("/arms");
+    ta.expect(/status of 400/);
+    await p.getByLabel("Arm JSON file to import").setInputFiles({ name: "bad.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify({ name: "x", convention: "dh", joints: [] })) });
+    await p.getByText("bad.json was not imported", { exact: false }).waitFor();
+    await p.getByText(/joints/).first().waitFor();
+    expect(ta.errors()).toEqual([]);
+  });
 });
