@@ -1,5 +1,5 @@
 "use client";
-import { CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from "recharts";
+import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from "recharts";
 import { fmtNum } from "./verdict";
 import { useMounted } from "./useMounted";
 
@@ -25,7 +25,7 @@ export function PathProfileChart({ data }: { data: PathProfileData }) {
           <LineChart data={data.points} margin={{ top: 8, right: 12, bottom: 16, left: 4 }}>
             <CartesianGrid stroke="#e7eaee" />
             <XAxis dataKey="s" type="number" tick={{ fontSize: 11 }} label={{ value: "path length (mm)", position: "insideBottom", offset: -8, fontSize: 11 }} />
-            <YAxis tick={{ fontSize: 11 }} width={48} label={{ value: "σ min (mm/rad)", angle: -90, position: "insideLeft", fontSize: 11 }} />
+            <YAxis tick={{ fontSize: 11 }} width={62} label={{ value: "σ min (mm/rad)", angle: -90, position: "insideLeft", offset: 4, fontSize: 11, style: { textAnchor: "middle" } }} />
             <Tooltip formatter={(v) => fmtNum(Number(v), 1)} labelFormatter={(s) => `s = ${fmtNum(Number(s), 0)} mm`} />
             <Line type="linear" dataKey="sigma" name="σ min (mm/rad)" stroke="#2f5d8a" dot={false} isAnimationActive={false} connectNulls={false} />
           </LineChart>
@@ -34,7 +34,7 @@ export function PathProfileChart({ data }: { data: PathProfileData }) {
           <LineChart data={data.points} margin={{ top: 8, right: 12, bottom: 16, left: 4 }}>
             <CartesianGrid stroke="#e7eaee" />
             <XAxis dataKey="s" type="number" tick={{ fontSize: 11 }} label={{ value: "path length (mm)", position: "insideBottom", offset: -8, fontSize: 11 }} />
-            <YAxis tick={{ fontSize: 11 }} width={48} label={{ value: "joint speed use (%)", angle: -90, position: "insideLeft", fontSize: 11 }} />
+            <YAxis tick={{ fontSize: 11 }} width={62} label={{ value: "joint speed use (%)", angle: -90, position: "insideLeft", offset: 4, fontSize: 11, style: { textAnchor: "middle" } }} />
             <ReferenceLine y={100} stroke="#a3231a" strokeDasharray="5 3" label={{ value: "joint limit", fontSize: 10, position: "insideTopRight" }} />
             <Tooltip formatter={(v) => `${fmtNum(Number(v), 0)} %`} labelFormatter={(s) => `s = ${fmtNum(Number(s), 0)} mm`} />
             <Line type="linear" dataKey="speedUse" name="joint speed use (%)" stroke="#8a6d2f" strokeDasharray="6 2" dot={false} isAnimationActive={false} connectNulls={false} />
@@ -79,10 +79,9 @@ export function WorkspaceChart({ data }: { data: WorkspaceData }) {
         <ScatterChart margin={{ top: 8, right: 12, bottom: 16, left: 4 }}>
           <CartesianGrid stroke="#e7eaee" />
           <XAxis dataKey={xk} type="number" tick={{ fontSize: 11 }} label={{ value: `${kind === "side" ? "radius from base axis" : "x"} (mm)`, position: "insideBottom", offset: -8, fontSize: 11 }} />
-          <YAxis dataKey={yk} type="number" tick={{ fontSize: 11 }} width={52} label={{ value: `${kind === "side" ? "z" : "y"} (mm)`, angle: -90, position: "insideLeft", fontSize: 11 }} />
+          <YAxis dataKey={yk} type="number" tick={{ fontSize: 11 }} width={62} label={{ value: `${kind === "side" ? "z" : "y"} (mm)`, angle: -90, position: "insideLeft", offset: 4, fontSize: 11, style: { textAnchor: "middle" } }} />
           <ZAxis range={[30, 30]} />
           <Tooltip formatter={(v) => fmtNum(Number(v), 0)} />
-          <Legend wrapperStyle={{ fontSize: 11 }} />
           <Scatter name="envelope (sampled)" data={closed} line={{ stroke: "#6b8fb3" }} shape={() => <g />} isAnimationActive={false} />
           <Scatter name="target reached (●)" data={reached} shape={<TargetShape />} isAnimationActive={false} />
           <Scatter name="target not reached (✗)" data={missed} shape={<TargetShape />} isAnimationActive={false} fill="#a3231a" />
@@ -98,6 +97,9 @@ export function WorkspaceChart({ data }: { data: WorkspaceData }) {
         {view("side")}
         {view("top")}
       </div>
+      <p className="chart-legend">
+        <span className="lg-line" aria-hidden="true" /> envelope (sampled, a lower bound) · <span className="ok">●</span> target reached · <span className="bad-ink">✗</span> target not reached
+      </p>
     </figure>
   );
 }

@@ -187,6 +187,16 @@ describe("shortlist page", () => {
         expect(rec.Verdict).toBe(v.verdict);
       }
     }
+    // Bad export parameters are answered with field errors, an unknown run with 404.
+    const sid = shortlistUrl.split("/")[2];
+    const bad = await p.evaluate(async (u) => {
+      const a = await fetch(`/api/shortlists/${u}/export?format=csv&weights=speed:3`);
+      const b = await fetch(`/api/shortlists/${u}/export?format=pdf`);
+      const c = await fetch(`/api/shortlists/${u}/export?format=csv&run=nope`);
+      return [a.status, (await a.json()).error.fieldErrors[0].path, b.status, (await b.json()).error.fieldErrors[0].path, c.status];
+    }, sid);
+    expect(bad).toEqual([400, "weights", 400, "format", 404]);
+    t.expect(/status of 40[04]/);
     const md = sheets.Metadata.map((r) => String(r[0]) + ": " + String(r[1]));
     expect(md.some((l) => l.startsWith("Weights: ") && l.includes("adjusted on the page"))).toBe(true);
   });
