@@ -87,6 +87,15 @@ export async function startHarness(): Promise<Harness> {
     stdio: ["ignore", logFd, logFd],
   });
   closeSync(logFd);
+  // If the test process ends without running close() (a crash or a timeout), take the server along.
+  const killOnExit = () => {
+    try {
+      if (server.pid !== undefined && server.exitCode === null) process.kill(-server.pid, "SIGKILL");
+    } catch {
+      /* already gone */
+    }
+  };
+  process.once("exit", killOnExit);
   const baseUrl = `http://127.0.0.1:${port}`;
   const serverLog = () => (existsSync(logPath) ? readFileSync(logPath, "utf8") : "");
 
@@ -167,6 +176,7 @@ export async function startHarness(): Promise<Harness> {
     async close() {
       for (const b of browsers) await b.close().catch(() => undefined);
       await stopServer();
+      process.removeListener("exit", killOnExit);
       rmSync(dir, { recursive: true, force: true });
     },
   };
