@@ -1,5 +1,8 @@
 import path from "node:path";
+import { fileURLToPath } from "node:url";
 import { defineConfig } from "vitest/config";
+
+const __dirname = path.dirname(fileURLToPath(import.meta.url));
 
 // `server-only` guards app code against client bundles; under vitest it resolves to its empty module.
 const alias = { "@": path.resolve(__dirname), "server-only": path.resolve(__dirname, "node_modules/server-only/empty.js") };
