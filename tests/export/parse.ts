@@ -26,7 +26,7 @@ export function parseCsvRows(text: string): string[][] {
 
 /** A CSV export split into its `#` metadata lines, header and rows (as objects by column name). */
 export function readCsvExport(text: string): { meta: string[]; columns: string[]; records: Record<string, string>[] } {
-  const lines = text.split(/\r\n/);
+  const lines = text.replace(/^\uFEFF/, "").split(/\r\n/);
   const meta = lines.filter((l) => l.startsWith("# ")).map((l) => l.slice(2));
   const body = lines.filter((l) => !l.startsWith("# ")).join("\r\n");
   const [columns, ...rows] = parseCsvRows(body);
