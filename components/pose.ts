@@ -3,6 +3,7 @@
  * X, Y, Z (R = Rz(yaw)·Ry(pitch)·Rx(roll)), converted to and from the row-major 4×4 in SI (m).
  * Text stays text until saving, so nothing typed is lost.
  */
+import { poseRpy } from "@/shared/pose";
 import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
 
 export const RPY_CONVENTION = "roll-pitch-yaw about the fixed axes X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll)";
@@ -38,36 +39,12 @@ export interface PoseText {
 export const POSE_KEYS = ["x", "y", "z", "roll", "pitch", "yaw"] as const;
 export const ZERO_POSE: PoseText = { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" };
 
-/** Row-major 4×4 from position (m) and roll, pitch, yaw (rad). */
-export function poseMatrix(p: [number, number, number], rpy: [number, number, number]): number[] {
-  const [r, pi, y] = rpy;
-  const cr = Math.cos(r), sr = Math.sin(r), cp = Math.cos(pi), sp = Math.sin(pi), cy = Math.cos(y), sy = Math.sin(y);
-  return [
-    cy * cp, cy * sp * sr - sy * cr, cy * sp * cr + sy * sr, p[0],
-    sy * cp, sy * sp * sr + cy * cr, sy * sp * cr - cy * sr, p[1],
-    -sp, cp * sr, cp * cr, p[2],
-    0, 0, 0, 1,
-  ];
-}
-
-/** Position (m) and roll, pitch, yaw (rad) of a row-major 4×4; at pitch ±90° roll is set to 0. */
-export function matrixPose(m: readonly number[]): { p: [number, number, number]; rpy: [number, number, number] } {
-  const cp = Math.hypot(m[0], m[4]);
-  const pitch = Math.atan2(-m[8], cp);
-  let roll: number, yaw: number;
-  if (cp > 1e-9) {
-    roll = Math.atan2(m[9], m[10]);
-    yaw = Math.atan2(m[4], m[0]);
-  } else {
-    roll = 0;
-    yaw = Math.atan2(-m[1], m[5]);
-  }
-  return { p: [m[3], m[7], m[11]], rpy: [roll, pitch, yaw] };
-}
+/** Row-major 4×4 from position (m) and roll, pitch, yaw (rad); matrixPose is its inverse. */
+export { rpyPose as poseMatrix, poseRpy as matrixPose } from "@/shared/pose";
 
 export function poseTextFromMatrix(m: readonly number[] | undefined): PoseText {
   if (!m) return { ...ZERO_POSE };
-  const { p, rpy } = matrixPose(m);
+  const { p, rpy } = poseRpy(m);
   return {
     x: show(mToMm(p[0])), y: show(mToMm(p[1])), z: show(mToMm(p[2])),
     roll: show(radToDeg(rpy[0])), pitch: show(radToDeg(rpy[1])), yaw: show(radToDeg(rpy[2])),

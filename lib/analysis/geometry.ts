@@ -2,6 +2,7 @@
  * Row-major 4×4 rigid transforms, roll-pitch-yaw and quaternions for the analysis (allocating,
  * not a hot path). Conventions as in the requirement sets: R = Rz(yaw)·Ry(pitch)·Rx(roll).
  */
+import { writeRpyPose } from "@/shared/pose";
 
 /** a·b for row-major 4×4 matrices (new array). */
 export function mul4(a: ArrayLike<number>, b: ArrayLike<number>): Float64Array {
@@ -43,15 +44,7 @@ export function rotationOf(t: ArrayLike<number>): Float64Array {
 
 /** 4×4 from position and roll-pitch-yaw about fixed axes (R = Rz(y)·Ry(p)·Rx(r)). */
 export function poseFromRpy(position: ArrayLike<number>, rpy: ArrayLike<number>): Float64Array {
-  const cr = Math.cos(rpy[0]), sr = Math.sin(rpy[0]);
-  const cp = Math.cos(rpy[1]), sp = Math.sin(rpy[1]);
-  const cy = Math.cos(rpy[2]), sy = Math.sin(rpy[2]);
-  return Float64Array.from([
-    cy * cp, cy * sp * sr - sy * cr, cy * sp * cr + sy * sr, position[0],
-    sy * cp, sy * sp * sr + cy * cr, sy * sp * cr - cy * sr, position[1],
-    -sp, cp * sr, cp * cr, position[2],
-    0, 0, 0, 1,
-  ]);
+  return writeRpyPose(new Float64Array(16), position, rpy);
 }
 
 /** Unit quaternion (w, x, y, z) of the rotation block of a 4×4 (Shepperd's method). */

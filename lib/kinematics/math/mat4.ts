@@ -3,6 +3,7 @@
  * `out` and is correct when `out` is also an input. Only `mat4Identity`-style constructors that say
  * so allocate.
  */
+import { writeRpyPose } from "@/shared/pose";
 import type { Mat4 } from "../types";
 
 /** A new identity transform (allocates). */
@@ -155,12 +156,5 @@ export function positionDistance(a: ArrayLike<number>, b: ArrayLike<number>): nu
  * (R = Rz(yaw)·Ry(pitch)·Rx(roll), as in the requirement sets). Writes `out`.
  */
 export function mat4FromPositionRpy(out: Mat4, position: ArrayLike<number>, rpy: ArrayLike<number>): Mat4 {
-  const cr = Math.cos(rpy[0]), sr = Math.sin(rpy[0]);
-  const cp = Math.cos(rpy[1]), sp = Math.sin(rpy[1]);
-  const cy = Math.cos(rpy[2]), sy = Math.sin(rpy[2]);
-  out[0] = cy * cp; out[1] = cy * sp * sr - sy * cr; out[2] = cy * sp * cr + sy * sr; out[3] = position[0];
-  out[4] = sy * cp; out[5] = sy * sp * sr + cy * cr; out[6] = sy * sp * cr - cy * sr; out[7] = position[1];
-  out[8] = -sp; out[9] = cp * sr; out[10] = cp * cr; out[11] = position[2];
-  out[12] = 0; out[13] = 0; out[14] = 0; out[15] = 1;
-  return out;
+  return writeRpyPose(out, position, rpy);
 }
