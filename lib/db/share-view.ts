@@ -11,6 +11,8 @@ import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { Verdict } from "@/lib/analysis/types";
 import { getPins, getRunResult, getShortlist, listRuns, loadPinnedInputs } from "./shortlists";
 
+const COMPARATOR: Record<string, string> = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" };
+
 export interface GuestVisibility {
   access: "view" | "comment";
   hidePrices: boolean;
@@ -103,7 +105,7 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
       if (!sp || !shownSpec(sp.field)) return [];
       return [{
         index: i,
-        label: `${sp.label} ${sp.comparator} ${sp.requiredDisplay}${sp.displayUnit ? ` ${sp.displayUnit}` : ""}`,
+        label: `${sp.label} ${COMPARATOR[sp.comparator]} ${sp.requiredDisplay}${sp.displayUnit ? ` ${sp.displayUnit}` : ""}`,
         priority: sp.priority,
         cells: result.arms.map((a) => {
           const c = a.specs.find((x) => x.index === i);
