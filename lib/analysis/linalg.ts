@@ -8,8 +8,10 @@
  * - `symmetricEigen`: cyclic Jacobi eigenvalue method for a small symmetric matrix
  *   (Golub & Van Loan §8.5; from memory).
  *
- * Both allocate their results (the analysis is not the IK hot path).
+ * Both allocate their results (the analysis is not the IK hot path). The Jacobi sweeps are the
+ * kinematics' own (`jacobiEigenInPlace`), so both parts share one implementation.
  */
+import { jacobiEigenInPlace } from "@/lib/kinematics/math/linalg";
 
 /** Result of {@link svdRows} for an m×n matrix A = U·diag(σ)·Vᵀ (only the first m right vectors). */
 export interface SvdRows {
@@ -130,38 +132,7 @@ export function symmetricEigen(s: ArrayLike<number>, k: number): SymmetricEigen 
   for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) a[i * k + j] = 0.5 * (s[i * k + j] + s[j * k + i]);
   const v = new Float64Array(k * k);
   for (let i = 0; i < k; i++) v[i * k + i] = 1;
-  for (let sweep = 0; sweep < 60; sweep++) {
-    let off = 0, diag = 0;
-    for (let i = 0; i < k; i++) {
-      diag += a[i * k + i] * a[i * k + i];
-      for (let j = i + 1; j < k; j++) off += a[i * k + j] * a[i * k + j];
-    }
-    if (off <= 1e-30 * diag || off === 0) break;
-    for (let p = 0; p < k - 1; p++) {
-      for (let q = p + 1; q < k; q++) {
-        const apq = a[p * k + q];
-        if (apq === 0) continue;
-        const theta = (a[q * k + q] - a[p * k + p]) / (2 * apq);
-        const t = (theta >= 0 ? 1 : -1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1));
-        const c = 1 / Math.sqrt(t * t + 1), sn = t * c;
-        for (let r = 0; r < k; r++) {
-          const arp = a[r * k + p], arq = a[r * k + q];
-          a[r * k + p] = c * arp - sn * arq;
-          a[r * k + q] = sn * arp + c * arq;
-        }
-        for (let r = 0; r < k; r++) {
-          const apr = a[p * k + r], aqr = a[q * k + r];
-          a[p * k + r] = c * apr - sn * aqr;
-          a[q * k + r] = sn * apr + c * aqr;
-        }
-        for (let r = 0; r < k; r++) {
-          const vrp = v[r * k + p], vrq = v[r * k + q];
-          v[r * k + p] = c * vrp - sn * vrq;
-          v[r * k + q] = sn * vrp + c * vrq;
-        }
-      }
-    }
-  }
+  jacobiEigenInPlace(a, k, v);
   const order = Array.from({ length: k }, (_, j) => j).sort((x, y) => a[y * k + y] - a[x * k + x] || x - y);
   const values = new Float64Array(k), vectors = new Float64Array(k * k);
   order.forEach((src, dst) => {

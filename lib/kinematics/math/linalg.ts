@@ -42,11 +42,13 @@ export function choleskySolve(l: Float64Array, k: number, b: ArrayLike<number>, 
 }
 
 /**
- * Eigenvalues of the symmetric k×k matrix `a` (row-major) by cyclic Jacobi rotations; `a` is
- * destroyed (its diagonal holds the eigenvalues on return). Returns the smallest eigenvalue.
+ * Cyclic Jacobi rotations on the symmetric k×k matrix `a` (row-major) until the off-diagonal part
+ * is negligible; `a` is destroyed (its diagonal holds the eigenvalues, unsorted, on return). When
+ * `v` (k×k, row-major, usually the identity on entry) is given, each rotation is also applied to
+ * its columns, so that its columns become the eigenvectors. Does not allocate.
  * Reference: Golub & Van Loan, Matrix Computations, §8.5 (cyclic Jacobi).
  */
-export function symmetricMinEigenvalue(a: Float64Array, k: number): number {
+export function jacobiEigenInPlace(a: Float64Array, k: number, v?: Float64Array): void {
   for (let sweep = 0; sweep < 60; sweep++) {
     let off = 0;
     let diag = 0;
@@ -74,9 +76,25 @@ export function symmetricMinEigenvalue(a: Float64Array, k: number): number {
           a[p * k + r] = c * apr - s * aqr;
           a[q * k + r] = s * apr + c * aqr;
         }
+        if (v) {
+          for (let r = 0; r < k; r++) {
+            const vrp = v[r * k + p], vrq = v[r * k + q];
+            v[r * k + p] = c * vrp - s * vrq;
+            v[r * k + q] = s * vrp + c * vrq;
+          }
+        }
       }
     }
   }
+}
+
+/**
+ * Eigenvalues of the symmetric k×k matrix `a` (row-major) by cyclic Jacobi rotations; `a` is
+ * destroyed (its diagonal holds the eigenvalues on return). Returns the smallest eigenvalue.
+ * Reference: Golub & Van Loan, Matrix Computations, §8.5 (cyclic Jacobi).
+ */
+export function symmetricMinEigenvalue(a: Float64Array, k: number): number {
+  jacobiEigenInPlace(a, k);
   let min = Infinity;
   for (let i = 0; i < k; i++) if (a[i * k + i] < min) min = a[i * k + i];
   return min;
