@@ -2,7 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { listShortlists } from "@/lib/db/shortlists";
 import { allowed, requireUser } from "@/app/_lib/session";
-import { utc } from "@/components/shortlist/verdict";
+import { PageHead } from "@/components/PageHead";
+import { utc } from "@/components/time";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Shortlists" };
@@ -12,17 +13,13 @@ export default async function ShortlistsPage() {
   const rows = await listShortlists();
   return (
     <>
-      <div className="page-head">
-        <h1>Shortlists</h1>
-        <span className="sub">{rows.length} shortlist{rows.length === 1 ? "" : "s"}</span>
-        <div className="actions">
-          {allowed(user, "shortlist:write") && (
-            <Link className="button primary" href="/shortlists/new">
-              New shortlist
-            </Link>
-          )}
-        </div>
-      </div>
+      <PageHead title="Shortlists" count={rows.length} noun="shortlist">
+        {allowed(user, "shortlist:write") && (
+          <Link className="button primary" href="/shortlists/new">
+            New shortlist
+          </Link>
+        )}
+      </PageHead>
       {rows.length === 0 ? (
         <p className="empty">No shortlists yet.</p>
       ) : (

@@ -22,8 +22,4 @@ export function fmtNum(v: number | null | undefined, d = 2): string {
 }
 
 /** ISO time as "2026-01-02 03:04 UTC". */
-export function utc(iso: string | Date | null | undefined): string {
-  if (!iso) return "–";
-  const d = typeof iso === "string" ? new Date(iso) : iso;
-  return d.toISOString().slice(0, 16).replace("T", " ") + " UTC";
-}
+export { utc } from "../time";
