@@ -13,6 +13,7 @@ import { armFormFromDoc, armPathLabel, describeError, emptyArmForm, validateArmF
 import { formatArmValue } from "./format";
 import { JointTable } from "./JointTable";
 import { DhPastePanel } from "./DhPastePanel";
+import { RemoveRowCell } from "../RowControls";
 
 interface Props {
   /** Arm id when editing an existing arm; absent for a new one. */
@@ -369,13 +370,7 @@ export function ArmEditor(props: Props) {
                       <td>
                         <CellNumber label={`wrist row ${i + 1} allowable inertia (kg·m²)`} value={w.inertia} onChange={(v) => set({ inertia: v })} error={errText(errMap, `specs.wristAllowables.${i}.inertia`)} readOnly={readOnly} />
                       </td>
-                      {!readOnly && (
-                        <td>
-                          <button type="button" className="small danger" aria-label={`Remove wrist row ${i + 1}`} onClick={() => updateSpecs({ wristAllowables: form.specs.wristAllowables.filter((_, k) => k !== i) })}>
-                            Remove
-                          </button>
-                        </td>
-                      )}
+                      {!readOnly && <RemoveRowCell rows={form.specs.wristAllowables} index={i} label={`wrist row ${i + 1}`} onChange={(wristAllowables) => updateSpecs({ wristAllowables })} />}
                     </tr>
                   );
                 })}

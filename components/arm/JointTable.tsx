@@ -1,7 +1,7 @@
 "use client";
 import { CellNumber } from "../fields";
-import { moveItem } from "../pose";
 import { JOINT_LABEL, jointFieldUnit, newJointRow, type JointNumField, type JointRow, type JointType } from "./armForm";
+import { RowActionsCell } from "../RowControls";
 
 const MAIN: JointNumField[] = ["a", "alpha", "d", "theta", "min", "max", "maxSpeed", "maxTorque", "mass"];
 
@@ -110,33 +110,7 @@ export function JointTable(props: {
                       onChange={(v) => set(i, { radius: v })}
                     />
                   </td>
-                  {!readOnly && (
-                    <td>
-                      <div className="row-actions">
-                        <button type="button" className="small" aria-label={`Move joint ${n} up`} disabled={i === 0} onClick={() => props.onChange(moveItem(rows, i, -1), true)}>
-                          ↑
-                        </button>
-                        <button
-                          type="button"
-                          className="small"
-                          aria-label={`Move joint ${n} down`}
-                          disabled={i === rows.length - 1}
-                          onClick={() => props.onChange(moveItem(rows, i, 1), true)}
-                        >
-                          ↓
-                        </button>
-                        <button
-                          type="button"
-                          className="small danger"
-                          aria-label={`Remove joint ${n}`}
-                          disabled={rows.length <= 1}
-                          onClick={() => props.onChange(rows.filter((_, k) => k !== i), true)}
-                        >
-                          Remove
-                        </button>
-                      </div>
-                    </td>
-                  )}
+                  {!readOnly && <RowActionsCell rows={rows} index={i} label={`joint ${n}`} canRemove={rows.length > 1} onChange={(next) => props.onChange(next, true)} />}
                 </tr>
               );
             })}

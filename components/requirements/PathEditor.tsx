@@ -1,8 +1,8 @@
 "use client";
 import { CONSTRAINT_MODES } from "@/shared/schemas";
 import { CellNumber, NumberField, SelectField, TextField } from "../fields";
-import { moveItem } from "../pose";
 import { newPath, newWaypoint, type PathForm, type WaypointRow } from "./reqForm";
+import { RowActionsCell } from "../RowControls";
 
 const WP: { key: keyof Omit<WaypointRow, "key">; unit: string; path: string }[] = [
   { key: "x", unit: "mm", path: "position.0" },
@@ -76,32 +76,7 @@ export function PathEditor(props: { paths: PathForm[]; onChange: (paths: PathFor
                           />
                         </td>
                       ))}
-                      {!readOnly && (
-                        <td>
-                          <div className="row-actions">
-                            <button type="button" className="small" aria-label={`Move waypoint ${j + 1} of path ${i + 1} up`} disabled={j === 0} onClick={() => setPath(i, { waypoints: moveItem(p.waypoints, j, -1) }, true)}>
-                              ↑
-                            </button>
-                            <button
-                              type="button"
-                              className="small"
-                              aria-label={`Move waypoint ${j + 1} of path ${i + 1} down`}
-                              disabled={j === p.waypoints.length - 1}
-                              onClick={() => setPath(i, { waypoints: moveItem(p.waypoints, j, 1) }, true)}
-                            >
-                              ↓
-                            </button>
-                            <button
-                              type="button"
-                              className="small danger"
-                              aria-label={`Remove waypoint ${j + 1} of path ${i + 1}`}
-                              onClick={() => setPath(i, { waypoints: p.waypoints.filter((_, k) => k !== j) }, true)}
-                            >
-                              Remove
-                            </button>
-                          </div>
-                        </td>
-                      )}
+                      {!readOnly && <RowActionsCell rows={p.waypoints} index={j} label={`waypoint ${j + 1} of path ${i + 1}`} onChange={(waypoints) => setPath(i, { waypoints }, true)} />}
                     </tr>
                   ))}
                 </tbody>

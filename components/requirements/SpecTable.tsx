@@ -1,6 +1,7 @@
 "use client";
 import { MOUNTINGS, SPEC_FIELDS, SPEC_FIELD_NAMES, type SpecField } from "@/shared/schemas";
 import { COMPARATOR_LABEL, comparatorsFor, newSpec, specUnit, type SpecRow } from "./reqForm";
+import { RemoveRowCell } from "../RowControls";
 
 export function SpecTable(props: { rows: SpecRow[]; onChange: (rows: SpecRow[], structural?: boolean) => void; errors: Record<string, string[]>; readOnly: boolean }) {
   const { rows, errors, readOnly } = props;
@@ -110,13 +111,7 @@ export function SpecTable(props: { rows: SpecRow[]; onChange: (rows: SpecRow[], 
                     <td>
                       <input className="note" aria-label={`spec requirement ${i + 1} note`} value={r.note} readOnly={readOnly} onChange={(ev) => set(i, { note: ev.target.value })} />
                     </td>
-                    {!readOnly && (
-                      <td>
-                        <button type="button" className="small danger" aria-label={`Remove spec requirement ${i + 1}`} onClick={() => props.onChange(rows.filter((_, k) => k !== i), true)}>
-                          Remove
-                        </button>
-                      </td>
-                    )}
+                    {!readOnly && <RemoveRowCell rows={rows} index={i} label={`spec requirement ${i + 1}`} onChange={(next) => props.onChange(next, true)} />}
                   </tr>
                 );
               })}

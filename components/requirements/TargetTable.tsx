@@ -1,8 +1,8 @@
 "use client";
 import { CONSTRAINT_MODES } from "@/shared/schemas";
 import { CellNumber } from "../fields";
-import { moveItem } from "../pose";
 import { newTarget, type TargetRow } from "./reqForm";
+import { RowActionsCell } from "../RowControls";
 
 type NumKey = "x" | "y" | "z" | "roll" | "pitch" | "yaw" | "posTol" | "rotTol" | "fx" | "fy" | "fz" | "mx" | "my" | "mz";
 const COLS: { key: NumKey; label: string; unit: string; path: (i: number) => string[] }[] = [
@@ -100,21 +100,7 @@ export function TargetTable(props: { rows: TargetRow[]; onChange: (rows: TargetR
                     </select>
                   </td>
                   {FORCE.map((c) => cell(r, i, c))}
-                  {!readOnly && (
-                    <td>
-                      <div className="row-actions">
-                        <button type="button" className="small" aria-label={`Move target ${i + 1} up`} disabled={i === 0} onClick={() => props.onChange(moveItem(rows, i, -1), true)}>
-                          ↑
-                        </button>
-                        <button type="button" className="small" aria-label={`Move target ${i + 1} down`} disabled={i === rows.length - 1} onClick={() => props.onChange(moveItem(rows, i, 1), true)}>
-                          ↓
-                        </button>
-                        <button type="button" className="small danger" aria-label={`Remove target ${i + 1}`} onClick={() => props.onChange(rows.filter((_, k) => k !== i), true)}>
-                          Remove
-                        </button>
-                      </div>
-                    </td>
-                  )}
+                  {!readOnly && <RowActionsCell rows={rows} index={i} label={`target ${i + 1}`} onChange={(next) => props.onChange(next, true)} />}
                 </tr>
               ))}
             </tbody>
