@@ -45,6 +45,15 @@ class ArmsiftSqliteAdapter extends PrismaBetterSQLite3 {
     await adapter.executeScript(
       `PRAGMA journal_mode = WAL; PRAGMA busy_timeout = ${BUSY_TIMEOUT_MS}; PRAGMA foreign_keys = ON; PRAGMA synchronous = NORMAL;`,
     );
+    // Transactions start with BEGIN IMMEDIATE instead of the adapter's deferred BEGIN: under WAL a
+    // deferred transaction that reads and then writes fails at once with SQLITE_BUSY (no busy
+    // timeout applies) when another process, such as the analysis runner, committed in between;
+    // taking the write lock up front makes it wait for the lock instead.
+    const sqlite = (adapter as unknown as { client?: { prepare(sql: string): unknown } }).client;
+    if (sqlite && typeof sqlite.prepare === "function") {
+      const prepare = sqlite.prepare.bind(sqlite);
+      sqlite.prepare = (sql: string) => prepare(sql === "BEGIN" ? "BEGIN IMMEDIATE" : sql);
+    }
     const lock = createLock();
     const startTransaction = adapter.startTransaction.bind(adapter);
     adapter.startTransaction = async (isolationLevel) => {

@@ -1,6 +1,7 @@
 // Discussion on a temporary database: anchors checked against the pins, threads, edits kept as
 // immutable revisions, soft delete, resolve/reopen, mentions, unread counts, idempotent posts,
 // guest names cleaned, and the audit trail.
+import { spawn } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "./helpers";
 import { createArm } from "@/lib/db/arms";
@@ -113,4 +114,27 @@ describe("discussion", () => {
     const comments = await t.client.comment.count();
     expect(events.filter((e) => e.action === "comment.create").length).toBe(comments);
   });
+
+  it("posts reliably while another process writes to the database (the analysis runner does)", async () => {
+    // A second process commits writes back to back (the analysis runner writes progress while it
+    // runs). A deferred transaction that read before such a commit could not write after it.
+    const script = `const D = require("better-sqlite3"); const d = new D(${JSON.stringify(t.file)}); d.pragma("busy_timeout = 5000");
+      const s = new Int32Array(new SharedArrayBuffer(4)); process.stdout.write("ready\\n");
+      for (;;) { d.prepare("UPDATE Shortlist SET updatedAt = updatedAt").run(); Atomics.wait(s, 0, 0, 0); }`;
+    const writer = spawn(process.execPath, ["-e", script], { cwd: process.cwd(), stdio: ["ignore", "pipe", "inherit"] });
+    try {
+      await new Promise<void>((resolve, reject) => {
+        writer.stdout!.once("data", () => resolve());
+        writer.once("exit", (code) => reject(new Error(`writer exited with ${code}`)));
+      });
+      const failures: string[] = [];
+      for (let i = 0; i < 150; i++) {
+        await createComment(member(ada), shortlistId, { body: `while writing ${i}` }).catch((e: Error) => failures.push(e.message.split("\n").pop()!));
+      }
+      expect(failures).toEqual([]);
+      expect(await t.client.comment.count({ where: { body: { startsWith: "while writing " } } })).toBe(150);
+    } finally {
+      writer.kill("SIGKILL");
+    }
+  }, 60_000);
 });
