@@ -1,12 +1,23 @@
 "use client";
-import { NumberField } from "./fields";
+import { NumberField, errText, wholeErrors } from "./fields";
 import { POSE_KEYS, type PoseText } from "./pose";
 
 const LABEL: Record<keyof PoseText, string> = { x: "x", y: "y", z: "z", roll: "roll", pitch: "pitch", yaw: "yaw" };
 
+/** The field errors of the pose at `key` ("base", "tool.tcp"), by pose key. */
+export function poseErrors(errors: Record<string, string[]>, key: string): Partial<Record<keyof PoseText, string>> {
+  const out: Partial<Record<keyof PoseText, string>> = {};
+  for (const k of POSE_KEYS) {
+    const m = errText(errors, `${key}.${k}`);
+    if (m) out[k] = m;
+  }
+  return out;
+}
+
 /**
  * Six labelled inputs for a pose: x y z in mm and roll pitch yaw in degrees. `errors` holds
- * messages by pose key; `errorAll` a message for the transform as a whole.
+ * messages by pose key; `errorAll` a message for the transform as a whole. Or `errorMap`: the
+ * form's errors by path, from which both are taken at `idPrefix`.
  */
 export function PoseFieldset(props: {
   legend: string;
@@ -15,9 +26,13 @@ export function PoseFieldset(props: {
   onChange: (v: PoseText) => void;
   errors?: Partial<Record<keyof PoseText, string>>;
   errorAll?: string;
+  errorMap?: Record<string, string[]>;
   readOnly?: boolean;
   idPrefix?: string;
 }) {
+  const fromMap = props.errorMap && props.idPrefix !== undefined;
+  const errors = fromMap ? poseErrors(props.errorMap!, props.idPrefix!) : props.errors;
+  const errorAll = fromMap ? wholeErrors(props.errorMap!, props.idPrefix!) : props.errorAll;
   return (
     <fieldset className="panel" data-testid={props.idPrefix}>
       <legend>{props.legend}</legend>
@@ -31,12 +46,12 @@ export function PoseFieldset(props: {
             unit={k === "x" || k === "y" || k === "z" ? "mm" : "°"}
             value={props.value[k]}
             readOnly={props.readOnly}
-            error={props.errors?.[k]}
+            error={errors?.[k]}
             onChange={(v) => props.onChange({ ...props.value, [k]: v })}
           />
         ))}
       </div>
-      {props.errorAll && <p className="err">{props.errorAll}</p>}
+      {errorAll && <p className="err">{errorAll}</p>}
     </fieldset>
   );
 }

@@ -7,6 +7,18 @@ export function errText(errors: Record<string, string[]>, path: string): string 
   return m && m.length ? m.join("; ") : undefined;
 }
 
+/**
+ * Joins the messages for a whole value and its numbered entries (`key`, `key.0`, `key.1`, …),
+ * or undefined.
+ */
+export function wholeErrors(errors: Record<string, string[]>, key: string): string | undefined {
+  const re = new RegExp(`^${key.replace(/\./g, "\\.")}(\\.\\d+)?$`);
+  const m = Object.entries(errors)
+    .filter(([p]) => re.test(p))
+    .flatMap(([, ms]) => ms);
+  return m.length ? m.join("; ") : undefined;
+}
+
 interface BaseProps {
   label: string;
   error?: string;
@@ -15,15 +27,36 @@ interface BaseProps {
   name?: string;
 }
 
+/** A field's label with its optional hint. */
+function FieldLabel({ id, label, hint }: { id: string; label: string; hint?: string }) {
+  return (
+    <label htmlFor={id}>
+      {label}
+      {hint && <span className="hint"> ({hint})</span>}
+    </label>
+  );
+}
+
+/** A field's error message, referenced by the input's aria-describedby as `${id}-err`. */
+function FieldErr({ id, error }: { id: string; error?: string }) {
+  return error ? (
+    <span id={id + "-err"} className="err">
+      {error}
+    </span>
+  ) : null;
+}
+
+/** aria-invalid and aria-describedby of an input with an optional error. */
+function errAria(id: string, error: string | undefined) {
+  return { "aria-invalid": error ? true : undefined, "aria-describedby": error ? id + "-err" : undefined } as const;
+}
+
 /** Labelled text input with its error below; the typed text is kept as is. */
 export function TextField(props: BaseProps & { value: string; onChange: (v: string) => void; type?: string; autoComplete?: string; required?: boolean }) {
   const id = useId();
   return (
     <div className="field">
-      <label htmlFor={id}>
-        {props.label}
-        {props.hint && <span className="hint"> ({props.hint})</span>}
-      </label>
+      <FieldLabel id={id} label={props.label} hint={props.hint} />
       <input
         id={id}
         name={props.name}
@@ -32,15 +65,10 @@ export function TextField(props: BaseProps & { value: string; onChange: (v: stri
         autoComplete={props.autoComplete}
         required={props.required}
         readOnly={props.readOnly}
-        aria-invalid={props.error ? true : undefined}
-        aria-describedby={props.error ? id + "-err" : undefined}
+        {...errAria(id, props.error)}
         onChange={(e) => props.onChange(e.target.value)}
       />
-      {props.error && (
-        <span id={id + "-err"} className="err">
-          {props.error}
-        </span>
-      )}
+      <FieldErr id={id} error={props.error} />
     </div>
   );
 }
@@ -50,10 +78,7 @@ export function NumberField(props: BaseProps & { value: string; onChange: (v: st
   const id = useId();
   return (
     <div className="field">
-      <label htmlFor={id}>
-        {props.label}
-        {props.hint && <span className="hint"> ({props.hint})</span>}
-      </label>
+      <FieldLabel id={id} label={props.label} hint={props.hint} />
       <div className="unit-input">
         <input
           id={id}
@@ -70,11 +95,7 @@ export function NumberField(props: BaseProps & { value: string; onChange: (v: st
           {props.unit || "–"}
         </span>
       </div>
-      {props.error && (
-        <span id={id + "-err"} className="err">
-          {props.error}
-        </span>
-      )}
+      <FieldErr id={id} error={props.error} />
     </div>
   );
 }
@@ -101,15 +122,10 @@ export function CellNumber(props: {
         aria-label={props.label}
         value={props.value}
         readOnly={props.readOnly}
-        aria-invalid={props.error ? true : undefined}
-        aria-describedby={props.error ? id + "-err" : undefined}
+        {...errAria(id, props.error)}
         onChange={(e) => props.onChange(e.target.value)}
       />
-      {props.error && (
-        <span id={id + "-err"} className="err">
-          {props.error}
-        </span>
-      )}
+      <FieldErr id={id} error={props.error} />
     </>
   );
 }
@@ -120,17 +136,13 @@ export function SelectField<T extends string>(
   const id = useId();
   return (
     <div className="field">
-      <label htmlFor={id}>
-        {props.label}
-        {props.hint && <span className="hint"> ({props.hint})</span>}
-      </label>
+      <FieldLabel id={id} label={props.label} hint={props.hint} />
       <select
         id={id}
         name={props.name}
         value={props.value}
         disabled={props.readOnly}
-        aria-invalid={props.error ? true : undefined}
-        aria-describedby={props.error ? id + "-err" : undefined}
+        {...errAria(id, props.error)}
         onChange={(e) => props.onChange(e.target.value as T)}
       >
         {props.options.map((o) => (
@@ -139,11 +151,18 @@ export function SelectField<T extends string>(
           </option>
         ))}
       </select>
-      {props.error && (
-        <span id={id + "-err"} className="err">
-          {props.error}
-        </span>
-      )}
+      <FieldErr id={id} error={props.error} />
+    </div>
+  );
+}
+
+/** The description textarea of a document form. */
+export function DescriptionField(props: { value: string; onChange: (v: string) => void; readOnly?: boolean }) {
+  const id = useId();
+  return (
+    <div className="field">
+      <label htmlFor={id}>Description</label>
+      <textarea id={id} name="description" rows={2} style={{ fontFamily: "inherit" }} value={props.value} readOnly={props.readOnly} onChange={(e) => props.onChange(e.target.value)} />
     </div>
   );
 }
