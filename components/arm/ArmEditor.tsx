@@ -1,15 +1,12 @@
 "use client";
-import Link from "next/link";
-import { useRouter } from "next/navigation";
-import { useId, useMemo, useState } from "react";
-import { MAX_JOINTS, MOUNTINGS, type ArmDocument, type FieldError } from "@/shared/schemas";
-import { api, byPath } from "../api";
-import { ErrorSummary, NumberField, SelectField, TextField, errText, CellNumber } from "../fields";
+import { useState } from "react";
+import { MAX_JOINTS, MOUNTINGS, type ArmDocument } from "@/shared/schemas";
+import { DescriptionField, NumberField, SelectField, TextField, errText, wholeErrors, CellNumber } from "../fields";
 import { PoseFieldset } from "../PoseFieldset";
-import { ConflictPanel, KeptEdits, diffPaths, valueAt, type ConflictRow } from "../ConflictPanel";
-import { DeleteControl } from "../DeleteControl";
-import { RPY_CONVENTION, rowKey, type PoseText } from "../pose";
-import { armFormFromDoc, armPathLabel, describeError, emptyArmForm, validateArmForm, type ArmForm } from "./armForm";
+import { EditorFrame } from "../EditorFrame";
+import { useDocumentEditor, type DocumentKind } from "../useDocumentEditor";
+import { RPY_CONVENTION, rowKey } from "../pose";
+import { armFormFromDoc, armPathLabel, emptyArmForm, validateArmForm, type ArmForm } from "./armForm";
 import { formatArmValue } from "./format";
 import { JointTable } from "./JointTable";
 import { DhPastePanel } from "./DhPastePanel";
@@ -29,174 +26,34 @@ interface Props {
   created?: boolean;
 }
 
-interface ConflictState {
-  byName: string | null;
-  baseRevision: number;
-  currentRevision: number;
-  current: ArmDocument;
-  rows: ConflictRow[];
-  mine: ArmDocument;
-}
-
-function poseErrors(errors: Record<string, string[]>, key: "base" | "tool"): Partial<Record<keyof PoseText, string>> {
-  const out: Partial<Record<keyof PoseText, string>> = {};
-  for (const k of ["x", "y", "z", "roll", "pitch", "yaw"] as const) {
-    const m = errText(errors, `${key}.${k}`);
-    if (m) out[k] = m;
-  }
-  return out;
-}
-function wholeErrors(errors: Record<string, string[]>, key: string): string | undefined {
-  const m = Object.entries(errors)
-    .filter(([p]) => p === key || new RegExp(`^${key}\\.\\d+$`).test(p))
-    .flatMap(([, ms]) => ms);
-  return m.length ? m.join("; ") : undefined;
-}
-
 /** Transform entries are shown as one pose, not as 16 matrix cells. */
 function groupArmPath(path: string): string {
   return /^(base|tool)\.\d+$/.test(path) ? path.split(".")[0] : path;
 }
 
-export function ArmEditor(props: Props) {
-  const router = useRouter();
-  const uid = useId();
-  const readOnly = !props.canWrite || props.viewingRevision !== undefined || props.deleted === true;
-  const [form, setForm] = useState<ArmForm>(() => (props.initial ? armFormFromDoc(props.initial) : emptyArmForm()));
-  const [startDoc, setStartDoc] = useState<ArmDocument | undefined>(props.initial);
-  const [baseRevision, setBaseRevision] = useState<number | undefined>(props.revision);
-  const [errors, setErrors] = useState<FieldError[]>([]);
-  const [message, setMessage] = useState<string>("");
-  const [saved, setSaved] = useState<string>(props.created ? "Created as revision 1." : "");
-  const [busy, setBusy] = useState(false);
-  const [pasteOpen, setPasteOpen] = useState(false);
-  const [conflict, setConflict] = useState<ConflictState | null>(null);
-  const [kept, setKept] = useState<{ rows: { label: string; path: string; mine: string }[]; json: string } | null>(null);
+const ARM_KIND: DocumentKind<ArmDocument, ArmForm> = {
+  api: "/api/arms",
+  page: "/arms",
+  bodyKey: "arm",
+  what: "arm",
+  plural: "arms",
+  restoreFrom: "catalog",
+  fromDoc: armFormFromDoc,
+  empty: emptyArmForm,
+  validate: validateArmForm,
+  pathLabel: armPathLabel,
+  groupPath: groupArmPath,
+  formatValue: formatArmValue,
+};
 
-  const errMap = useMemo(() => byPath(errors), [errors]);
-  const summary = errors.map((e) => describeError(e, armPathLabel));
-  const update = (patch: Partial<ArmForm>) => {
-    setForm((f) => ({ ...f, ...patch }));
-    setSaved("");
-  };
+export function ArmEditor(props: Props) {
+  const ed = useDocumentEditor(ARM_KIND, props);
+  const { readOnly, form, update, errMap } = ed;
+  const [pasteOpen, setPasteOpen] = useState(false);
   const updateSpecs = (patch: Partial<ArmForm["specs"]>) => update({ specs: { ...form.specs, ...patch } });
 
-  async function save() {
-    setSaved("");
-    setMessage("");
-    const { doc, errors: clientErrors } = validateArmForm(form);
-    if (clientErrors.length) {
-      setErrors(clientErrors);
-      setMessage(`Not saved: ${clientErrors.length === 1 ? "1 problem" : `${clientErrors.length} problems`}, marked at the fields and listed above this bar.`);
-      return;
-    }
-    setBusy(true);
-    const res = props.id
-      ? await api<{ id: string; revision: number; arm: ArmDocument }>(`/api/arms/${props.id}`, "PUT", { baseRevision, arm: doc })
-      : await api<{ id: string; revision: number; arm: ArmDocument }>("/api/arms", "POST", doc);
-    setBusy(false);
-    if (res.ok) {
-      setErrors([]);
-      if (!props.id) {
-        router.push(`/arms/${res.data.id}?created=1`);
-        return;
-      }
-      setBaseRevision(res.data.revision);
-      setStartDoc(res.data.arm);
-      setForm(armFormFromDoc(res.data.arm));
-      setSaved(`Saved as revision ${res.data.revision}.`);
-      return;
-    }
-    if (res.status === 409 && res.error.conflict) {
-      const c = res.error.conflict;
-      const current = c.current as ArmDocument;
-      let byName: string | null = null;
-      const revs = await api<{ revisions: { revision: number; author: { name: string } | null }[] }>(`/api/arms/${props.id}/revisions`, "GET");
-      if (revs.ok) byName = revs.data.revisions.find((r) => r.revision === c.currentRevision)?.author?.name ?? null;
-      // Leaf paths: expand whole-array changes the server may report.
-      const paths = [...new Set(c.changes.map((ch) => groupArmPath(ch.path)))];
-      const rows: ConflictRow[] = paths.map((path) => ({
-        path,
-        label: armPathLabel(path),
-        base: formatArmValue(path, valueAt(startDoc, path), startDoc),
-        current: formatArmValue(path, valueAt(current, path), current),
-        mine: formatArmValue(path, valueAt(doc, path), doc),
-      }));
-      setConflict({ byName, baseRevision: c.baseRevision, currentRevision: c.currentRevision, current, rows, mine: doc });
-      setMessage("");
-      return;
-    }
-    setErrors(res.error.fieldErrors ?? []);
-    setMessage(res.status === 403 ? "Not saved: your role may not change arms." : `Not saved: ${res.error.message}`);
-  }
-
-  function loadLatest(keep: boolean) {
-    if (!conflict) return;
-    if (keep) {
-      const mineChanged = startDoc ? diffPaths(startDoc, conflict.mine) : [];
-      setKept({
-        rows: mineChanged.map((path) => ({ path, label: armPathLabel(path), mine: formatArmValue(path, valueAt(conflict.mine, path), conflict.mine) })),
-        json: JSON.stringify(conflict.mine, null, 2),
-      });
-    } else setKept(null);
-    setForm(armFormFromDoc(conflict.current));
-    setStartDoc(conflict.current);
-    setBaseRevision(conflict.currentRevision);
-    setErrors([]);
-    setConflict(null);
-    setSaved(`Loaded revision ${conflict.currentRevision}.`);
-  }
-
-  const title = props.viewingRevision !== undefined ? `${form.name} · revision ${props.viewingRevision}` : props.id ? form.name || "Arm" : "New arm";
   return (
-    <form
-      noValidate
-      onSubmit={(e) => {
-        e.preventDefault();
-        if (!readOnly) void save();
-      }}
-      aria-labelledby={uid + "-title"}
-    >
-      <div className="page-head">
-        <h1 id={uid + "-title"}>{title}</h1>
-        {props.id && baseRevision !== undefined && props.viewingRevision === undefined && <span className="sub">revision {baseRevision}</span>}
-        <div className="actions no-print">
-          {props.id && (
-            <>
-              <Link href={`/arms/${props.id}/history`}>History</Link>
-              <a className="button" href={`/api/arms/${props.id}/export`} download>
-                Export JSON
-              </a>
-            </>
-          )}
-          {props.id && props.canWrite && props.viewingRevision === undefined && !props.deleted && <DeleteControl url={`/api/arms/${props.id}`} what="arm" afterHref="/arms" />}
-        </div>
-      </div>
-      {props.viewingRevision !== undefined && (
-        <p className="notice">
-          A past revision, read-only. <Link href={`/arms/${props.id}`}>Open the latest revision</Link>.
-        </p>
-      )}
-      {props.deleted && <p className="notice warn">This arm is deleted. Restore it from the catalog to edit it.</p>}
-      {!props.canWrite && props.viewingRevision === undefined && (
-        <p className="notice" data-testid="read-only-note">
-          Read-only: your role is viewer. An administrator can make you an editor.
-        </p>
-      )}
-
-      {conflict && (
-        <ConflictPanel
-          what="arm"
-          byName={conflict.byName}
-          baseRevision={conflict.baseRevision}
-          currentRevision={conflict.currentRevision}
-          rows={conflict.rows}
-          onKeep={() => loadLatest(true)}
-          onDiscard={() => loadLatest(false)}
-        />
-      )}
-      {kept && <KeptEdits rows={kept.rows} json={kept.json} onDismiss={() => setKept(null)} />}
-
+    <EditorFrame editor={ed} kind={ARM_KIND} name={form.name} of={props}>
       <fieldset className="panel">
         <legend>Identity</legend>
         <div className="grid wide">
@@ -204,18 +61,7 @@ export function ArmEditor(props: Props) {
           <TextField label="Maker" name="maker" value={form.maker} onChange={(v) => update({ maker: v })} error={errText(errMap, "maker")} readOnly={readOnly} />
           <TextField label="Model code" name="modelCode" value={form.modelCode} onChange={(v) => update({ modelCode: v })} error={errText(errMap, "modelCode")} readOnly={readOnly} />
         </div>
-        <div className="field">
-          <label htmlFor={uid + "-desc"}>Description</label>
-          <textarea
-            id={uid + "-desc"}
-            name="description"
-            rows={2}
-            style={{ fontFamily: "inherit" }}
-            value={form.description}
-            readOnly={readOnly}
-            onChange={(e) => update({ description: e.target.value })}
-          />
-        </div>
+        <DescriptionField value={form.description} readOnly={readOnly} onChange={(v) => update({ description: v })} />
       </fieldset>
 
       <fieldset className="panel">
@@ -243,10 +89,7 @@ export function ArmEditor(props: Props) {
           maxJoints={MAX_JOINTS}
           readOnly={readOnly}
           errors={errMap}
-          onChange={(rows, structural) => {
-            update({ joints: rows });
-            if (structural) setErrors([]);
-          }}
+          onChange={(rows, structural) => update({ joints: rows }, structural)}
         />
         {!readOnly && !pasteOpen && (
           <button type="button" onClick={() => setPasteOpen(true)}>
@@ -256,10 +99,7 @@ export function ArmEditor(props: Props) {
         {!readOnly && pasteOpen && (
           <DhPastePanel
             onClose={() => setPasteOpen(false)}
-            onApply={(rows) => {
-              update({ joints: rows });
-              setErrors([]);
-            }}
+            onApply={(rows) => update({ joints: rows }, true)}
           />
         )}
       </fieldset>
@@ -271,8 +111,7 @@ export function ArmEditor(props: Props) {
           description={<>x y z in mm, then {RPY_CONVENTION}. Saved as a row-major 4×4 in metres.</>}
           value={form.base}
           onChange={(v) => update({ base: v })}
-          errors={poseErrors(errMap, "base")}
-          errorAll={wholeErrors(errMap, "base")}
+          errorMap={errMap}
           readOnly={readOnly}
         />
         <PoseFieldset
@@ -281,8 +120,7 @@ export function ArmEditor(props: Props) {
           description={<>x y z in mm, then {RPY_CONVENTION}. Saved as a row-major 4×4 in metres.</>}
           value={form.tool}
           onChange={(v) => update({ tool: v })}
-          errors={poseErrors(errMap, "tool")}
-          errorAll={wholeErrors(errMap, "tool")}
+          errorMap={errMap}
           readOnly={readOnly}
         />
       </div>
@@ -393,21 +231,6 @@ export function ArmEditor(props: Props) {
           </div>
         )}
       </fieldset>
-
-      <ErrorSummary messages={summary} />
-      {!readOnly ? (
-        <div className="save-bar">
-          <button type="submit" className="primary" disabled={busy}>
-            {busy ? "Saving…" : props.id ? "Save new revision" : "Create arm"}
-          </button>
-          <span aria-live="polite" role="status" className="ok" data-testid="save-status">
-            {saved}
-          </span>
-          <span className="err" aria-live="assertive">
-            {message}
-          </span>
-        </div>
-      ) : null}
-    </form>
+    </EditorFrame>
   );
 }
