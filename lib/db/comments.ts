@@ -13,7 +13,7 @@ import { cleanDisplayName, handleOf, MAX_COMMENT_LENGTH, mentionedHandles, rende
 import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { readStoredDocument } from "./documents";
-import { NotFoundError, ValidationError } from "./errors";
+import { ConflictError, NotFoundError, ValidationError } from "./errors";
 
 export const ANCHOR_TYPES = ["shortlist", "arm", "target", "path", "compliance"] as const;
 export type AnchorType = (typeof ANCHOR_TYPES)[number];
@@ -212,7 +212,12 @@ export async function editComment(actorId: string, commentId: string, input: unk
     const c = await tx.comment.findUnique({ where: { id: commentId } });
     if (!c || c.deletedAt) throw new NotFoundError(`comment ${commentId} does not exist`);
     if (body.baseRevision !== undefined && body.baseRevision !== c.revision) {
-      throw new ValidationError([{ path: "baseRevision", message: `the comment was edited meanwhile (revision ${c.revision}); reload and edit again` }]);
+      const base = await tx.commentRevision.findUnique({ where: { commentId_revision: { commentId: c.id, revision: body.baseRevision } }, select: { body: true } });
+      throw new ConflictError({
+        message: `the comment was edited meanwhile (revision ${c.revision}); reload and edit again`,
+        baseRevision: body.baseRevision, currentRevision: c.revision, current: { body: c.body },
+        changes: [{ path: "body", base: base?.body ?? null, current: c.body }],
+      });
     }
     if (c.body === body.body) return { id: c.id, revision: c.revision };
     const revision = c.revision + 1;
@@ -248,6 +253,18 @@ export async function setCommentResolved(actorId: string, commentId: string, res
     await recordAudit(tx, { actorId, action: resolved ? "comment.resolve" : "comment.reopen", entityType: "comment", entityId: c.id, detail: { shortlistId: c.shortlistId } });
     return { id: c.id, resolvedAt };
   });
+}
+
+/** A thread as a link guest sees it: names only, no account ids. */
+export function threadForGuest(t: CommentThread): unknown {
+  const strip = (c: CommentView) => ({
+    id: c.id, parentId: c.parentId, anchor: c.anchor, body: c.body, html: c.html, revision: c.revision, createdAt: c.createdAt, editedAt: c.editedAt,
+    deletedAt: c.deletedAt, resolvedAt: c.resolvedAt,
+    author: c.author.kind === "member" ? { kind: "member", name: c.author.name } : c.author,
+    resolvedBy: c.resolvedBy ? { name: c.resolvedBy.name } : null,
+    mentions: c.mentions.map((m) => ({ name: m.name })),
+  });
+  return { ...strip(t), replies: t.replies.map(strip) };
 }
 
 /** The discussion of a shortlist as threads, oldest first, bodies rendered to safe HTML. */

@@ -9,7 +9,7 @@ import { createRequirementSet } from "@/lib/db/requirements";
 import { createShortlist } from "@/lib/db/shortlists";
 import { createUser } from "@/lib/db/users";
 import { listAuditEvents } from "@/lib/db/audit-read";
-import { ValidationError } from "@/lib/db/errors";
+import { ConflictError, ValidationError } from "@/lib/db/errors";
 import { createShareLink } from "@/lib/db/shares";
 import {
   createComment, deleteComment, editComment, listCommentRevisions, listCommentThreads, markDiscussionRead, setCommentResolved, unreadCounts,
@@ -58,7 +58,8 @@ describe("discussion", () => {
     const c = await createComment(member(bob), shortlistId, { body: "first" });
     expect(await editComment(bob, c.id, { body: "second", baseRevision: 1 })).toEqual({ id: c.id, revision: 2 });
     const stale = await editComment(bob, c.id, { body: "third", baseRevision: 1 }).catch((x) => x);
-    expect(stale).toBeInstanceOf(ValidationError);
+    expect(stale).toBeInstanceOf(ConflictError);
+    expect(stale).toMatchObject({ baseRevision: 1, currentRevision: 2, changes: [{ path: "body", base: "first", current: "second" }] });
     await editComment(bob, c.id, { body: "third" });
     expect((await listCommentRevisions(c.id))!.map((r) => [r.revision, r.body])).toEqual([[1, "first"], [2, "second"], [3, "third"]]);
     await expect(t.client.$executeRawUnsafe(`UPDATE CommentRevision SET body = 'x' WHERE commentId = '${c.id}'`)).rejects.toThrow(/immutable/);

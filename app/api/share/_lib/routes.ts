@@ -6,7 +6,7 @@ import { can, type LinkGuest, type SessionUser } from "@/lib/auth/permissions";
 import { clientAddress, commentPosts, shareTokenFailures, shareTokenRequests } from "@/lib/auth/rate-limit";
 import {
   createComment, deleteComment, editComment, getCommentOwner, listCommentRevisions, listCommentThreads, markDiscussionRead,
-  mentionableMembers, setCommentResolved, unreadCounts, type CommentOwner,
+  mentionableMembers, setCommentResolved, threadForGuest, unreadCounts, type CommentOwner,
 } from "@/lib/db/comments";
 import { createShareLink, getShareLink, listShareLinks, resolveShareToken, revokeShareLink } from "@/lib/db/shares";
 import { shortlistForGuest } from "@/lib/db/share-view";
@@ -172,7 +172,7 @@ export const shareComments = route<TokenParams>(async (req, ctx) => {
   const { token } = await ctx.params;
   const guest = await guestOf(req, token);
   if (!can(guest, "comment:read", { shortlistId: guest.shortlistId })) throw notFound(GONE);
-  return json({ threads: await listCommentThreads(guest.shortlistId) });
+  return json({ threads: (await listCommentThreads(guest.shortlistId)).map(threadForGuest) });
 });
 
 const guestPostBody = z.object({ name: z.string({ error: "give a display name" }) }).passthrough();
