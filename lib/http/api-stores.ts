@@ -1,62 +1,86 @@
 import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
 import * as arms from "@/lib/db/arms";
 import * as reqs from "@/lib/db/requirements";
-import { documentRoutes } from "./document-routes";
+import { documentRoutes, type DocumentStore } from "./document-routes";
+
+type StoreRecord<D> = NonNullable<Awaited<ReturnType<DocumentStore<D>["get"]>>>;
+type StoreRevision<D> = NonNullable<Awaited<ReturnType<DocumentStore<D>["revision"]>>>;
+/** A record of the database layer: the document under its own key instead of `doc`. */
+type Keyed<K extends string, D, T = unknown> = Omit<T, "doc"> & { [P in K]: D };
+
+/**
+ * A DocumentStore from the database functions of one kind, whose records carry the document
+ * under `key` ("arm", "requirementSet").
+ */
+function keyedStore<D, K extends string>(
+  meta: Pick<DocumentStore<D>, "noun" | "read" | "write" | "schema"> & { key: K },
+  db: {
+    list: DocumentStore<D>["list"];
+    get(id: string): Promise<Keyed<K, D, StoreRecord<D>> | null>;
+    create(userId: string, doc: D, opts: { action: "create" | "import" }): Promise<Keyed<K, D, { id: string; revision: number }>>;
+    update(userId: string, id: string, baseRevision: number, doc: D): Promise<Keyed<K, D, { id: string; revision: number }>>;
+    softDelete: DocumentStore<D>["softDelete"];
+    restore: DocumentStore<D>["restore"];
+    revisions: DocumentStore<D>["revisions"];
+    revision(id: string, rev: number): Promise<Keyed<K, D, StoreRevision<D>> | null>;
+  },
+): DocumentStore<D> {
+  const { key } = meta;
+  return {
+    ...meta,
+    list: (opts) => db.list(opts),
+    async get(id) {
+      const r = await db.get(id);
+      return r && { ...r, doc: r[key] };
+    },
+    async create(userId, doc, action) {
+      const r = await db.create(userId, doc, { action });
+      return { id: r.id, revision: r.revision, doc: r[key] };
+    },
+    async update(userId, id, baseRevision, doc) {
+      const r = await db.update(userId, id, baseRevision, doc);
+      return { id: r.id, revision: r.revision, doc: r[key] };
+    },
+    softDelete: db.softDelete,
+    restore: db.restore,
+    revisions: db.revisions,
+    async revision(id, rev) {
+      const r = await db.revision(id, rev);
+      return r && { ...r, doc: r[key] };
+    },
+  };
+}
 
 /** Route handlers for /api/arms. */
-export const armRoutes = documentRoutes<ArmDocument>({
-  key: "arm",
-  noun: "arm",
-  read: "arm:read",
-  write: "arm:write",
-  schema: armSchema,
-  list: (opts) => arms.listArms(opts),
-  async get(id) {
-    const r = await arms.getArm(id);
-    return r && { ...r, doc: r.arm };
-  },
-  async create(userId, doc, action) {
-    const r = await arms.createArm(userId, doc, { action });
-    return { id: r.id, revision: r.revision, doc: r.arm };
-  },
-  async update(userId, id, baseRevision, doc) {
-    const r = await arms.updateArm(userId, id, baseRevision, doc);
-    return { id: r.id, revision: r.revision, doc: r.arm };
-  },
-  softDelete: arms.softDeleteArm,
-  restore: arms.restoreArm,
-  revisions: arms.listArmRevisions,
-  async revision(id, rev) {
-    const r = await arms.getArmRevision(id, rev);
-    return r && { ...r, doc: r.arm };
-  },
-});
+export const armRoutes = documentRoutes<ArmDocument>(
+  keyedStore<ArmDocument, "arm">(
+    { key: "arm", noun: "arm", read: "arm:read", write: "arm:write", schema: armSchema },
+    {
+      list: (opts) => arms.listArms(opts),
+      get: arms.getArm,
+      create: arms.createArm,
+      update: arms.updateArm,
+      softDelete: arms.softDeleteArm,
+      restore: arms.restoreArm,
+      revisions: arms.listArmRevisions,
+      revision: arms.getArmRevision,
+    },
+  ),
+);
 
 /** Route handlers for /api/requirements. */
-export const requirementRoutes = documentRoutes<RequirementSet>({
-  key: "requirementSet",
-  noun: "requirement set",
-  read: "req:read",
-  write: "req:write",
-  schema: requirementSetSchema,
-  list: (opts) => reqs.listRequirementSets(opts),
-  async get(id) {
-    const r = await reqs.getRequirementSet(id);
-    return r && { ...r, doc: r.requirementSet };
-  },
-  async create(userId, doc, action) {
-    const r = await reqs.createRequirementSet(userId, doc, { action });
-    return { id: r.id, revision: r.revision, doc: r.requirementSet };
-  },
-  async update(userId, id, baseRevision, doc) {
-    const r = await reqs.updateRequirementSet(userId, id, baseRevision, doc);
-    return { id: r.id, revision: r.revision, doc: r.requirementSet };
-  },
-  softDelete: reqs.softDeleteRequirementSet,
-  restore: reqs.restoreRequirementSet,
-  revisions: reqs.listRequirementRevisions,
-  async revision(id, rev) {
-    const r = await reqs.getRequirementRevision(id, rev);
-    return r && { ...r, doc: r.requirementSet };
-  },
-});
+export const requirementRoutes = documentRoutes<RequirementSet>(
+  keyedStore<RequirementSet, "requirementSet">(
+    { key: "requirementSet", noun: "requirement set", read: "req:read", write: "req:write", schema: requirementSetSchema },
+    {
+      list: (opts) => reqs.listRequirementSets(opts),
+      get: reqs.getRequirementSet,
+      create: reqs.createRequirementSet,
+      update: reqs.updateRequirementSet,
+      softDelete: reqs.softDeleteRequirementSet,
+      restore: reqs.restoreRequirementSet,
+      revisions: reqs.listRequirementRevisions,
+      revision: reqs.getRequirementRevision,
+    },
+  ),
+);
