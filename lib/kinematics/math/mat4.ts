@@ -120,21 +120,11 @@ export function rotationErrorVector(out: Float64Array, a: ArrayLike<number>, b: 
   return angle;
 }
 
+const angleScratch = new Float64Array(3);
+
 /** Rotation angle (rad, [0, π]) between the rotation blocks of two row-major transforms. */
 export function rotationAngleBetween(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  const r00 = a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-  const r01 = a[0] * b[4] + a[1] * b[5] + a[2] * b[6];
-  const r02 = a[0] * b[8] + a[1] * b[9] + a[2] * b[10];
-  const r10 = a[4] * b[0] + a[5] * b[1] + a[6] * b[2];
-  const r11 = a[4] * b[4] + a[5] * b[5] + a[6] * b[6];
-  const r12 = a[4] * b[8] + a[5] * b[9] + a[6] * b[10];
-  const r20 = a[8] * b[0] + a[9] * b[1] + a[10] * b[2];
-  const r21 = a[8] * b[4] + a[9] * b[5] + a[10] * b[6];
-  const r22 = a[8] * b[8] + a[9] * b[9] + a[10] * b[10];
-  const wx = 0.5 * (r21 - r12);
-  const wy = 0.5 * (r02 - r20);
-  const wz = 0.5 * (r10 - r01);
-  return Math.atan2(Math.sqrt(wx * wx + wy * wy + wz * wz), 0.5 * (r00 + r11 + r22 - 1));
+  return rotationErrorVector(angleScratch, a, b);
 }
 
 /** Angle (rad, [0, π]) between the z-axes (third columns) of two row-major transforms. */
