@@ -63,7 +63,7 @@ describe("100 concurrent commenters", () => {
     console.log(
       `[load] ${COMMENTERS} commenters, ${result.requests.total} requests in ${result.duration.toFixed(1)} s: ` +
         `statuses ${JSON.stringify(Object.fromEntries(statuses))}, errors ${result.errors}, timeouts ${result.timeouts}; ` +
-        `latency p50 ${result.latency.p50} ms, p99 ${p99} ms, max ${result.latency.max} ms`,
+        `latency p50 ${result.latency.p50} ms, p90 ${result.latency.p90} ms, p97.5 ${result.latency.p97_5} ms, p99 ${p99} ms, max ${result.latency.max} ms`,
     );
 
     expect(result.errors).toBe(0);
