@@ -28,6 +28,24 @@ export interface RequirementChoice {
   paths: number;
 }
 
+/** A number filter typed as text; with a unit shown beside it when given. */
+function FilterNumber(props: { id: string; label: string; unit?: string; value: string; onChange: (v: string) => void }) {
+  const input = <input id={props.id} type="text" inputMode="decimal" value={props.value} onChange={(e) => props.onChange(e.target.value)} />;
+  return (
+    <div className="field">
+      <label htmlFor={props.id}>{props.label}</label>
+      {props.unit ? (
+        <div className="unit-input">
+          {input}
+          <span className="unit">{props.unit}</span>
+        </div>
+      ) : (
+        input
+      )}
+    </div>
+  );
+}
+
 /** Shortlist creation: a requirement set and arms from the catalog, filtered by datasheet values. */
 export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: RequirementChoice[] }) {
   const router = useRouter();
@@ -126,20 +144,8 @@ export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: Requ
       <fieldset className="panel">
         <legend>Arms</legend>
         <div className="grid filters">
-          <div className="field">
-            <label htmlFor={uid + "-reach"}>Reach at least</label>
-            <div className="unit-input">
-              <input id={uid + "-reach"} type="text" inputMode="decimal" value={minReach} onChange={(e) => setMinReach(e.target.value)} />
-              <span className="unit">mm</span>
-            </div>
-          </div>
-          <div className="field">
-            <label htmlFor={uid + "-payload"}>Rated payload at least</label>
-            <div className="unit-input">
-              <input id={uid + "-payload"} type="text" inputMode="decimal" value={minPayload} onChange={(e) => setMinPayload(e.target.value)} />
-              <span className="unit">kg</span>
-            </div>
-          </div>
+          <FilterNumber id={uid + "-reach"} label="Reach at least" unit="mm" value={minReach} onChange={setMinReach} />
+          <FilterNumber id={uid + "-payload"} label="Rated payload at least" unit="kg" value={minPayload} onChange={setMinPayload} />
           <div className="field">
             <label htmlFor={uid + "-axes"}>Axis count</label>
             <select id={uid + "-axes"} value={axes} onChange={(e) => setAxes(e.target.value)}>
@@ -155,10 +161,7 @@ export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: Requ
             <label htmlFor={uid + "-ip"}>IP code at least</label>
             <input id={uid + "-ip"} type="text" placeholder="e.g. IP54" value={minIp} onChange={(e) => setMinIp(e.target.value)} />
           </div>
-          <div className="field">
-            <label htmlFor={uid + "-price"}>Price at most</label>
-            <input id={uid + "-price"} type="text" inputMode="decimal" value={maxPrice} onChange={(e) => setMaxPrice(e.target.value)} />
-          </div>
+          <FilterNumber id={uid + "-price"} label="Price at most" value={maxPrice} onChange={setMaxPrice} />
         </div>
         {filterErrors.length > 0 && <p className="err">{filterErrors.join("; ")}</p>}
         <div className="toolbar">
