@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { listArms } from "@/lib/db";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { ArmCatalog, type ArmRow } from "@/components/arm/ArmCatalog";
+import { listedFields } from "@/components/PageHead";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Arms" };
@@ -10,15 +11,10 @@ export default async function ArmsPage() {
   const user = await requireUser("/arms");
   const arms = await listArms({ deleted: "include" });
   const rows: ArmRow[] = arms.map((a) => ({
-    id: a.id,
-    name: a.name,
+    ...listedFields(a),
     maker: a.maker,
     modelCode: a.modelCode,
     axes: a.axes,
-    revision: a.revision,
-    updatedAt: a.updatedAt.toISOString(),
-    updatedBy: a.updatedBy?.name ?? null,
-    deletedAt: a.deletedAt ? a.deletedAt.toISOString() : null,
     specs: {
       reach: a.specs.reach,
       ratedPayload: a.specs.ratedPayload,

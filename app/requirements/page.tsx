@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { listRequirementSets } from "@/lib/db";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { RequirementList } from "@/components/requirements/RequirementList";
+import { listedFields } from "@/components/PageHead";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Requirement sets" };
@@ -12,16 +13,7 @@ export default async function RequirementsPage() {
   return (
     <RequirementList
       canWrite={allowed(user, "req:write")}
-      sets={sets.map((s) => ({
-        id: s.id,
-        name: s.name,
-        targets: s.targets,
-        paths: s.paths,
-        revision: s.revision,
-        updatedAt: s.updatedAt.toISOString(),
-        updatedBy: s.updatedBy?.name ?? null,
-        deletedAt: s.deletedAt ? s.deletedAt.toISOString() : null,
-      }))}
+      sets={sets.map((s) => ({ ...listedFields(s), targets: s.targets, paths: s.paths }))}
     />
   );
 }
