@@ -4,7 +4,7 @@ import { useMemo, useState } from "react";
 import type { FieldError } from "@/shared/schemas";
 import { api, byPath } from "./api";
 import { diffPaths, valueAt, type ConflictRow } from "./ConflictPanel";
-import { describeError } from "./arm/armForm";
+import { describeError } from "./formDoc";
 
 /** How one kind of versioned document (arm, requirement set) is edited and saved. */
 export interface DocumentKind<Doc, Form> {

@@ -3,8 +3,9 @@
  * The form shows mm, degrees, kg, N·m (N for prismatic), and keeps every value as typed text;
  * values that were loaded and not edited are sent back exactly as loaded (no rounding drift).
  */
-import { armSchema, toFieldErrors, type ArmDocument, type FieldError, type Mounting } from "@/shared/schemas";
+import { armSchema, type ArmDocument, type FieldError, type Mounting } from "@/shared/schemas";
 import { degToRad, jointFromDisplay, jointToDisplay, jointUnit, mmToM, mToMm, radToDeg } from "@/shared/units";
+import { checkFormDoc } from "../formDoc";
 import { parseNum, parsePose, poseMatrix, poseTextFromMatrix, rowKey, samePose, show, isZeroPose, type PoseText } from "../pose";
 
 export type JointType = "revolute" | "prismatic";
@@ -389,10 +390,7 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
 
 /** Client-side check with the shared schema, plus the not-a-number errors of the form. */
 export function validateArmForm(form: ArmForm): { doc: ArmDocument; errors: FieldError[] } {
-  const { doc, errors } = armFormToDoc(form);
-  if (errors.length) return { doc, errors };
-  const r = armSchema.safeParse(doc);
-  return { doc, errors: r.success ? [] : toFieldErrors(r.error) };
+  return checkFormDoc(armSchema, armFormToDoc(form));
 }
 
 /** A readable name for an error path, e.g. "joints.2.max" → "joint 3 max". */
@@ -413,8 +411,4 @@ export function armPathLabel(path: string): string {
   return p[0] === "modelCode" ? "model code" : p[0] || "arm";
 }
 
-/** "label: message" unless the message already names the field. */
-export function describeError(e: FieldError, label: (path: string) => string): string {
-  const l = label(e.path);
-  return e.message.toLowerCase().startsWith(l.toLowerCase()) || /^(joint|row|wrist|target|path|spec|base|tool) /i.test(e.message) ? e.message : `${l}: ${e.message}`;
-}
+export { describeError } from "../formDoc";

@@ -8,7 +8,6 @@ import {
   DEFAULT_WEIGHTS,
   SPEC_FIELDS,
   requirementSetSchema,
-  toFieldErrors,
   type Comparator,
   type ConstraintMode,
   type FieldError,
@@ -17,6 +16,7 @@ import {
   type Weights,
 } from "@/shared/schemas";
 import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
+import { checkFormDoc } from "../formDoc";
 import { matrixPose, parseNum, poseMatrix, rowKey, show, type PoseText } from "../pose";
 
 type Conv = "mm" | "deg" | "same";
@@ -329,10 +329,7 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
 }
 
 export function validateReqForm(form: ReqForm): { doc: RequirementSet; errors: FieldError[] } {
-  const { doc, errors } = reqFormToDoc(form);
-  if (errors.length) return { doc, errors };
-  const r = requirementSetSchema.safeParse(doc);
-  return { doc, errors: r.success ? [] : toFieldErrors(r.error) };
+  return checkFormDoc(requirementSetSchema, reqFormToDoc(form));
 }
 
 /** A readable name for an error path, e.g. "targets.2.rpy.0" → "target 3 roll". */
