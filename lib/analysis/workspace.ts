@@ -17,7 +17,7 @@ export interface WorkspaceBudget {
   sideBins: number;
   topBins: number;
 }
-export const DEFAULT_WORKSPACE_BUDGET: WorkspaceBudget = { samples: 2500, sideBins: 72, topBins: 96 };
+export const DEFAULT_WORKSPACE_BUDGET: WorkspaceBudget = { samples: 8000, sideBins: 72, topBins: 96 };
 
 export interface WorkspaceAnalysis {
   samples: number;
