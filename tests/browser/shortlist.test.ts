@@ -79,7 +79,7 @@ describe("shortlist page", () => {
     const exported = (await p.evaluate(async (sid) => (await fetch(`/api/shortlists/${sid}/export?format=json`)).json(), id)) as ExportJson;
     firstRunId = exported.meta.run.id;
 
-    // Independent recomputation: the seed documents, in the pinned order, through the library.
+    // Independent recomputation: the demo arms and requirement set, in the pinned order, through the library.
     const seeds = new Map(loadSeedArms().map((a) => [a.name, a]));
     const req = loadSeedRequirementSets().find((r) => r.name === SCENARIO)!;
     const own = analyzeShortlist(exported.meta.arms.map((a) => ({ id: a.id, revision: a.revision, arm: seeds.get(a.name)! })), req);
