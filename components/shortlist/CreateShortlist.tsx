@@ -90,6 +90,9 @@ export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: Requ
     [arms, reachMm, payloadKg, axes, ip, priceMax],
   );
   const axisCounts = [...new Set(arms.map((a) => a.axes))].sort((x, y) => x - y);
+  // Prices are compared as stated; with more than one currency in the catalog, the unit says so.
+  const currencies = [...new Set(arms.map((a) => a.currency).filter((c): c is string => !!c))];
+  const priceUnit = currencies.length === 1 ? currencies[0] : "as stated per arm";
 
   function toggle(id: string, on: boolean) {
     const next = new Set(chosen);
@@ -161,7 +164,7 @@ export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: Requ
             <label htmlFor={uid + "-ip"}>IP code at least</label>
             <input id={uid + "-ip"} type="text" placeholder="e.g. IP54" value={minIp} onChange={(e) => setMinIp(e.target.value)} />
           </div>
-          <FilterNumber id={uid + "-price"} label="Price at most" value={maxPrice} onChange={setMaxPrice} />
+          <FilterNumber id={uid + "-price"} label="Price at most" unit={priceUnit} value={maxPrice} onChange={setMaxPrice} />
         </div>
         {filterErrors.length > 0 && <p className="err">{filterErrors.join("; ")}</p>}
         <div className="toolbar">
