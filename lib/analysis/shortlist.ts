@@ -38,7 +38,12 @@ export interface AnalysisBudget {
 export const DEFAULT_BUDGET: AnalysisBudget = { target: DEFAULT_TARGET_BUDGET, path: DEFAULT_PATH_BUDGET, workspace: DEFAULT_WORKSPACE_BUDGET };
 
 export interface AnalyzeOptions {
-  /** Called after each stage of each arm with the overall fraction done (0…1). */
+  /**
+   * Called after each target, each path and the workspace of each arm with the overall fraction
+   * done (0…1) and a description of the step just finished, e.g.
+   * "arm 3/7 Helper Seven 7: target press-fit (4/9)". The fraction advances by one step of
+   * arms × (targets + paths + 1) and ends at exactly 1.
+   */
   onProgress?(fraction: number, stage: string): void;
   /** Budgets; the defaults are used for cached results (changing them changes the key). */
   budget?: AnalysisBudget;
@@ -129,12 +134,18 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     timer(stage, now() - t0);
     return r;
   };
-  const stages = 4, total = Math.max(1, arms.length * stages);
+  // Progress steps per arm: each target, each path, then the workspace (specs are table look-ups).
+  const nT = req.targets.length, nP = req.paths.length;
+  const stepsPerArm = nT + nP + 1, total = Math.max(1, arms.length * stepsPerArm);
   let done = 0;
-  const progress = (stage: string) => { done++; opts.onProgress?.(done / total, stage); };
+  const progress = (stage: string, steps = 1) => {
+    done += steps;
+    opts.onProgress?.(done === total ? 1 : done / total, stage);
+  };
 
   const results: ArmAnalysis[] = arms.map((entry, ai) => {
     const arm = entry.arm;
+    const label = `arm ${ai + 1}/${arms.length} ${arm.name}`;
     const specs = time("spec", () => req.specs.map((s, i) => checkSpec(arm, s, i)));
     const ident = { id: entry.id, revision: entry.revision, name: arm.name, maker: arm.maker ?? null, modelCode: arm.modelCode ?? null, axes: arm.joints.length };
     let ctx: ArmContext;
@@ -142,16 +153,21 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
       ctx = createArmContext(arm, req, seedOf(ai, 0, 0));
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
-      for (let k = 0; k < stages; k++) progress(`${arm.name}: not analysed`);
+      progress(`${label}: not analysed (invalid model)`, stepsPerArm);
       return finishArm(ident, null, [], [], specs, null, req, `the arm model is invalid: ${message}`);
     }
-    const targets = time("targets", () => req.targets.map((t, i) => analyzeTarget(ctx, arm, req, t, budget.target, seedOf(ai, 1, i), clock)));
-    progress(`${arm.name}: targets`);
-    const paths = time("paths", () => req.paths.map((p, i) => analyzePath(ctx, p, budget.path, seedOf(ai, 2, i))));
-    progress(`${arm.name}: paths`);
+    const targets = time("targets", () => req.targets.map((t, i) => {
+      const r = analyzeTarget(ctx, arm, req, t, budget.target, seedOf(ai, 1, i), clock);
+      progress(`${label}: target ${t.name} (${i + 1}/${nT})`);
+      return r;
+    }));
+    const paths = time("paths", () => req.paths.map((p, i) => {
+      const r = analyzePath(ctx, p, budget.path, seedOf(ai, 2, i));
+      progress(`${label}: path ${p.name} (${i + 1}/${nP})`);
+      return r;
+    }));
     const workspace = time("workspace", () => analyzeWorkspace(ctx, arm.specs?.reach, req.targets.map((t, i) => ({ name: t.name, position: t.position, reached: targets[i].reached })), budget.workspace, seedOf(ai, 3, 0)));
-    progress(`${arm.name}: workspace`);
-    progress(`${arm.name}: specs`);
+    progress(`${label}: workspace and specs`);
     return finishArm(ident, ctx, targets, paths, specs, workspace, req, null);
   });
 

@@ -14,14 +14,12 @@ import { claimRun, failRun, finishRun, getRun, loadPinnedInputs } from "@/lib/db
 
 /** Least time between two progress writes (ms). */
 export const PROGRESS_INTERVAL_MS = 200;
-/** Stages analyzeShortlist reports per arm (targets, paths, workspace, specs). */
-const STAGES_PER_ARM = 4;
-
-/** "arm 3/7 Helper Seven 7: targets done" from the analysis's fraction and stage text. */
-export function describeProgress(fraction: number, stage: string, armCount: number): string {
-  const done = Math.round(fraction * armCount * STAGES_PER_ARM);
-  const arm = Math.min(armCount, Math.max(1, Math.ceil(done / STAGES_PER_ARM)));
-  return `arm ${arm}/${armCount} ${stage} done`;
+/**
+ * The stage text stored for the run: analyzeShortlist already names the arm and the step just
+ * finished ("arm 3/7 Helper Seven 7: target press-fit (4/9)"), so only " done" is added.
+ */
+export function describeProgress(stage: string): string {
+  return `${stage} done`;
 }
 
 /** Analyses one queued run to the end (done or failed). Returns the final status. */
@@ -40,7 +38,7 @@ export async function executeRun(runId: string, opts: { now?: () => number } = {
         const t = now();
         if (t - last < PROGRESS_INTERVAL_MS && fraction < 1) return;
         last = t;
-        writer.write(fraction * 0.99, describeProgress(fraction, stage, arms.length));
+        writer.write(fraction * 0.99, describeProgress(stage));
       },
     });
     writer.write(0.995, "storing the result");

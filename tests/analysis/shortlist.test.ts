@@ -45,7 +45,8 @@ const small = { ...DEFAULT_BUDGET, workspace: { ...DEFAULT_BUDGET.workspace, sam
 
 describe("analyzeShortlist", () => {
   const progress: number[] = [];
-  const result = analyzeShortlist(arms, req, { budget: small, onProgress: (f) => progress.push(f) });
+  const stages: string[] = [];
+  const result = analyzeShortlist(arms, req, { budget: small, onProgress: (f, s) => { progress.push(f); stages.push(s); } });
 
   it("is deterministic: the same inputs give byte-identical JSON", () => {
     const again = analyzeShortlist(arms, req, { budget: small });
@@ -60,6 +61,28 @@ describe("analyzeShortlist", () => {
     expect(result.caution).toMatch(/ISO 12100/);
     expect(result.caution).toMatch(/ISO\/TS 15066/);
     expect(result.version).toBe(ANALYSIS_VERSION);
+  });
+
+  it("reports each target, each path and the workspace of each arm in equal steps", () => {
+    // 2 arms × (4 targets + 1 path + workspace) = 12 steps of 1/12.
+    expect(progress).toHaveLength(12);
+    progress.forEach((f, i) => expect(f).toBeCloseTo((i + 1) / 12, 12));
+    expect(stages.slice(0, 6)).toEqual([
+      "arm 1/2 Reference six-axis arm: target reachable (1/4)",
+      "arm 1/2 Reference six-axis arm: target far away (2/4)",
+      "arm 1/2 Reference six-axis arm: target light push (3/4)",
+      "arm 1/2 Reference six-axis arm: target heavy push (4/4)",
+      "arm 1/2 Reference six-axis arm: path short line (1/1)",
+      "arm 1/2 Reference six-axis arm: workspace and specs",
+    ]);
+    expect(stages[6]).toBe("arm 2/2 Cheaper variant: target reachable (1/4)");
+  });
+
+  it("an arm whose model is invalid still advances the progress by its share", () => {
+    const broken: ArmDocument = { ...base, name: "Broken", joints: base.joints.map((j, i) => (i === 1 ? { ...j, type: "bogus" as never } : j)) };
+    const seen: [number, string][] = [];
+    analyzeShortlist([{ id: "x", revision: 1, arm: broken }], { ...req, targets: [req.targets[0]], paths: [] }, { budget: small, onProgress: (f, s) => seen.push([f, s]) });
+    expect(seen).toEqual([[1, "arm 1/1 Broken: not analysed (invalid model)"]]);
   });
 
   it("target verdicts carry readable reasons", () => {
