@@ -1,5 +1,5 @@
 /**
- * The ranking and the compliance table as plain rows (pure): the one source for the CSV, XLSX
+ * The ranking, the task matrix and the compliance table as plain rows (pure): the one source for the CSV, XLSX
  * and JSON exports, so every format carries the same values, units and verdict words.
  */
 import type { Weights } from "@/shared/schemas/requirements";
@@ -87,6 +87,37 @@ export function complianceTable(analysis: ShortlistAnalysis): Table {
     }
   }
   return { title: "Compliance", columns, rows };
+}
+
+/**
+ * Arms × targets and paths (the page's task matrix): one row per arm and, per target then per
+ * path, three columns: the verdict word, the dexterity margin D (0–1, dimensionless; the chosen
+ * branch at a target, the smallest over the reached samples of a path; empty when not reached)
+ * and the reason in words. An arm that could not be analysed reads "not analysed".
+ */
+export function taskMatrixTable(analysis: ShortlistAnalysis): Table {
+  const tasks = [
+    ...analysis.requirementSet.targets.map((name, i) => ({ kind: "Target", name, i })),
+    ...analysis.requirementSet.paths.map((name, i) => ({ kind: "Path", name, i })),
+  ];
+  const columns = [
+    "Arm", "Arm revision",
+    ...tasks.flatMap((t) => [
+      `${t.kind} ${t.name}: verdict`,
+      `${t.kind} ${t.name}: ${t.kind === "Path" ? "smallest " : ""}dexterity margin D (0–1)`,
+      `${t.kind} ${t.name}: reason`,
+    ]),
+  ];
+  const rows = analysis.arms.map((a): Cell[] => [
+    a.name, a.revision,
+    ...tasks.flatMap((t): Cell[] => {
+      const r = t.kind === "Target" ? a.targets[t.i] : a.paths[t.i];
+      if (!r) return ["not analysed", null, a.error ?? "not analysed"];
+      const margin = t.kind === "Target" ? a.targets[t.i].dexterity?.margin ?? null : a.paths[t.i].minDexterityMargin;
+      return [r.verdict, margin === null ? null : round(margin), r.reason];
+    }),
+  ]);
+  return { title: "Task matrix", columns, rows };
 }
 
 /** The metadata block as (key, value) pairs. */

@@ -1,4 +1,4 @@
-/** XLSX workbook (exceljs): Ranking, Compliance and Metadata sheets. */
+/** XLSX workbook (exceljs): one sheet per table (Ranking, Task matrix, Compliance), then Metadata. */
 import ExcelJS from "exceljs";
 import { metadataPairs, type ExportMeta, type Table } from "./tables";
 

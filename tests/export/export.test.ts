@@ -3,7 +3,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { analyzeShortlist, rankArms, type ShortlistAnalysis } from "@/lib/analysis";
-import { complianceTable, csvField, rankingTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
+import { complianceTable, csvField, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
 import { readCsvExport, readXlsx, sheetRecords } from "./parse";
 
 let analysis: ShortlistAnalysis;
@@ -97,6 +97,65 @@ describe("XLSX", () => {
     expect(md["Analysis version"]).toBe(analysis.version);
     expect(md["Requirement set"]).toContain("revision 3");
     expect(sheets.Metadata.filter((r) => r[0] === "Arm").map((r) => r[1])).toEqual(meta.arms.map((a) => `${a.name} (${a.id}) revision ${a.revision}`));
+  });
+});
+
+describe("XLSX task matrix", () => {
+  it("has one row per arm and, per target and path, the verdict word, the dexterity margin (0–1) and the reason", async () => {
+    const bytes = await toXlsx([rankingTable(analysis), taskMatrixTable(analysis), complianceTable(analysis)], meta);
+    const sheets = await readXlsx(bytes);
+    expect(Object.keys(sheets)).toEqual(["Ranking", "Task matrix", "Compliance", "Metadata"]);
+    const head = sheets["Task matrix"][0] as string[];
+    const { targets, paths } = analysis.requirementSet;
+    expect(head).toHaveLength(2 + 3 * (targets.length + paths.length));
+    expect(head.slice(0, 5)).toEqual(["Arm", "Arm revision", `Target ${targets[0]}: verdict`, `Target ${targets[0]}: dexterity margin D (0–1)`, `Target ${targets[0]}: reason`]);
+    const rows = sheetRecords(sheets["Task matrix"]);
+    expect(rows.map((r) => r.Arm)).toEqual(analysis.arms.map((a) => a.name));
+    let reached = 0, missed = 0;
+    for (const a of analysis.arms) {
+      const row = rows.find((r) => r.Arm === a.name)!;
+      expect(row["Arm revision"]).toBe(a.revision);
+      a.targets.forEach((t, i) => {
+        const name = targets[i];
+        expect(row[`Target ${name}: verdict`]).toBe(t.verdict);
+        expect(["meets", "marginal", "fails", "unknown"]).toContain(row[`Target ${name}: verdict`]);
+        expect(row[`Target ${name}: reason`]).toBe(t.reason);
+        const m = row[`Target ${name}: dexterity margin D (0–1)`];
+        if (t.dexterity) {
+          reached++;
+          expect(typeof m).toBe("number");
+          expect(Math.abs((m as number) - t.dexterity.margin)).toBeLessThanOrEqual(0.00005);
+        } else {
+          missed++;
+          expect(m).toBeNull();
+        }
+      });
+    }
+    // The demo bench-assembly scenario is built so that some arms miss some targets (seed README).
+    expect(reached).toBeGreaterThan(0);
+    expect(missed).toBeGreaterThan(0);
+  });
+
+  it("paths carry their smallest dexterity margin; an arm that was not analysed says so", async () => {
+    const req = loadSeedRequirementSets().find((r) => r.name.startsWith("Deburring"))!;
+    const arms = loadSeedArms();
+    const broken = { ...arms[0], name: "Broken model", joints: arms[0].joints.map((j, i) => (i === 0 ? { ...j, type: "bogus" as never } : j)) };
+    const small = { ...analysis.budget, workspace: { ...analysis.budget.workspace, samples: 300 } };
+    const deburr = analyzeShortlist([{ id: "a", revision: 1, arm: arms[1] }, { id: "b", revision: 2, arm: broken }], req, { budget: small });
+    const rows = sheetRecords((await readXlsx(await toXlsx([taskMatrixTable(deburr)], meta)))["Task matrix"]);
+    expect(req.paths.length).toBeGreaterThan(0);
+    expect(deburr.arms[0].paths.some((p) => p.minDexterityMargin !== null)).toBe(true);
+    for (const [i, p] of deburr.arms[0].paths.entries()) {
+      const name = req.paths[i].name;
+      expect(rows[0][`Path ${name}: verdict`]).toBe(p.verdict);
+      expect(rows[0][`Path ${name}: reason`]).toBe(p.reason);
+      const m = rows[0][`Path ${name}: smallest dexterity margin D (0–1)`];
+      if (p.minDexterityMargin === null) expect(m).toBeNull();
+      else expect(Math.abs((m as number) - p.minDexterityMargin)).toBeLessThanOrEqual(0.00005);
+    }
+    expect(rows[1].Arm).toBe("Broken model");
+    expect(rows[1][`Target ${req.targets[0].name}: verdict`]).toBe("not analysed");
+    expect(String(rows[1][`Path ${req.paths[0].name}: reason`])).toMatch(/^the arm model is invalid/);
   });
 });
 

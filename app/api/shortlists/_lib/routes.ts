@@ -6,7 +6,7 @@ import {
   createShortlist, getRun, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
 } from "@/lib/db/shortlists";
 import { startRunProcess } from "@/lib/jobs/analysis-runner";
-import { complianceTable, rankingTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
+import { complianceTable, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
 import { badRequest, notFound } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { json, parseWith, requireUser, route } from "@/lib/http/route";
@@ -119,7 +119,7 @@ export const exportResult = route<{ id: string }>(async (req, ctx) => {
     new Response(body, { status: 200, headers: { "content-type": type, "content-disposition": `attachment; filename="${file}"` } });
   if (q.format === "json") return attach(`${base}.json`, "application/json; charset=utf-8", toShortlistJson(meta, analysis, ranking));
   if (q.format === "xlsx") {
-    const bytes = await toXlsx([rankingTable(analysis, ranking), complianceTable(analysis)], meta);
+    const bytes = await toXlsx([rankingTable(analysis, ranking), taskMatrixTable(analysis), complianceTable(analysis)], meta);
     return attach(`${base}.xlsx`, "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", new Uint8Array(bytes));
   }
   const table = q.table === "compliance" ? complianceTable(analysis) : rankingTable(analysis, ranking);
