@@ -1,10 +1,8 @@
-import { randomUUID } from "node:crypto";
 import { armSchema, type ArmDocument, type ArmSpecs } from "@/shared/schemas";
-import { db, type Tx } from "./client";
-import { recordAudit } from "./audit";
-import { jsonDiff, summarizeChanges } from "./diff";
-import { ConflictError, NotFoundError, ValidationError } from "./errors";
-import { deletedWhere, isUniqueViolation, parseDocument, readStoredDocument, userRef, type DeletedFilter, type UserRef } from "./documents";
+import type { Arm } from "./generated/client";
+import type { DeletedFilter, UserRef } from "./documents";
+import * as revisioned from "./revisioned";
+import { byName, userColumns, type RevisionedKind, type RevisionInfo } from "./revisioned";
 
 /** One row of the arm catalog. */
 export interface ArmSummary {
@@ -30,12 +28,7 @@ export interface ArmRecord {
   deletedAt: Date | null;
 }
 
-export interface ArmRevisionInfo {
-  revision: number;
-  createdAt: Date;
-  author: UserRef | null;
-  summary: string;
-}
+export type ArmRevisionInfo = RevisionInfo;
 
 export interface ArmRevisionRecord {
   revision: number;
@@ -44,28 +37,43 @@ export interface ArmRevisionRecord {
   author: UserRef | null;
 }
 
-const readArm = (json: string, id: string, revision: number): ArmDocument =>
-  readStoredDocument(armSchema, json, `arm ${id} revision ${revision}`);
+const armRev = (armId: string, revision: number) => ({ armId_revision: { armId, revision } });
 
-const mirrored = (arm: ArmDocument) => ({
-  name: arm.name,
-  maker: arm.maker ?? null,
-  modelCode: arm.modelCode ?? null,
-  axes: arm.joints.length,
-});
+/** Arms: head table `arm`, revisions in `armRevision` keyed by (armId, revision). */
+const arms: RevisionedKind<typeof armSchema, "arm", { name: string; maker: string | null; modelCode: string | null; axes: number }, Arm> = {
+  key: "arm",
+  noun: "arm",
+  auditKind: "arm",
+  schema: armSchema,
+  mirrored: (arm) => ({ name: arm.name, maker: arm.maker ?? null, modelCode: arm.modelCode ?? null, axes: arm.joints.length }),
+  listHeads: (c, where) => c.arm.findMany({ where, orderBy: [...byName], include: { updatedBy: userColumns } }),
+  findHead: (c, id) => c.arm.findUnique({ where: { id } }),
+  createHead: (tx, data) => tx.arm.create({ data }),
+  claimHead: (tx, id, baseRevision, data) => tx.arm.updateMany({ where: { id, currentRevision: baseRevision, deletedAt: null }, data }),
+  setDeletedAt: (tx, id, deletedAt) => tx.arm.update({ where: { id }, data: { deletedAt } }),
+  countHeads: (c) => c.arm.count(),
+  findRevision: (c, id, revision) => c.armRevision.findUnique({ where: armRev(id, revision), include: { author: userColumns } }),
+  requireRevision: (c, id, revision) => c.armRevision.findUniqueOrThrow({ where: armRev(id, revision) }),
+  listRevisions: (c, id) =>
+    c.armRevision.findMany({
+      where: { armId: id },
+      orderBy: { revision: "desc" },
+      select: { revision: true, createdAt: true, summary: true, author: userColumns },
+    }),
+  findDocuments: async (c, pairs) =>
+    (
+      await c.armRevision.findMany({
+        where: { OR: pairs.map((p) => ({ armId: p.id, revision: p.revision })) },
+        select: { armId: true, revision: true, document: true },
+      })
+    ).map((r) => ({ ownerId: r.armId, revision: r.revision, document: r.document })),
+  createRevision: (tx, { ownerId, ...data }) => tx.armRevision.create({ data: { ...data, armId: ownerId } }),
+};
 
 export async function listArms(opts: { deleted?: DeletedFilter } = {}): Promise<ArmSummary[]> {
-  const rows = await db().arm.findMany({
-    where: deletedWhere(opts.deleted),
-    orderBy: [{ name: "asc" }, { id: "asc" }],
-    include: { updatedBy: { select: { id: true, name: true } } },
-  });
+  const rows = await revisioned.listHeads(arms, opts.deleted);
   if (rows.length === 0) return [];
-  const revisions = await db().armRevision.findMany({
-    where: { OR: rows.map((r) => ({ armId: r.id, revision: r.currentRevision })) },
-    select: { armId: true, revision: true, document: true },
-  });
-  const docs = new Map(revisions.map((r) => [r.armId, readArm(r.document, r.armId, r.revision)]));
+  const docs = await revisioned.currentDocuments(arms, rows);
   return rows.map((r) => ({
     id: r.id,
     name: r.name,
@@ -74,47 +82,23 @@ export async function listArms(opts: { deleted?: DeletedFilter } = {}): Promise<
     axes: r.axes,
     revision: r.currentRevision,
     updatedAt: r.updatedAt,
-    updatedBy: userRef(r.updatedBy),
+    updatedBy: r.updatedBy,
     deletedAt: r.deletedAt,
     specs: docs.get(r.id)?.specs ?? {},
   }));
 }
 
 export async function getArm(id: string): Promise<ArmRecord | null> {
-  const row = await db().arm.findUnique({ where: { id } });
-  if (!row) return null;
-  const rev = await db().armRevision.findUnique({ where: { armId_revision: { armId: id, revision: row.currentRevision } } });
-  if (!rev) throw new Error(`arm ${id} has no revision ${row.currentRevision}`);
-  return {
-    id,
-    revision: row.currentRevision,
-    arm: readArm(rev.document, id, rev.revision),
-    createdAt: row.createdAt,
-    updatedAt: row.updatedAt,
-    deletedAt: row.deletedAt,
-  };
+  return revisioned.getCurrent(arms, id);
 }
 
 /** Revision history, newest first; null when the arm does not exist. */
 export async function listArmRevisions(id: string): Promise<ArmRevisionInfo[] | null> {
-  const exists = await db().arm.findUnique({ where: { id }, select: { id: true } });
-  if (!exists) return null;
-  const revs = await db().armRevision.findMany({
-    where: { armId: id },
-    orderBy: { revision: "desc" },
-    select: { revision: true, createdAt: true, summary: true, author: { select: { id: true, name: true } } },
-  });
-  return revs.map((r) => ({ revision: r.revision, createdAt: r.createdAt, author: userRef(r.author), summary: r.summary }));
+  return revisioned.listRevisionInfo(arms, id);
 }
 
 export async function getArmRevision(id: string, revision: number): Promise<ArmRevisionRecord | null> {
-  if (!Number.isInteger(revision) || revision < 1) return null;
-  const r = await db().armRevision.findUnique({
-    where: { armId_revision: { armId: id, revision } },
-    include: { author: { select: { id: true, name: true } } },
-  });
-  if (!r) return null;
-  return { revision: r.revision, arm: readArm(r.document, id, r.revision), createdAt: r.createdAt, author: userRef(r.author) };
+  return revisioned.getRevision(arms, id, revision);
 }
 
 /** Stores a new arm as revision 1. `input` is validated with armSchema. */
@@ -123,49 +107,7 @@ export async function createArm(
   input: unknown,
   opts: { action?: "create" | "import" } = {},
 ): Promise<{ id: string; revision: 1; arm: ArmDocument }> {
-  const arm = parseDocument(armSchema, input);
-  const id = randomUUID();
-  const now = new Date();
-  await db().$transaction(async (tx) => {
-    await tx.arm.create({ data: { id, ...mirrored(arm), currentRevision: 1, createdAt: now, updatedAt: now, updatedById: userId } });
-    await tx.armRevision.create({
-      data: {
-        id: randomUUID(),
-        armId: id,
-        revision: 1,
-        document: JSON.stringify(arm),
-        summary: opts.action === "import" ? "imported" : "created",
-        authorId: userId,
-        createdAt: now,
-      },
-    });
-    await recordAudit(tx, { actorId: userId, action: `arm.${opts.action ?? "create"}`, entityType: "arm", entityId: id, detail: { revision: 1 } });
-  });
-  return { id, revision: 1, arm };
-}
-
-async function conflictFor(tx: Tx, id: string, baseRevision: number): Promise<Error> {
-  const row = await tx.arm.findUnique({ where: { id } });
-  if (!row) return new NotFoundError(`arm ${id} does not exist`);
-  if (row.deletedAt) return new NotFoundError(`arm ${id} is deleted; restore it before editing`);
-  if (baseRevision > row.currentRevision) {
-    return new ValidationError([
-      { path: "baseRevision", message: `revision ${baseRevision} does not exist; the current revision is ${row.currentRevision}` },
-    ]);
-  }
-  const [base, current] = await Promise.all([
-    tx.armRevision.findUniqueOrThrow({ where: { armId_revision: { armId: id, revision: baseRevision } } }),
-    tx.armRevision.findUniqueOrThrow({ where: { armId_revision: { armId: id, revision: row.currentRevision } } }),
-  ]);
-  const currentDoc = readArm(current.document, id, current.revision);
-  const changes = jsonDiff(readArm(base.document, id, base.revision), currentDoc);
-  return new ConflictError<ArmDocument>({
-    message: `arm ${id} was changed by someone else: your edit is based on revision ${baseRevision}, the current revision is ${row.currentRevision}`,
-    baseRevision,
-    currentRevision: row.currentRevision,
-    current: currentDoc,
-    changes,
-  });
+  return revisioned.createDocument(arms, userId, input, opts);
 }
 
 /**
@@ -180,50 +122,14 @@ export async function updateArm(
   baseRevision: number,
   input: unknown,
 ): Promise<{ id: string; revision: number; arm: ArmDocument }> {
-  if (!Number.isInteger(baseRevision) || baseRevision < 1) {
-    throw new ValidationError([{ path: "baseRevision", message: "must be a revision number (integer ≥ 1)" }]);
-  }
-  const arm = parseDocument(armSchema, input);
-  const revision = baseRevision + 1;
-  try {
-    return await db().$transaction(async (tx) => {
-      const now = new Date();
-      const claimed = await tx.arm.updateMany({
-        where: { id, currentRevision: baseRevision, deletedAt: null },
-        data: { ...mirrored(arm), currentRevision: revision, updatedAt: now, updatedById: userId },
-      });
-      if (claimed.count !== 1) throw await conflictFor(tx, id, baseRevision);
-      const previous = await tx.armRevision.findUniqueOrThrow({ where: { armId_revision: { armId: id, revision: baseRevision } } });
-      const changes = jsonDiff(readArm(previous.document, id, baseRevision), arm);
-      await tx.armRevision.create({
-        data: { id: randomUUID(), armId: id, revision, document: JSON.stringify(arm), summary: summarizeChanges(changes), authorId: userId, createdAt: now },
-      });
-      await recordAudit(tx, { actorId: userId, action: "arm.update", entityType: "arm", entityId: id, detail: { revision, changed: changes.length } });
-      return { id, revision, arm };
-    });
-  } catch (err) {
-    if (isUniqueViolation(err)) throw await db().$transaction((tx) => conflictFor(tx, id, baseRevision));
-    throw err;
-  }
-}
-
-async function setDeleted(userId: string | null, id: string, deleted: boolean): Promise<{ id: string; deletedAt: Date | null }> {
-  return db().$transaction(async (tx) => {
-    const row = await tx.arm.findUnique({ where: { id }, select: { deletedAt: true } });
-    if (!row) throw new NotFoundError(`arm ${id} does not exist`);
-    if ((row.deletedAt !== null) === deleted) return { id, deletedAt: row.deletedAt };
-    const deletedAt = deleted ? new Date() : null;
-    await tx.arm.update({ where: { id }, data: { deletedAt } });
-    await recordAudit(tx, { actorId: userId, action: deleted ? "arm.delete" : "arm.restore", entityType: "arm", entityId: id });
-    return { id, deletedAt };
-  });
+  return revisioned.updateDocument(arms, userId, id, baseRevision, input);
 }
 
 /** Marks the arm deleted (revisions stay); idempotent. */
-export const softDeleteArm = (userId: string | null, id: string) => setDeleted(userId, id, true);
+export const softDeleteArm = (userId: string | null, id: string) => revisioned.setDeleted(arms, userId, id, true);
 /** Clears the deleted mark; idempotent. */
-export const restoreArm = (userId: string | null, id: string) => setDeleted(userId, id, false);
+export const restoreArm = (userId: string | null, id: string) => revisioned.setDeleted(arms, userId, id, false);
 
 export async function countArms(): Promise<number> {
-  return db().arm.count();
+  return revisioned.countDocuments(arms);
 }
