@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { listShortlists } from "@/lib/db/shortlists";
+import { unreadCounts } from "@/lib/db/comments";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { PageHead } from "@/components/PageHead";
 import { utc } from "@/components/time";
@@ -11,6 +12,8 @@ export const metadata: Metadata = { title: "Shortlists" };
 export default async function ShortlistsPage() {
   const user = await requireUser("/shortlists");
   const rows = await listShortlists();
+  // Comments by others since the signed-in member last read each shortlist's discussion.
+  const unread = await unreadCounts(user.id, rows.map((r) => r.id));
   return (
     <>
       <PageHead title="Shortlists" count={rows.length} noun="shortlist">
@@ -31,6 +34,7 @@ export default async function ShortlistsPage() {
                 <th scope="col">Requirement set</th>
                 <th scope="col" className="num">Arms</th>
                 <th scope="col">Latest analysis</th>
+                <th scope="col">Comments</th>
                 <th scope="col">Created</th>
               </tr>
             </thead>
@@ -45,6 +49,9 @@ export default async function ShortlistsPage() {
                   </td>
                   <td className="num">{r.arms}</td>
                   <td>{r.latestRun ? `${r.latestRun.status}${r.latestRun.finishedAt ? `, ${utc(r.latestRun.finishedAt)}` : ""}` : "none"}</td>
+                  <td data-testid="unread-count">
+                    <UnreadCell count={unread.get(r.id) ?? { unread: 0, mentions: 0 }} />
+                  </td>
                   <td>
                     {utc(r.createdAt)}
                     {r.createdBy && <span className="sub"> by {r.createdBy.name}</span>}
@@ -56,5 +63,16 @@ export default async function ShortlistsPage() {
         </div>
       )}
     </>
+  );
+}
+
+/** "N unread" in words (never colour alone); mentions of the member are named beside it. */
+function UnreadCell({ count }: { count: { unread: number; mentions: number } }) {
+  if (count.unread === 0) return <span className="sub">0 unread</span>;
+  return (
+    <strong>
+      {count.unread} unread
+      {count.mentions > 0 && <span className="sub">, {count.mentions} mentioning you</span>}
+    </strong>
   );
 }

@@ -248,4 +248,36 @@ describe("shortlist page", () => {
     expect(await p.getByTestId("compliance-row").count()).toBeGreaterThan(3);
     expect(t.errors()).toEqual([]);
   });
+
+  it("the shortlists list shows the signed-in member's unread comment count in words", async () => {
+    const p = t.page;
+    const id = shortlistUrl.split("/")[2];
+    const cell = () => p.getByTestId("shortlist-table").getByRole("row").filter({ has: p.getByRole("link", { name: "Press-fit cell candidates" }) }).getByTestId("unread-count");
+    await p.goto("/shortlists");
+    expect(await cell().textContent()).toBe("0 unread");
+    // Two comments by a link guest (not the member) are unread for the member.
+    const posted = await p.evaluate(async (sid) => {
+      const link = await (await fetch(`/api/shortlists/${sid}/links`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ access: "comment", label: "reviewer" }) })).json();
+      const statuses: number[] = [];
+      for (const body of ["Is the press-fit force checked?", "The far tray corner looks tight."]) {
+        const r = await fetch(`/api/share/${link.token}/comments`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ name: "Guest Reviewer", body }) });
+        statuses.push(r.status);
+      }
+      return statuses;
+    }, id);
+    expect(posted).toEqual([201, 201]);
+    await p.goto("/shortlists");
+    expect(await cell().textContent()).toBe("2 unread");
+    // Marking the discussion read clears it; the member's own comment is never unread for them.
+    const after = await p.evaluate(async (sid) => {
+      const a = await fetch(`/api/shortlists/${sid}/comments/read`, { method: "POST", headers: { "content-type": "application/json" }, body: "{}" });
+      const b = await fetch(`/api/shortlists/${sid}/comments`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ body: "Checked: 2.1x the required force." }) });
+      return [a.status, b.status];
+    }, id);
+    expect(after[0]).toBeLessThan(300);
+    expect(after[1]).toBe(201);
+    await p.goto("/shortlists");
+    expect(await cell().textContent()).toBe("0 unread");
+    expect(t.errors()).toEqual([]);
+  });
 });
