@@ -1,0 +1,137 @@
+// Designed outcomes of the demo scenarios (which seed arms reach which targets and follow which
+// paths), checked through the product's analysis (analyzeShortlist) on the seed data.
+//
+// Independent source: tests/seed-data/check_scenarios.py, a numpy/scipy screen
+// (scipy.optimize.least_squares bounded by the joint limits, 24 seeded random starts per target,
+// continuation along each path every 20 mm; run with /usr/bin/python3, slow, not part of npm test).
+// EXPECTED below is the same table as that script's EXPECTED; a target or path absent from an
+// arm's entry is left free there and here. On the current seed data both screens agree on every
+// (arm, target) and (arm, path) cell of both scenarios, not only on the designed ones.
+import { describe, expect, it } from "vitest";
+import { analyzeShortlist, DEFAULT_BUDGET, type ShortlistAnalysis } from "@/lib/analysis";
+import { createArmContext } from "@/lib/analysis/context";
+import { forwardKinematics } from "@/lib/kinematics";
+import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
+
+/** Reached (true) or missed (false) per arm and target/path name; "*" stands for every one. */
+const EXPECTED: Record<string, Record<string, Record<string, boolean>>> = {
+  "Bench assembly: sensor housing press-fit": {
+    "Helper Seven 7": { "close-in-nest": false, "feeder-pick": true, "press-fit": true, "tray-far-corner": true },
+    "Reach Cobot 10": { "*": true },
+    "Overhead Six 6": { "*": true },
+    "Table SCARA 600": {
+      "feeder-pick": true, "fixture-place": true, "press-fit": true, "tray-far-corner": false,
+      "tilted-screw": false, "side-bore-insert": false, "label-camera": false,
+    },
+    "Compact Six 3": { "tray-far-corner": false },
+  },
+  "Deburring cell: cast pump-cover seam": {
+    "Foundry Six 12": { "*": true },
+    "Table SCARA 600": { "gate-stub": false, "bore-chamfer": false, "back-edge": false, "top-seam": false, "front-edge-chamfer": false },
+    "Overhead Six 6": { "top-seam": false },
+    "Helper Seven 7": { "top-seam": false },
+  },
+};
+
+/** R = Rz(yaw)·Ry(pitch)·Rx(roll), row-major (the convention of DESIGN.md), written out here. */
+function rpyMatrix([r, p, y]: readonly number[]): number[] {
+  const [cr, sr, cp, sp, cy, sy] = [Math.cos(r), Math.sin(r), Math.cos(p), Math.sin(p), Math.cos(y), Math.sin(y)];
+  return [cy * cp, cy * sp * sr - sy * cr, cy * sp * cr + sy * sr, sy * cp, sy * sp * sr + cy * cr, sy * sp * cr - cy * sr, -sp, cp * sr, cp * cr];
+}
+
+/**
+ * Orientation error (rad) of a 4×4 pose against a target rotation: the angle between the tool z
+ * axes in "axis" mode, the angle of R_goal·Rᵀ in "pose" mode (atan2 of the axis-vector norm and the
+ * trace, accurate at small angles).
+ */
+function orientationError(pose: ArrayLike<number>, goal: number[], mode: "axis" | "pose"): number {
+  const R = [pose[0], pose[1], pose[2], pose[4], pose[5], pose[6], pose[8], pose[9], pose[10]];
+  if (mode === "axis") {
+    const a = [R[2], R[5], R[8]], b = [goal[2], goal[5], goal[8]];
+    const cross = Math.hypot(a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]);
+    return Math.atan2(cross, a[0] * b[0] + a[1] * b[1] + a[2] * b[2]);
+  }
+  // E = goal · Rᵀ
+  const E = (i: number, j: number) => goal[3 * i] * R[3 * j] + goal[3 * i + 1] * R[3 * j + 1] + goal[3 * i + 2] * R[3 * j + 2];
+  const v = Math.hypot(E(2, 1) - E(1, 2), E(0, 2) - E(2, 0), E(1, 0) - E(0, 1));
+  return Math.atan2(v / 2, (E(0, 0) + E(1, 1) + E(2, 2) - 1) / 2);
+}
+
+const arms = loadSeedArms();
+const reqs = loadSeedRequirementSets();
+// The workspace envelope plays no part in reachability: a small sample keeps the test fast.
+const budget = { ...DEFAULT_BUDGET, workspace: { ...DEFAULT_BUDGET.workspace, samples: 200 } };
+const results = new Map<string, ShortlistAnalysis>(
+  reqs.map((req) => [req.name, analyzeShortlist(arms.map((arm, i) => ({ id: `seed-${i}`, revision: 1, arm })), req, { budget })]),
+);
+
+describe("demo scenarios: designed reachability", () => {
+  it("the scenarios and arms named in EXPECTED exist in the seed data", () => {
+    for (const [scenario, byArm] of Object.entries(EXPECTED)) {
+      const req = reqs.find((r) => r.name === scenario);
+      expect(req, scenario).toBeDefined();
+      const tasks = [...req!.targets.map((t) => t.name), ...req!.paths.map((p) => p.name)];
+      for (const [armName, want] of Object.entries(byArm)) {
+        expect(arms.map((a) => a.name), scenario).toContain(armName);
+        for (const name of Object.keys(want)) if (name !== "*") expect(tasks, `${scenario} / ${armName}`).toContain(name);
+      }
+    }
+  });
+
+  for (const [scenario, byArm] of Object.entries(EXPECTED)) {
+    it(`${scenario}: every designed outcome holds`, () => {
+      const result = results.get(scenario)!;
+      const req = reqs.find((r) => r.name === scenario)!;
+      const mismatches: string[] = [];
+      let checked = 0;
+      for (const [armName, want] of Object.entries(byArm)) {
+        const a = result.arms.find((x) => x.name === armName)!;
+        expect(a.error, armName).toBeNull();
+        // A target counts as reached when the analysis found an IK solution within the target's own
+        // tolerances; a path as followed when every sample was reached (as in check_scenarios.py).
+        const got: [string, boolean, string][] = [
+          ...a.targets.map((t): [string, boolean, string] => [t.name, t.reached, t.reason]),
+          ...a.paths.map((p): [string, boolean, string] => [p.name, p.reached === p.samples, `${p.reached}/${p.samples} samples; ${p.reason}`]),
+        ];
+        expect(got).toHaveLength(req.targets.length + req.paths.length);
+        for (const [name, reached, why] of got) {
+          const expected = want[name] ?? want["*"];
+          if (expected === undefined) continue;
+          checked++;
+          if (expected !== reached) mismatches.push(`${armName} / ${name}: expected ${expected ? "reached" : "missed"}, got ${why}`);
+        }
+      }
+      expect(mismatches).toEqual([]);
+      expect(checked).toBeGreaterThanOrEqual(10);
+    });
+  }
+
+  it("every reached target's chosen solution is within the joint limits and puts the TCP on the target (forward kinematics)", () => {
+    let verified = 0;
+    for (const req of reqs) {
+      const result = results.get(req.name)!;
+      result.arms.forEach((a, ai) => {
+        const ctx = createArmContext(arms[ai], req);
+        a.targets.forEach((t, ti) => {
+          if (!t.reached) return;
+          const spec = req.targets[ti];
+          const q = t.solutions[t.chosen!].q;
+          arms[ai].joints.forEach((j, k) => {
+            expect(q[k]).toBeGreaterThanOrEqual(j.min - 1e-9);
+            expect(q[k]).toBeLessThanOrEqual(j.max + 1e-9);
+          });
+          forwardKinematics(ctx.model, ctx.data, q);
+          const pose = ctx.data.toolPose;
+          const dp = Math.hypot(pose[3] - spec.position[0], pose[7] - spec.position[1], pose[11] - spec.position[2]);
+          expect(dp, `${a.name} / ${t.name} position`).toBeLessThanOrEqual(spec.positionTolerance);
+          if (spec.mode !== "point") {
+            const angle = orientationError(pose, rpyMatrix(spec.rpy), spec.mode);
+            expect(angle, `${a.name} / ${t.name} orientation`).toBeLessThanOrEqual(spec.rotationTolerance);
+          }
+          verified++;
+        });
+      });
+    }
+    expect(verified).toBeGreaterThan(30);
+  });
+});
