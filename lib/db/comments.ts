@@ -339,18 +339,24 @@ export async function unreadCounts(userId: string, shortlistIds: string[]): Prom
   if (shortlistIds.length === 0) return out;
   const reads = await db().commentRead.findMany({ where: { userId, shortlistId: { in: shortlistIds } } });
   const lastRead = new Map(reads.map((r) => [r.shortlistId, r.lastReadAt]));
-  for (const shortlistId of shortlistIds) {
-    const since = lastRead.get(shortlistId);
-    const where = {
-      shortlistId, deletedAt: null, ...(since ? { createdAt: { gt: since } } : {}),
-      OR: [{ authorId: null }, { authorId: { not: userId } }],
-    };
-    const [unread, mentions] = await Promise.all([
-      db().comment.count({ where }),
-      db().comment.count({ where: { ...where, mentions: { some: { userId } } } }),
-    ]);
-    out.set(shortlistId, { unread, mentions });
-  }
+  // Two grouped queries for all the shortlists at once (not two per shortlist): each shortlist
+  // contributes its own "since the member last read it" condition to one OR.
+  const where = {
+    deletedAt: null,
+    AND: [
+      { OR: [{ authorId: null }, { authorId: { not: userId } }] },
+      { OR: shortlistIds.map((shortlistId) => {
+        const since = lastRead.get(shortlistId);
+        return { shortlistId, ...(since ? { createdAt: { gt: since } } : {}) };
+      }) },
+    ],
+  };
+  const [unread, mentions] = await Promise.all([
+    db().comment.groupBy({ by: ["shortlistId"], where, _count: { _all: true } }),
+    db().comment.groupBy({ by: ["shortlistId"], where: { ...where, mentions: { some: { userId } } }, _count: { _all: true } }),
+  ]);
+  for (const g of unread) out.get(g.shortlistId)!.unread = g._count._all;
+  for (const g of mentions) out.get(g.shortlistId)!.mentions = g._count._all;
   return out;
 }
 

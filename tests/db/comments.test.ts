@@ -97,6 +97,26 @@ describe("discussion", () => {
     expect((await unreadCounts(bob, [shortlistId])).get(shortlistId)).toEqual({ unread: 0, mentions: 0 });
   });
 
+  it("counts unread comments for several shortlists at once, each since its own last read", async () => {
+    const set = (await createRequirementSet(null, sampleRequirementSet())).id;
+    const other = (await createShortlist(ada, { name: "Cell 8", requirementSetId: set, armIds: [armId] })).id;
+    const never = (await createShortlist(ada, { name: "Cell 9", requirementSetId: set, armIds: [armId] })).id;
+    await createComment(member(ada), other, { body: "before bob read it" });
+    await new Promise((r) => setTimeout(r, 5));
+    await markDiscussionRead(bob, other, new Date());
+    await new Promise((r) => setTimeout(r, 5));
+    await createComment(member(ada), other, { body: "after, for @bob.lee" });
+    await createComment(member(bob), other, { body: "bob's own" });
+    await createComment(member(ada), never, { body: "one" });
+    await createComment(member(ada), never, { body: "two" });
+    const counts = await unreadCounts(bob, [other, never, "no-such-shortlist"]);
+    expect(counts.get(other)).toEqual({ unread: 1, mentions: 1 });
+    expect(counts.get(never)).toEqual({ unread: 2, mentions: 0 });
+    expect(counts.get("no-such-shortlist")).toEqual({ unread: 0, mentions: 0 });
+    // The same numbers one shortlist at a time.
+    expect((await unreadCounts(bob, [never])).get(never)).toEqual({ unread: 2, mentions: 0 });
+  });
+
   it("stores a retried post once (client key) and cleans guest display names", async () => {
     const a = await createComment(member(ada), shortlistId, { body: "once", clientKey: "key-00000001" });
     const b = await createComment(member(ada), shortlistId, { body: "once", clientKey: "key-00000001" });
