@@ -138,7 +138,7 @@ async function storeMentions(tx: Tx, commentId: string, body: string): Promise<s
   if (handles.length === 0) return [];
   const members = await memberHandles(tx);
   const ids = [...new Set(handles.flatMap((h) => (members.get(h) ?? []).map((m) => m.id)))];
-  for (const userId of ids) await tx.commentMention.create({ data: { commentId, userId } });
+  if (ids.length) await tx.commentMention.createMany({ data: ids.map((userId) => ({ commentId, userId })) });
   return ids;
 }
 

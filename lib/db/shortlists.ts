@@ -125,12 +125,13 @@ export async function createShortlist(userId: string | null, input: unknown): Pr
     const missing = body.armIds.map((a, i) => ({ a, i })).filter((x) => !byId.has(x.a));
     if (missing.length) throw new ValidationError(missing.map((m) => ({ path: `armIds.${m.i}`, message: `arm ${m.a} does not exist` })));
     await tx.shortlist.create({ data: { id, name: body.name, requirementSetId: set.id, requirementRevision: set.currentRevision, createdById: userId } });
-    const pins: Pins = { requirement: { setId: set.id, revision: set.currentRevision }, arms: [] };
-    for (const [position, armId] of body.armIds.entries()) {
-      const revision = byId.get(armId)!.currentRevision;
-      await tx.shortlistArm.create({ data: { shortlistId: id, armId, armRevision: revision, position } });
-      pins.arms.push({ armId, revision });
-    }
+    const pins: Pins = {
+      requirement: { setId: set.id, revision: set.currentRevision },
+      arms: body.armIds.map((armId) => ({ armId, revision: byId.get(armId)!.currentRevision })),
+    };
+    await tx.shortlistArm.createMany({
+      data: pins.arms.map((p, position) => ({ shortlistId: id, armId: p.armId, armRevision: p.revision, position })),
+    });
     await recordAudit(tx, { actorId: userId, action: "shortlist.create", entityType: "shortlist", entityId: id, detail: pins });
     return { id, pins };
   });
