@@ -5,7 +5,10 @@
 export type {
   ArmData,
   ArmKinematics,
+  ChainArmKinematics,
+  DhArmKinematics,
   ArmModel,
+  Convention,
   DhConvention,
   IkMode,
   IkMultiOptions,
@@ -18,7 +21,7 @@ export type {
 export { createModel } from "./model";
 export { createData } from "./data";
 export { forwardKinematics } from "./forward";
-export { computeJacobian, computeLinkPointJacobian } from "./jacobian";
+export { computeJacobian, computeLinkPointJacobian, jointAxisWorld } from "./jacobian";
 export {
   LIMIT_EPSILON,
   maxJointDistance,
@@ -39,3 +42,4 @@ export {
 } from "./math/mat4";
 export { minSingularValue } from "./math/linalg";
 export { IK_DEFAULTS, solveIk, solveIkMulti } from "./inverse";
+export { dhToChain, mulRigid, originFromMatrix, originMatrix, transformPointRigid } from "./chain";
