@@ -135,11 +135,16 @@ export const armSpecsSchema = z.object({
 });
 export type ArmSpecs = z.infer<typeof armSpecsSchema>;
 
-const armCommonShape = {
+/** Identity fields (first in a stored document, as before the kinematics). */
+const armIdentityShape = {
   name: z.string().trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
   maker: z.string().trim().max(120).optional(),
   modelCode: z.string().trim().max(60).optional(),
   description: z.string().max(4000).optional(),
+};
+
+/** Fields after the joints. */
+const armCommonShape = {
   /** Cell-independent base transform: arm base → first joint frame (row-major 4×4). */
   base: mat4.optional(),
   /** Flange → tool point (row-major 4×4). */
@@ -157,16 +162,18 @@ const jointList = <J extends z.ZodType>(joint: J) =>
 
 /** An arm described by a DH table (standard `dh` or modified `mdh`). */
 const dhArmObject = z.object({
-  ...armCommonShape,
+  ...armIdentityShape,
   convention: z.enum(["dh", "mdh"]),
   joints: jointList(jointSchema),
+  ...armCommonShape,
 });
 
 /** An arm described as a general joint chain (origin + axis per joint). */
 const chainArmObject = z.object({
-  ...armCommonShape,
+  ...armIdentityShape,
   convention: z.literal("chain"),
   joints: jointList(chainJointSchema),
+  ...armCommonShape,
 });
 
 const armObject = z.discriminatedUnion("convention", [dhArmObject, chainArmObject], { error: "must be dh, mdh or chain" });

@@ -16,6 +16,8 @@ import { requirementSetSchema } from "@/shared/schemas/requirements";
 /** sha-256 of the canonical analysis output of the fixed input, per analysis version. */
 const GOLDEN: Record<string, string> = {
   "analysis-1.2.0": "c8a9a1a24430b238dd0fe3a290fee9e19a6e47d513cba73c5b3f6ca032de1a59",
+  // 1.3.0: workspace reach measured at the arm's own tool point (these arms have none: only the version differs).
+  "analysis-1.3.0": "b08be7a6025ce4c46dbac1b64f0bfe97595319bc36fd2e56c9b7199330c1529c",
 };
 
 const DEG = Math.PI / 180;
