@@ -1,14 +1,10 @@
 "use client";
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { api } from "@/components/api";
+import type { AnchorOption } from "@/lib/views/anchors";
 import "./discussion.css";
 
-/** Something a comment can be about. `id` null = the whole shortlist. */
-export interface AnchorOption {
-  type: "shortlist" | "arm" | "target" | "path" | "compliance";
-  id: string | null;
-  label: string;
-}
+export type { AnchorOption };
 
 export type DiscussionMode =
   | { kind: "member"; shortlistId: string; userId: string; canWrite: boolean; canResolve: boolean; canModerate: boolean }

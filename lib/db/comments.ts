@@ -6,6 +6,7 @@
  * comment never exists without its text history. Deleting only marks the comment; resolving and
  * reopening apply to a thread's first comment. Every change is an audit event.
  */
+import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { requirementSetSchema } from "@/shared/schemas";
