@@ -10,6 +10,7 @@ export type {
   ArmModel,
   Convention,
   DhConvention,
+  IkCause,
   IkMode,
   IkMultiOptions,
   IkOptions,
@@ -41,5 +42,6 @@ export {
   zAxisAngleBetween,
 } from "./math/mat4";
 export { minSingularValue } from "./math/linalg";
-export { IK_DEFAULTS, solveIk, solveIkMulti } from "./inverse";
+export { IK_DEFAULTS, IK_NEAR_LIMIT_FRACTION, IK_STATIONARY_TOLERANCE, solveIk, solveIkMulti } from "./inverse";
+export { taskJacobianInto, taskRowCount, taskVelocityInto } from "./task";
 export { dhToChain, mulRigid, originFromMatrix, originMatrix, transformPointRigid } from "./chain";
