@@ -3,7 +3,7 @@
  * The form shows mm, degrees, kg, N·m (N for prismatic), and keeps every value as typed text;
  * values that were loaded and not edited are sent back exactly as loaded (no rounding drift).
  */
-import { armSchema, type ArmDocument, type ArmSource, type ChainJointSpec, type Convention, type FieldError, type JointSpec, type Mounting } from "@/shared/schemas";
+import { armSchema, type ArmDocument, type ArmSource, type Capsule, type ChainJointSpec, type Convention, type FieldError, type JointSpec, type Mounting } from "@/shared/schemas";
 import { degToRad, jointFromDisplay, jointToDisplay, jointUnit, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { checkFormDoc } from "../formDoc";
 import { parseNum, parsePose, poseMatrix, poseTextFromMatrix, rowKey, samePose, show, isZeroPose, type PoseText } from "../pose";
@@ -56,6 +56,8 @@ export interface JointRow {
   radius: string;
   /** Chain joints: inertia tensor as loaded (not edited in the form, kept on save). */
   inertia?: [number, number, number, number, number, number];
+  /** Collision capsules as loaded (not edited in this table, kept on save). */
+  collision?: Capsule[];
   /** Values as loaded: text shown and the SI value behind it, with the joint type then. */
   orig?: { type: JointType; values: Partial<Record<JointNumField, { text: string; si: number }>> };
 }
@@ -76,6 +78,8 @@ export interface ArmForm {
   joints: JointRow[];
   /** The file the arm was imported from (kept on save, not edited). */
   source?: ArmSource;
+  /** Base collision capsules as loaded (kept on save). */
+  baseCollision?: Capsule[];
   base: PoseText;
   tool: PoseText;
   baseOrig?: { text: PoseText; matrix: number[] };
@@ -307,6 +311,7 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
       if (v !== undefined) row.orig!.values[f] = { text, si: v };
     }
     if (ch?.inertia) row.inertia = [...ch.inertia];
+    if (j.collision) row.collision = structuredClone(j.collision);
     return row;
   });
   const s = doc.specs ?? {};
@@ -328,6 +333,7 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
     convention: doc.convention,
     joints,
     source: doc.source ? { ...doc.source } : undefined,
+    baseCollision: doc.baseCollision ? structuredClone(doc.baseCollision) : undefined,
     base,
     tool,
     baseOrig: doc.base ? { text: { ...base }, matrix: doc.base.slice() } : undefined,
@@ -422,6 +428,7 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
     const cz = get("comZ", `joints.${i}.com.2`);
     if (cx !== undefined || cy !== undefined || cz !== undefined) joint.com = [cx ?? 0, cy ?? 0, cz ?? 0];
     if (row.inertia && "origin" in joint) joint.inertia = [...row.inertia];
+    if (row.collision) joint.collision = structuredClone(row.collision);
     return joint;
   });
 
@@ -476,6 +483,7 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
     joints,
   } as ArmDocument;
   if (form.source) doc.source = { ...form.source };
+  if (form.baseCollision) doc.baseCollision = structuredClone(form.baseCollision);
   if (form.maker.trim()) doc.maker = form.maker.trim();
   if (form.modelCode.trim()) doc.modelCode = form.modelCode.trim();
   if (form.description.trim()) doc.description = form.description;

@@ -9,6 +9,20 @@ import { fmt, jointToDisplay, jointUnit } from "../units";
  */
 export const MAX_JOINTS = 12;
 
+/**
+ * A collision capsule: the points within `radius` of the segment from → to (m), in the frame of
+ * the body it belongs to (a link's frame for `joints[i].collision`, the arm's base frame for
+ * `baseCollision`).
+ */
+export const capsuleSchema = z.object({
+  from: vec3,
+  to: vec3,
+  radius: positive,
+});
+export type Capsule = z.infer<typeof capsuleSchema>;
+/** Most collision capsules per body. */
+export const MAX_CAPSULES = 16;
+
 /** Fields every joint has, whatever the convention. */
 const jointCommonShape = {
   type: z.enum(["revolute", "prismatic"], { error: "must be revolute or prismatic" }),
@@ -26,6 +40,8 @@ const jointCommonShape = {
   com: vec3.optional(),
   /** Collision radius of the link (m). */
   radius: nonNegative.optional(),
+  /** Collision capsules of the link in its frame (the frame `com` is given in). */
+  collision: z.array(capsuleSchema).max(MAX_CAPSULES, `a link has at most ${MAX_CAPSULES} collision capsules`).optional(),
 };
 
 /** A joint of a `dh` or `mdh` arm: one row of the DH table. */
@@ -150,6 +166,8 @@ const armCommonShape = {
   /** Flange → tool point (row-major 4×4). */
   tool: mat4.optional(),
   specs: armSpecsSchema.optional(),
+  /** Collision capsules of the arm's base (body "base"), in the arm's base frame (before `base`). */
+  baseCollision: z.array(capsuleSchema).max(MAX_CAPSULES, `the base has at most ${MAX_CAPSULES} collision capsules`).optional(),
   /** The file the arm was imported from, if any. */
   source: armSourceSchema.optional(),
 };
