@@ -3,7 +3,7 @@ import tseslint from "typescript-eslint";
 
 const pureRestrictions = {
   patterns: [
-    { group: ["next", "next/*", "react", "react-dom", "@prisma/*", "@/lib/db", "@/lib/db/*", "**/lib/db/**", "server-only"], message: "lib/kinematics and lib/analysis are pure: no Next, React or database imports." },
+    { group: ["next", "next/*", "react", "react-dom", "@prisma/*", "@/lib/db", "@/lib/db/*", "**/lib/db/**", "server-only"], message: "lib/kinematics, lib/geometry and lib/analysis are pure: no Next, React or database imports." },
   ],
 };
 
@@ -18,7 +18,7 @@ export default tseslint.config(
     },
   },
   {
-    files: ["lib/kinematics/**", "lib/analysis/**"],
+    files: ["lib/kinematics/**", "lib/geometry/**", "lib/analysis/**"],
     rules: { "no-restricted-imports": ["error", pureRestrictions] },
   },
   {
