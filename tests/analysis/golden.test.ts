@@ -15,7 +15,7 @@ import { requirementSetSchema } from "@/shared/schemas/requirements";
 
 /** sha-256 of the canonical analysis output of the fixed input, per analysis version. */
 const GOLDEN: Record<string, string> = {
-  "analysis-1.2.0": "828391cba09cbdd3adcb8b332a2dccbece2d4e02573fda67d55e64f96fac9e99",
+  "analysis-1.2.0": "2ede730621c4263ec8a03633115cb3f8e1e0bc90d1fad5dbc25e8bd50e98fd19",
 };
 
 const DEG = Math.PI / 180;

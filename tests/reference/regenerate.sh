@@ -6,3 +6,4 @@ set -eu
 cd "$(dirname "$0")"
 /usr/bin/python3 kdl_fixtures.py
 /usr/bin/python3 analysis_reference.py
+/usr/bin/python3 axis_dexterity_reference.py
