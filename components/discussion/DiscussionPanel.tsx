@@ -19,6 +19,8 @@ interface CommentView {
   body: string;
   /** Sanitised on the server (lib/markdown): the only HTML this panel inserts. */
   html: string;
+  /** Set when the server could not render the body; shown instead of it. */
+  renderError?: string | null;
   revision: number;
   createdAt: string;
   editedAt: string | null;
@@ -205,6 +207,10 @@ function CommentItem({ c, mode, base, onChange, isRoot, thread }: { c: CommentVi
             </button>
           </div>
         </form>
+      ) : c.renderError ? (
+        <p className="comment-body unrenderable" data-testid="comment-body" role="note">
+          <em>{c.renderError[0].toUpperCase() + c.renderError.slice(1)}.</em>
+        </p>
       ) : (
         <div className="comment-body" data-testid="comment-body" dangerouslySetInnerHTML={{ __html: c.html }} />
       )}
