@@ -6,7 +6,7 @@
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Target } from "@/shared/schemas/requirements";
-import { computeJacobian, solveIkMulti } from "@/lib/kinematics";
+import { computeJacobian, IK_NEAR_LIMIT_FRACTION, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
@@ -156,7 +156,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
     mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
     maxRestarts: budget.restarts, maxSolutions: budget.maxSolutions, maxIterations: budget.maxIterations, seed,
   });
-  if (!results.some((r) => r.status === "reached") && !/beyond/.test(results[0].reason) && budget.escalatedRestarts > budget.restarts) {
+  if (!results.some((r) => r.status === "reached") && results[0].cause !== "beyond-reach" && budget.escalatedRestarts > budget.restarts) {
     const retry = solveIkMulti(model, data, pose, {
       mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
       maxRestarts: budget.escalatedRestarts, maxSolutions: 1, maxIterations: budget.maxIterations, seed: seed + 0x9e3779b9,
@@ -168,14 +168,8 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   const base = { name: target.name, mode: target.mode };
   if (reached.length === 0) {
     const best = results[0];
-    const beyond = /beyond/.test(best.reason);
     const reason = `not reached after ${best.restarts} restart${best.restarts === 1 ? "" : "s"}: best position error ${mm(best.positionError)}` +
-      (target.mode === "point" ? "" : `, rotation error ${deg(best.rotationError)}`) +
-      (beyond
-        ? " (beyond the arm's largest possible reach)"
-        : best.positionError > 0.005
-          ? " (outside the reachable workspace or excluded by joint limits, as far as the search could tell)"
-          : " (close: the search budget ran out; check with the maker's tools)");
+      (target.mode === "point" ? "" : `, rotation error ${deg(best.rotationError)}`) + ` (${missText(best, model)})`;
     return {
       ...base, verdict: "fails", reason, reached: false, positionError: best.positionError, rotationError: best.rotationError,
       ikReason: best.reason, solutions: [], chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null,
@@ -224,6 +218,34 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
     positionError: reached[chosen].positionError, rotationError: reached[chosen].rotationError, ikReason: reached[chosen].reason,
     solutions, chosen, dexterity: dex, forceEllipsoid: ellipsoid, holding, force, wrist,
   };
+}
+
+/** A miss this close (m) is reported as close: more search might reach it. */
+export const CLOSE_MISS = 0.005;
+
+/** Words for why a target was not reached, from the IK result's structured cause. */
+function missText(best: IkResult, model: ArmModel): string {
+  switch (best.cause) {
+    case "beyond-reach": return "beyond the arm's largest possible reach: no configuration gets there";
+    case "joint-limit": {
+      const joints = limitJoints(model, best.q);
+      return `the search stalled with joint${joints.length > 1 ? "s" : ""} ${joints.join(", ")} at a limit: the pose is likely excluded by the joint limits`;
+    }
+    case "singularity": return "the search stalled where no joint motion brings the tool closer: likely outside the reachable workspace, or an orientation this arm's axes cannot make";
+    default: return best.positionError <= CLOSE_MISS
+      ? "close: the search budget ran out; check with the maker's tools"
+      : "the search budget ran out away from a limit or a singularity: the target may still be reachable; check with the maker's tools";
+  }
+}
+
+/** 1-based joints within IK_NEAR_LIMIT_FRACTION of their range from a limit. */
+function limitJoints(model: ArmModel, q: ArrayLike<number>): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < model.n; i++) {
+    const band = IK_NEAR_LIMIT_FRACTION * (model.upper[i] - model.lower[i]);
+    if (q[i] <= model.lower[i] + band || q[i] >= model.upper[i] - band) out.push(i + 1);
+  }
+  return out;
 }
 
 /** Words for the limiting factor of a dexterity report. */

@@ -4,9 +4,10 @@
  * compares it again in constant time; an unknown, expired or revoked token, or one whose
  * shortlist is gone, resolves to null, the same answer in every case.
  */
+import "server-only";
 import { createHash, randomBytes, randomUUID, timingSafeEqual } from "node:crypto";
 import { z } from "zod";
-import type { LinkGuest } from "@/lib/auth/permissions";
+import type { LinkAccess } from "@/shared/schemas/roles";
 import { db } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
@@ -20,7 +21,18 @@ export const MAX_LINK_DAYS = 366;
 
 export const hashShareToken = (token: string): Buffer => createHash("sha256").update(token, "utf8").digest();
 
-export type LinkAccess = "view" | "comment";
+export type { LinkAccess };
+
+/** What a valid token grants: one shortlist, view or comment access (a link guest in lib/auth). */
+export interface ShareGrant {
+  kind: "link";
+  linkId: string;
+  shortlistId: string;
+  access: LinkAccess;
+  hidePrices: boolean;
+  label: string | null;
+  expiresAt: Date | null;
+}
 
 export interface ShareLinkRecord {
   id: string;
@@ -131,7 +143,7 @@ const ZERO = Buffer.alloc(32);
  * The stored hash is compared with timingSafeEqual as well, and a miss compares against zeros,
  * so a lookup costs the same whether or not a row was found.
  */
-export async function resolveShareToken(token: string, now: Date = new Date()): Promise<(LinkGuest & { label: string | null; expiresAt: Date | null }) | null> {
+export async function resolveShareToken(token: string, now: Date = new Date()): Promise<ShareGrant | null> {
   const wellFormed = TOKEN_RE.test(token);
   const hash = hashShareToken(wellFormed ? token : "");
   const row = wellFormed

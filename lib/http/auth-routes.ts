@@ -3,7 +3,8 @@ import { dummyPasswordHash, hashPassword, verifyPassword } from "@/lib/auth/pass
 import { clientAddress, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
 import { clearedSessionCookie, createSession, endRequestSession, getRequestUser, isHttps, sessionCookie } from "@/lib/auth/session";
 import type { SessionUser } from "@/lib/auth/permissions";
-import { createUser, findUserForSignIn, listUsers, normalizeEmail, ROLES, setUserRole } from "@/lib/db/users";
+import { createUser, findUserForSignIn, listUsers, normalizeEmail, setUserRole } from "@/lib/db";
+import { ROLES } from "@/shared/schemas";
 import { ApiError, unauthenticated } from "./errors";
 import { readJsonObject } from "./body";
 import { json, parseWith, requireUser, route, type RouteContext } from "./route";

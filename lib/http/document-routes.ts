@@ -1,6 +1,6 @@
 import { z } from "zod";
 import type { Action } from "@/lib/auth/permissions";
-import type { DeletedFilter } from "@/lib/db/documents";
+import type { DeletedFilter } from "@/lib/db";
 import { notFound } from "./errors";
 import { readJsonObject } from "./body";
 import { json, parseWith, requireUser, route } from "./route";

@@ -1,5 +1,5 @@
 import type { FieldError } from "@/shared/schemas";
-import { ConflictError, NotFoundError, ValidationError } from "@/lib/db/errors";
+import { ConflictError, NotFoundError, ValidationError } from "@/lib/db";
 
 export type ErrorCode = "validation" | "bad-json" | "unauthenticated" | "forbidden" | "not-found" | "conflict" | "rate-limited" | "unsupported-media-type";
 

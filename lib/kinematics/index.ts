@@ -7,6 +7,7 @@ export type {
   ArmKinematics,
   ArmModel,
   DhConvention,
+  IkCause,
   IkMode,
   IkMultiOptions,
   IkOptions,
@@ -38,4 +39,5 @@ export {
   zAxisAngleBetween,
 } from "./math/mat4";
 export { minSingularValue } from "./math/linalg";
-export { IK_DEFAULTS, solveIk, solveIkMulti } from "./inverse";
+export { IK_DEFAULTS, IK_NEAR_LIMIT_FRACTION, IK_STATIONARY_TOLERANCE, solveIk, solveIkMulti } from "./inverse";
+export { taskJacobianInto, taskRowCount, taskVelocityInto } from "./task";

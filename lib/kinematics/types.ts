@@ -142,8 +142,20 @@ export interface IkMultiOptions extends IkOptions {
   distinctThreshold?: number;
 }
 
+/**
+ * Why a search ended (inverse.ts): `reached`; `beyond-reach` (the target is farther from the
+ * base than the arm's largest possible reach, so no search was made beyond the first attempt);
+ * `joint-limit` (stalled with a joint at a limit that the error would push it past);
+ * `singularity` (stalled where no joint motion lowers the remaining error: a singularity, or a
+ * motion the structure lacks); `budget` (attempts ended without converging, away from a limit and
+ * from a stationary point: the search says nothing about reachability).
+ */
+export type IkCause = "reached" | "beyond-reach" | "joint-limit" | "singularity" | "budget";
+
 export interface IkResult {
   status: "reached" | "not-reached";
+  /** Structured reason; branch on this, never on `reason`'s wording. */
+  cause: IkCause;
   /** Answer (wrapped into the limits), or the best iterate found when not reached. */
   q: Float64Array;
   /** |p_target − p_tool| (m). */

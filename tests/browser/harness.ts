@@ -76,7 +76,7 @@ export async function startHarness(): Promise<Harness> {
   const dbPath = path.join(dir, "armsift.db");
   const env: NodeJS.ProcessEnv = { ...process.env, ARMSIFT_DB: dbPath, DATABASE_URL: `file:${dbPath}`, NEXT_TELEMETRY_DISABLED: "1" };
   run(process.execPath, [path.join(ROOT, "scripts", "prisma.mjs"), "migrate", "deploy"], env, "migrate deploy");
-  run(path.join(ROOT, "node_modules", ".bin", "tsx"), [path.join(ROOT, "scripts", "seed.ts")], env, "seed");
+  run(path.join(ROOT, "node_modules", ".bin", "tsx"), ["--conditions=react-server", path.join(ROOT, "scripts", "seed.ts")], env, "seed");
 
   const port = await freePort();
   const logPath = path.join(dir, "server.log");

@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { analyzeShortlist, rankArms, type ShortlistAnalysis } from "@/lib/analysis";
 import { complianceTable, csvField, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
-import { readCsvExport, readXlsx, sheetRecords } from "./parse";
+import { parseCsvRows, readCsvExport, readXlsx, sheetRecords } from "./parse";
 
 let analysis: ShortlistAnalysis;
 let meta: ExportMeta;
@@ -51,6 +51,27 @@ describe("CSV", () => {
       }),
       { numRuns: 400, seed: 20260102 },
     );
+  });
+
+  it("metadata lines go through the same writer as the cells: names are quoted and formula-guarded", () => {
+    const hostile: ExportMeta = {
+      ...meta,
+      shortlist: { id: "sl-1", name: "=1+2" },
+      requirement: { ...meta.requirement, name: 'cell,=HYPERLINK("http://evil.test","x")' },
+      arms: [{ id: "arm-1", name: "@SUM(A1:A9)", revision: 1 }, { id: "arm-2", name: "+1,-2\r\n=3", revision: 2 }],
+    };
+    const text = toCsv(complianceTable(analysis), hostile);
+    // What a spreadsheet would see: no cell of any line starts a formula (numbers aside).
+    const cells = parseCsvRows(text).flat();
+    const formulas = cells.filter((c) => /^[=+\-@\t\r]/.test(c) && !/^-?\d+(\.\d+)?$/.test(c));
+    expect(formulas).toEqual([]);
+    // Every line starts a record whose first cell is "# …" or a header/row cell; the values survive.
+    const { meta: lines } = readCsvExport(text);
+    expect(lines).toContain("Shortlist: '=1+2 (sl-1)");
+    expect(lines).toContain(`Requirement set: cell,=HYPERLINK("http://evil.test","x") (req-1) revision 3`);
+    expect(lines).toContain("Arm: '@SUM(A1:A9) (arm-1) revision 1");
+    expect(lines).toContain("Arm: '+1,-2 =3 (arm-2) revision 2");
+    expect(text.split("\r\n").filter((l) => l.startsWith("# ")).length).toBe(lines.length);
   });
 
   it("compliance: one row per requirement and arm with the display value, unit and verdict word", () => {

@@ -4,17 +4,25 @@ import ExcelJS from "exceljs";
 import Papa from "papaparse";
 
 /**
- * A CSV export split into its `#` metadata lines, header and rows (as objects by column name).
- * The table part is read with papaparse (a general-purpose RFC 4180 parser), strictly: any
- * parse error (unbalanced quote, ragged row) fails the test.
+ * Every record of a CSV text, read with papaparse (a general-purpose RFC 4180 parser), strictly:
+ * a parse error (unbalanced quote, stray quote) fails the test.
+ */
+export function parseCsvRows(text: string): string[][] {
+  const parsed = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: true, newline: "\r\n" });
+  if (parsed.errors.length > 0) throw new Error(`CSV does not parse: ${parsed.errors.map((e) => `row ${e.row}: ${e.message}`).join("; ")}`);
+  return parsed.data;
+}
+
+/**
+ * A CSV export split into its metadata, header and rows (as objects by column name). Metadata are
+ * the records whose first cell starts with "# ": the title alone, then `# key` and the value,
+ * returned as "key: value". Every row must have as many fields as the header.
  */
 export function readCsvExport(text: string): { meta: string[]; columns: string[]; records: Record<string, string>[] } {
-  const lines = text.replace(/^\uFEFF/, "").split(/\r\n/);
-  const meta = lines.filter((l) => l.startsWith("# ")).map((l) => l.slice(2));
-  const body = lines.filter((l) => !l.startsWith("# ")).join("\r\n");
-  const parsed = Papa.parse<string[]>(body, { header: false, delimiter: ",", skipEmptyLines: true, newline: "\r\n" });
-  if (parsed.errors.length > 0) throw new Error(`CSV does not parse: ${parsed.errors.map((e) => `row ${e.row}: ${e.message}`).join("; ")}`);
-  const [columns, ...rows] = parsed.data;
+  const all = parseCsvRows(text.replace(/^\uFEFF/, ""));
+  const isMeta = (r: string[]) => r[0].startsWith("# ");
+  const meta = all.filter(isMeta).map((r) => (r.length > 1 ? `${r[0].slice(2)}: ${r.slice(1).join(",")}` : r[0].slice(2)));
+  const [columns, ...rows] = all.filter((r) => !isMeta(r));
   for (const [i, r] of rows.entries()) if (r.length !== columns.length) throw new Error(`CSV row ${i + 1} has ${r.length} fields, the header ${columns.length}`);
   return { meta, columns, records: rows.map((r) => Object.fromEntries(columns.map((c, i) => [c, r[i]]))) };
 }

@@ -6,7 +6,6 @@
 // score = Σ wₖ sₖ / Σ wₖ (docs/design.md#ranking), not read back from the ranking.
 import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
-import Papa from "papaparse";
 import { describe, expect, it, vi } from "vitest";
 
 const KEY = "axisEconomy";
@@ -35,7 +34,7 @@ const { RankingPanel } = await import("@/components/shortlist/RankingPanel");
 const { analyzeShortlist, rankArms } = await import("@/lib/analysis");
 const { rankingTable, toCsv, toXlsx } = await import("@/lib/export");
 const { loadSeedArms, loadSeedRequirementSets } = await import("@/seed-data/index");
-const { readXlsx } = await import("../export/parse");
+const { readCsvExport, readXlsx } = await import("../export/parse");
 
 type Any = Record<string, number>;
 
@@ -101,22 +100,21 @@ describe("adding a sub-score (DEVELOPERS.md, How to add a metric)", () => {
     expect(html.split(LABEL).length - 1).toBeGreaterThanOrEqual(3); // slider label, aria-label, table header
   });
 
-  it("reaches the exports: CSV columns (read with papaparse), the XLSX ranking sheet and the weights line", async () => {
+  it("reaches the exports: CSV columns (read back with papaparse), the XLSX ranking sheet and the weights line", async () => {
     const meta = {
       shortlist: { id: "sl-1", name: "Recipe" }, run: { id: "run-1", finishedAt: null }, analysisVersion: analysis.version,
       requirement: { id: "req-1", name: req.name, revision: 1 }, arms: arms.map((a) => ({ id: a.id, name: a.arm.name, revision: 1 })),
       weights: analysis.weights, weightsAdjusted: false, caution: analysis.caution, exportedAt: "2026-01-02T03:05:00.000Z",
     };
     const csv = toCsv(rankingTable(analysis), meta);
-    const body = csv.split("\r\n").filter((l) => !l.startsWith("# ")).join("\r\n");
-    const parsed = Papa.parse<Record<string, string>>(body, { header: true, delimiter: ",", skipEmptyLines: true });
-    expect(parsed.errors).toEqual([]);
-    for (const col of ["contribution (0–1)", "sub-score (0–1)", "weight (share of 1)"]) expect(parsed.meta.fields).toContain(`${LABEL} ${col}`);
-    for (const rec of parsed.data) {
+    const { columns, records, meta: lines } = readCsvExport(csv);
+    for (const col of ["contribution (0–1)", "sub-score (0–1)", "weight (share of 1)"]) expect(columns).toContain(`${LABEL} ${col}`);
+    expect(records).toHaveLength(arms.length);
+    for (const rec of records) {
       const a = analysis.arms.find((x) => x.name === rec.Arm)!;
       expect(Number(rec[`${LABEL} sub-score (0–1)`])).toBeCloseTo(Math.min(1, 4 / a.axes), 4);
     }
-    expect(csv).toContain(`${KEY} 3`);
+    expect(lines.find((l) => l.startsWith("Weights: "))).toContain(`${KEY} 3`);
     const sheets = await readXlsx(await toXlsx([rankingTable(analysis)], meta));
     const ranking = Object.entries(sheets).find(([name]) => name.startsWith("Ranking"))![1];
     expect(ranking.flat()).toContain(`${LABEL} contribution (0–1)`);
