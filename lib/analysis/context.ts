@@ -7,7 +7,7 @@
  * every Jacobian is expressed in the cell frame with gravity along −z of the cell (a tilted or
  * hanging base therefore gets the right gravity direction).
  */
-import type { ArmDocument } from "@/shared/schemas/arm";
+import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { computeJacobian, createData, createModel, createRng, randomConfiguration, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
@@ -39,7 +39,7 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   const base = mul4(req.base, arm.base ?? IDENTITY_4);
   const tcp = Float64Array.from(req.tool.tcp);
   const tool = mul4(arm.tool ?? IDENTITY_4, tcp);
-  const model = createModel({ name: arm.name, convention: arm.convention, joints: arm.joints, base: Array.from(base), tool: Array.from(tool) });
+  const model = createModel({ ...kinematicsOf(arm), base: Array.from(base), tool: Array.from(tool) });
   const data = createData(model);
   const jac = new Float64Array(6 * model.n);
   const tcpInverse = invertRigid(tcp);

@@ -6,7 +6,7 @@
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Target } from "@/shared/schemas/requirements";
-import { computeJacobian, IK_NEAR_LIMIT_FRACTION, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
+import { computeJacobian, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
@@ -332,9 +332,8 @@ function wristCheck(ctx: ArmContext, arm: ArmDocument, req: RequirementSet, q: F
   let verdict: Verdict = "meets";
   const reasons: string[] = [];
   for (const a of allow) {
-    const f = 16 * (a.joint - 1 + model.axisFrameOffset);
-    const fr = data.frames;
-    const load = wristAxisLoad([fr[f + 2], fr[f + 6], fr[f + 10]], [fr[f + 3], fr[f + 7], fr[f + 11]], bodies);
+    const ax = jointAxisWorld(model, data, a.joint, new Float64Array(6));
+    const load = wristAxisLoad([ax[0], ax[1], ax[2]], [ax[3], ax[4], ax[5]], bodies);
     let v: Verdict = "meets";
     const why: string[] = [];
     if (a.moment !== undefined) {

@@ -5,7 +5,10 @@
 export type {
   ArmData,
   ArmKinematics,
+  ChainArmKinematics,
+  DhArmKinematics,
   ArmModel,
+  Convention,
   DhConvention,
   IkCause,
   IkMode,
@@ -19,7 +22,7 @@ export type {
 export { createModel } from "./model";
 export { createData } from "./data";
 export { forwardKinematics } from "./forward";
-export { computeJacobian, computeLinkPointJacobian } from "./jacobian";
+export { computeJacobian, computeLinkPointJacobian, jointAxisWorld } from "./jacobian";
 export {
   LIMIT_EPSILON,
   maxJointDistance,
@@ -41,3 +44,4 @@ export {
 export { minSingularValue } from "./math/linalg";
 export { IK_DEFAULTS, IK_NEAR_LIMIT_FRACTION, IK_STATIONARY_TOLERANCE, solveIk, solveIkMulti } from "./inverse";
 export { taskJacobianInto, taskRowCount, taskVelocityInto } from "./task";
+export { dhToChain, mulRigid, originFromMatrix, originMatrix, transformPointRigid } from "./chain";

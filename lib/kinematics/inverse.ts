@@ -269,12 +269,7 @@ function settingsOf(model: ArmModel, options: IkOptions | undefined): Settings {
 
 /** Upper bound on the distance from frame 0's origin to the tool point over all configurations. */
 function reachBound(model: ArmModel): number {
-  let r = 0;
-  for (let i = 0; i < model.n; i++) {
-    const dmax = model.prismatic[i] === 1 ? Math.max(Math.abs(model.d[i] + model.lower[i]), Math.abs(model.d[i] + model.upper[i])) : Math.abs(model.d[i]);
-    r += Math.hypot(model.a[i], dmax);
-  }
-  return r + Math.hypot(model.tool[3], model.tool[7], model.tool[11]);
+  return model.reach;
 }
 
 /**

@@ -2,16 +2,16 @@ import { describe, expect, it } from "vitest";
 import { analyzeShortlist, rankArms, ANALYSIS_VERSION, CAUTION, type ShortlistArm, DEFAULT_BUDGET } from "@/lib/analysis";
 import { analysisKey, canonicalJson } from "@/lib/analysis/key";
 import { createData, createModel, forwardKinematics } from "@/lib/kinematics";
-import { armSchema, type ArmDocument } from "@/shared/schemas/arm";
+import { armSchema, type ArmDocument, type DhArmDocument } from "@/shared/schemas/arm";
 import { requirementSetSchema } from "@/shared/schemas/requirements";
 import { createHash } from "node:crypto";
 import { REF } from "./fixtures";
 
 const I4 = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
-const base: ArmDocument = armSchema.parse({
+const base = armSchema.parse({
   ...REF.endToEnd.arm, tool: I4,
   specs: { ratedPayload: 8, reach: 1.25, ipCode: "IP54", price: 30000, currency: "EUR", wristAllowables: [{ joint: 5, moment: 40, inertia: 0.5 }, { joint: 6, moment: 20 }] },
-});
+}) as DhArmDocument;
 const cheaper: ArmDocument = { ...base, name: "Cheaper variant", specs: { ...base.specs, ipCode: "IP67", price: 20000 } };
 
 /** The TCP pose at q (with the requirement set's identity base and a 0.1 m TCP offset). */

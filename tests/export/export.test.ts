@@ -8,6 +8,7 @@ import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { analyzeShortlist, rankArms, type ShortlistAnalysis } from "@/lib/analysis";
 import { complianceTable, csvField, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
 import { parseCsvRows, readCsvExport, readXlsx, sheetRecords } from "./parse";
+import type { ArmDocument } from "@/shared/schemas";
 
 let analysis: ShortlistAnalysis;
 let meta: ExportMeta;
@@ -179,7 +180,7 @@ describe("XLSX task matrix", () => {
   it("paths carry their smallest dexterity margin; an arm that was not analysed says so", async () => {
     const req = loadSeedRequirementSets().find((r) => r.name.startsWith("Deburring"))!;
     const arms = loadSeedArms();
-    const broken = { ...arms[0], name: "Broken model", joints: arms[0].joints.map((j, i) => (i === 0 ? { ...j, type: "bogus" as never } : j)) };
+    const broken = { ...arms[0], name: "Broken model", joints: arms[0].joints.map((j, i) => (i === 0 ? { ...j, type: "bogus" as never } : j)) } as ArmDocument;
     const small = { ...analysis.budget, workspace: { ...analysis.budget.workspace, samples: 300 } };
     const deburr = analyzeShortlist([{ id: "a", revision: 1, arm: arms[1] }, { id: "b", revision: 2, arm: broken }], req, { budget: small });
     const rows = sheetRecords((await readXlsx(await toXlsx([taskMatrixTable(deburr)], meta)))["Task matrix"]);

@@ -5,9 +5,9 @@ import { clearedSessionCookie, createSession, endRequestSession, getRequestUser,
 import type { SessionUser } from "@/lib/auth/permissions";
 import { createUser, findUserForSignIn, listUsers, normalizeEmail, setUserRole } from "@/lib/db";
 import { ROLES } from "@/shared/schemas";
-import { ApiError, unauthenticated } from "./errors";
-import { readJsonObject } from "./body";
-import { json, parseWith, requireUser, route, type RouteContext } from "./route";
+import { ApiError, unauthenticated } from "@/lib/http/errors";
+import { readJsonObject } from "@/lib/http/body";
+import { json, parseWith, requireUser, route, type RouteContext } from "@/lib/http/route";
 
 const publicUser = (u: SessionUser) => ({ id: u.id, email: u.email, name: u.name, role: u.role });
 
