@@ -150,7 +150,7 @@ export function analyzePath(ctx: ArmContext, path: PathSpec, budget: PathBudget,
   // Try start branches in order of their dexterity margin; keep the first that carries through.
   const ranked = starts.map((r) => {
     computeJacobian(model, data, r.q, ctx.jac);
-    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks).margin };
+    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks, data.toolPose).margin };
   }).sort((a, b) => b.m - a.m);
   let best: Traversal | null = null;
   for (const st of ranked.slice(0, Math.max(1, budget.startBranches))) {
@@ -267,7 +267,7 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
     const q = tr.qs[k];
     if (!q) { prof.sigmaMinTranslation.push(null); prof.dexterityMargin.push(null); prof.speedRatio.push(null); return; }
     const task = taskJacobian(ctx, q, path.mode); // also leaves the full Jacobian in ctx.jac
-    const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks);
+    const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks, ctx.data.toolPose);
     prof.sigmaMinTranslation.push(dex.translation.minSingularValue);
     prof.dexterityMargin.push(dex.margin);
     minMargin = minMargin === null ? dex.margin : Math.min(minMargin, dex.margin);

@@ -19,7 +19,7 @@ import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, typ
 import type { Verdict } from "./types";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.3.0";
+export const ANALYSIS_VERSION = "analysis-1.4.0";
 
 /** Shown on every analysis page and export (RULES: the usual caution). */
 export const CAUTION =

@@ -46,7 +46,10 @@ export interface SolutionSummary {
   margin: number;
   limiting: DexterityReport["limiting"];
   translationInverseCondition: number;
+  /** 1/κ of the full three-direction orientation block (rotations keeping the TCP still). */
   orientationInverseCondition: number;
+  /** `axis` targets: σ₂/σ₁ of that block on the tool's x and y axes, the factor the margin uses; null otherwise. */
+  axisOrientationInverseCondition: number | null;
   jointLimitMargin: number;
 }
 
@@ -177,7 +180,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   }
   const reports: DexterityReport[] = reached.map((r) => {
     computeJacobian(model, data, r.q, ctx.jac);
-    return dexterityAt(ctx.jac, model.n, model, r.q, target.mode, ctx.ranks);
+    return dexterityAt(ctx.jac, model.n, model, r.q, target.mode, ctx.ranks, data.toolPose);
   });
   let chosen = 0;
   for (let i = 1; i < reports.length; i++) if (reports[i].margin > reports[chosen].margin) chosen = i;
@@ -185,6 +188,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
     q: Array.from(r.q), margin: reports[i].margin, limiting: reports[i].limiting,
     translationInverseCondition: reports[i].translation.inverseCondition,
     orientationInverseCondition: reports[i].orientation.inverseCondition,
+    axisOrientationInverseCondition: reports[i].axisOrientation?.inverseCondition ?? null,
     jointLimitMargin: reports[i].jointLimits.margin,
   }));
   const q = reached[chosen].q;
@@ -252,7 +256,7 @@ function limitJoints(model: ArmModel, q: ArrayLike<number>): number[] {
 export function describeLimit(d: DexterityReport): string {
   switch (d.limiting.factor) {
     case "translation": return `translational conditioning 1/κ = ${num(d.limiting.value, 3)} (arm near stretched or folded)`;
-    case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)} (near a wrist singularity)`;
+    case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)}${d.axisOrientation ? " over the constrained rotations (about the tool x and y axes)" : ""} (near a wrist singularity)`;
     default: return `joint ${d.limiting.joint} near its limit (margin ${num(d.jointLimits.margin, 3)})`;
   }
 }
