@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { finite, nameText, nonNegative, positive, vec3, mat4 } from "./common";
+import { SUB_SCORES, type SubScoreKey } from "../sub-scores";
 
 /**
  * Requirement set: one cell scenario, SI units (m, rad, kg, N, N·m, m/s).
@@ -101,17 +102,12 @@ export const specRequirementSchema = z
   });
 export type SpecRequirement = z.infer<typeof specRequirementSchema>;
 
-/** Ranking weights (≥ 0, any scale; normalised by their sum when scoring). */
-export const weightsSchema = z.object({
-  coverage: nonNegative.default(4),
-  dexterity: nonNegative.default(2),
-  payload: nonNegative.default(1),
-  force: nonNegative.default(1),
-  pathSpeed: nonNegative.default(1),
-  price: nonNegative.default(1),
-});
-export type Weights = z.infer<typeof weightsSchema>;
-export const DEFAULT_WEIGHTS: Weights = { coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, price: 1 };
+/** Ranking weights (≥ 0, any scale; normalised by their sum when scoring), one per sub-score row. */
+export type Weights = Record<SubScoreKey, number>;
+export const weightsSchema = z.object(
+  Object.fromEntries(SUB_SCORES.rows.map((r) => [r.key, nonNegative.default(r.defaultWeight)])) as Record<SubScoreKey, z.ZodDefault<typeof nonNegative>>,
+);
+export const DEFAULT_WEIGHTS: Weights = { ...SUB_SCORES.defaultWeights };
 
 export const obstacleSchema = z.discriminatedUnion("shape", [
   z.object({ shape: z.literal("box"), name: z.string().max(80).optional(), center: vec3, size: z.tuple([positive, positive, positive]) }),
