@@ -7,6 +7,7 @@
 import type { PathSpec } from "@/shared/schemas/requirements";
 import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount, taskVelocityInto, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
+import { centredCopy } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
 import { poseFromQuaternion, poseFromRpy, quaternionOf, relativeRotation, slerp } from "./geometry";
@@ -148,7 +149,9 @@ export function analyzePath(ctx: ArmContext, path: PathSpec, budget: PathBudget,
   const starts = solveIkMulti(model, data, samples[0].pose, { ...opts, maxRestarts: 12, maxSolutions: Math.max(1, budget.startBranches), seed })
     .filter((r) => r.status === "reached");
   // Try start branches in order of their dexterity margin; keep the first that carries through.
-  const ranked = starts.map((r) => {
+  // Each start as its in-limit copy farthest from the joint limits (copies.ts): the most room to move.
+  const ranked = starts.map((r0) => {
+    const r = { ...r0, q: centredCopy(model, r0.q).q };
     computeJacobian(model, data, r.q, ctx.jac);
     return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks, data.toolPose).margin };
   }).sort((a, b) => b.m - a.m);
