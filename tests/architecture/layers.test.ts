@@ -62,3 +62,24 @@ describe("the data layer", () => {
     expect(unmarked).toEqual([]);
   });
 });
+
+describe("route handlers", () => {
+  /** Every route.ts under app/api, relative to the repository root. */
+  function routeFiles(dir = path.join(ROOT, "app", "api")): string[] {
+    return readdirSync(dir, { withFileTypes: true }).flatMap((e) =>
+      e.isDirectory() ? routeFiles(path.join(dir, e.name)) : e.name === "route.ts" ? [path.relative(ROOT, path.join(dir, e.name))] : [],
+    );
+  }
+
+  it("live in lib/http/handlers: a route file only names its handlers", () => {
+    const files = routeFiles();
+    expect(files.length).toBeGreaterThan(30);
+    const offenders = files.filter((f) => {
+      const text = readFileSync(path.join(ROOT, f), "utf8");
+      const imports = [...text.matchAll(/^import .* from "([^"]+)";$/gm)].map((m) => m[1]);
+      const body = text.replace(/^import .*$/gm, "").replace(/^export const (dynamic = "force-dynamic"|[A-Z]+ = [\w.]+);$/gm, "").trim();
+      return body !== "" || imports.length !== 1 || !imports[0].startsWith("@/lib/http/handlers/");
+    });
+    expect(offenders).toEqual([]);
+  });
+});

@@ -1,6 +1,6 @@
 import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
 import * as data from "@/lib/db";
-import { documentRoutes, type DocumentStore } from "./document-routes";
+import { documentRoutes, type DocumentStore } from "./documents";
 
 type StoreRecord<D> = NonNullable<Awaited<ReturnType<DocumentStore<D>["get"]>>>;
 type StoreRevision<D> = NonNullable<Awaited<ReturnType<DocumentStore<D>["revision"]>>>;
