@@ -22,7 +22,7 @@ const noDbAbove = {
 };
 const pure = {
   group: ["next", "next/*", "react", "react-dom", "@prisma/*", "@/lib/db", "@/lib/db/*", "**/lib/db/**", "server-only"],
-  message: "lib/kinematics and lib/analysis are pure: no Next, React or database imports.",
+  message: "lib/kinematics, lib/geometry and lib/analysis are pure: no Next, React or database imports.",
 };
 const restrict = (...patterns) => ({ "no-restricted-imports": ["error", { patterns }] });
 
@@ -39,7 +39,7 @@ export default tseslint.config(
   { files: ["app/**", "scripts/**", "cli/**", "bench/**", "shared/**", "seed-data/**"], rules: restrict(noDbInternals, noPrisma) },
   { files: ["components/**"], rules: restrict(noDbInComponents, noPrisma) },
   { files: ["lib/**"], ignores: ["lib/db/**"], rules: restrict(noDbInternals, noRelativeDbFromLib, noPrisma) },
-  { files: ["lib/kinematics/**", "lib/analysis/**"], rules: restrict(pure) },
+  { files: ["lib/kinematics/**", "lib/geometry/**", "lib/analysis/**"], rules: restrict(pure) },
   { files: ["lib/db/**"], rules: restrict(noDbAbove) },
   {
     files: ["scripts/**/*.mjs", "*.mjs"],

@@ -10,10 +10,9 @@
 import { Marked, type Tokens, type TokenizerAndRendererExtension } from "marked";
 import sanitizeHtml from "sanitize-html";
 import { MAX_COMMENT_LENGTH, MAX_NESTING, nestingDepth, nestingProblem } from "@/shared/schemas/comments";
-import { cleanDisplayName } from "@/shared/text";
 
 // The rules a body must meet to be stored live with the comment schemas; re-exported for callers here.
-export { cleanDisplayName, MAX_COMMENT_LENGTH, MAX_NESTING, nestingDepth, nestingProblem };
+export { MAX_COMMENT_LENGTH, MAX_NESTING, nestingDepth, nestingProblem };
 
 const escapeHtml = (s: string): string =>
   s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
@@ -130,3 +129,5 @@ export function renderComment(
   }
 }
 
+/** Guests' display names are cleaned like every other name (shared/text.ts). */
+export { cleanName as cleanDisplayName } from "@/shared/text";

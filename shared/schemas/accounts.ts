@@ -1,10 +1,11 @@
 import { z } from "zod";
+import { nameText } from "./common";
 import { ROLES } from "./roles";
 
 /** Sign-up: email, display name and password. */
 export const signUpInput = z.object({
   email: z.email({ error: "must be an email address" }).max(254, "must be at most 254 characters"),
-  name: z.string({ error: "must be text" }).trim().min(1, "must not be empty").max(80, "must be at most 80 characters"),
+  name: nameText(80),
   password: z.string({ error: "must be text" }).min(10, "must be at least 10 characters").max(1024, "must be at most 1024 characters"),
 });
 

@@ -3,7 +3,7 @@
  * and the inputs of posting, editing and resolving.
  */
 import { z } from "zod";
-import { cleanDisplayName } from "@/shared/text";
+import { cleanName } from "@/shared/text";
 
 /** Longest comment body accepted (characters of Markdown source). */
 export const MAX_COMMENT_LENGTH = 5000;
@@ -100,7 +100,7 @@ export const editCommentInput = z.object({
 
 export const displayNameSchema = z
   .string({ error: "must be text" })
-  .transform(cleanDisplayName)
+  .transform(cleanName)
   .pipe(z.string().min(1, "give a display name").max(MAX_DISPLAY_NAME, `must be at most ${MAX_DISPLAY_NAME} characters`));
 
 

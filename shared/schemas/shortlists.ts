@@ -1,8 +1,9 @@
 import { z } from "zod";
+import { nameText } from "./common";
 
 /** A new shortlist: a name, the requirement set and the arms (their current revisions are pinned). */
 export const createShortlistInput = z.object({
-  name: z.string({ error: "must be text" }).trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
+  name: nameText(120),
   requirementSetId: z.string({ error: "choose a requirement set" }).min(1, "choose a requirement set"),
   armIds: z
     .array(z.string().min(1), { error: "must be a list of arm ids" })
