@@ -49,10 +49,11 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   if (req.payload.mass > 0) loads.push({ mass: req.payload.mass, pointInTool: req.payload.cog });
   const rng = createRng(seed);
   const q = new Float64Array(model.n);
-  const jacs: Float64Array[] = [];
+  const jacs: Float64Array[] = [], toolPoses: Float64Array[] = [];
   for (let i = 0; i < 6; i++) {
     randomConfiguration(model, rng, q);
     jacs.push(Float64Array.from(computeJacobian(model, data, q, jac)));
+    toolPoses.push(Float64Array.from(data.toolPose));
   }
   let hasTorqueLimits = false, hasSpeedLimits = false;
   for (let i = 0; i < model.n; i++) {
@@ -60,7 +61,7 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
     if (model.maxSpeed[i] > 0) hasSpeedLimits = true;
   }
   return {
-    model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n), toolCogInTcp, loads,
+    model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n, toolPoses), toolCogInTcp, loads,
     loadMass: req.tool.mass + req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
   };
 }

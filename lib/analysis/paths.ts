@@ -7,6 +7,7 @@
 import type { PathSpec } from "@/shared/schemas/requirements";
 import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount, taskVelocityInto, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
+import { centredCopy } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
 import { poseFromQuaternion, poseFromRpy, quaternionOf, relativeRotation, slerp } from "./geometry";
@@ -148,9 +149,11 @@ export function analyzePath(ctx: ArmContext, path: PathSpec, budget: PathBudget,
   const starts = solveIkMulti(model, data, samples[0].pose, { ...opts, maxRestarts: 12, maxSolutions: Math.max(1, budget.startBranches), seed })
     .filter((r) => r.status === "reached");
   // Try start branches in order of their dexterity margin; keep the first that carries through.
-  const ranked = starts.map((r) => {
+  // Each start as its in-limit copy farthest from the joint limits (copies.ts): the most room to move.
+  const ranked = starts.map((r0) => {
+    const r = { ...r0, q: centredCopy(model, r0.q).q };
     computeJacobian(model, data, r.q, ctx.jac);
-    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks).margin };
+    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks, data.toolPose).margin };
   }).sort((a, b) => b.m - a.m);
   let best: Traversal | null = null;
   for (const st of ranked.slice(0, Math.max(1, budget.startBranches))) {
@@ -267,7 +270,7 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
     const q = tr.qs[k];
     if (!q) { prof.sigmaMinTranslation.push(null); prof.dexterityMargin.push(null); prof.speedRatio.push(null); return; }
     const task = taskJacobian(ctx, q, path.mode); // also leaves the full Jacobian in ctx.jac
-    const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks);
+    const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks, ctx.data.toolPose);
     prof.sigmaMinTranslation.push(dex.translation.minSingularValue);
     prof.dexterityMargin.push(dex.margin);
     minMargin = minMargin === null ? dex.margin : Math.min(minMargin, dex.margin);

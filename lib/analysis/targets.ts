@@ -8,6 +8,7 @@ import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Target } from "@/shared/schemas/requirements";
 import { computeJacobian, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
+import { centredCopy, type JointCopyChoice } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
 import { poseFromRpy, rotationOf, transformPoint, mul4 } from "./geometry";
@@ -40,13 +41,21 @@ export const DEFAULT_TARGET_BUDGET: TargetBudget = { restarts: 12, maxSolutions:
 
 /** A compact summary of one IK branch. */
 export interface SolutionSummary {
-  /** Joint values (rad or m). */
+  /**
+   * Joint values (rad or m): for a revolute joint with several in-limit copies 2π apart, the copy
+   * farthest from its limits (see `copies`).
+   */
   q: number[];
+  /** Joints whose angle has more than one in-limit copy: the copy reported and the others (rad). */
+  copies: JointCopyChoice[];
   /** Dexterity margin D ∈ [0, 1]. */
   margin: number;
   limiting: DexterityReport["limiting"];
   translationInverseCondition: number;
+  /** 1/κ of the full three-direction orientation block (rotations keeping the TCP still). */
   orientationInverseCondition: number;
+  /** `axis` targets: σ₂/σ₁ of that block on the tool's x and y axes, the factor the margin uses; null otherwise. */
+  axisOrientationInverseCondition: number | null;
   jointLimitMargin: number;
 }
 
@@ -175,19 +184,22 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
       ikReason: best.reason, solutions: [], chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null,
     };
   }
-  const reports: DexterityReport[] = reached.map((r) => {
-    computeJacobian(model, data, r.q, ctx.jac);
-    return dexterityAt(ctx.jac, model.n, model, r.q, target.mode, ctx.ranks);
+  // Each solution as its in-limit copy farthest from the joint limits (copies.ts): same pose, larger margin.
+  const centred = reached.map((r) => centredCopy(model, r.q));
+  const reports: DexterityReport[] = centred.map((c) => {
+    computeJacobian(model, data, c.q, ctx.jac);
+    return dexterityAt(ctx.jac, model.n, model, c.q, target.mode, ctx.ranks, data.toolPose);
   });
   let chosen = 0;
   for (let i = 1; i < reports.length; i++) if (reports[i].margin > reports[chosen].margin) chosen = i;
-  const solutions: SolutionSummary[] = reached.map((r, i) => ({
-    q: Array.from(r.q), margin: reports[i].margin, limiting: reports[i].limiting,
+  const solutions: SolutionSummary[] = reached.map((_, i) => ({
+    q: Array.from(centred[i].q), copies: centred[i].copies, margin: reports[i].margin, limiting: reports[i].limiting,
     translationInverseCondition: reports[i].translation.inverseCondition,
     orientationInverseCondition: reports[i].orientation.inverseCondition,
+    axisOrientationInverseCondition: reports[i].axisOrientation?.inverseCondition ?? null,
     jointLimitMargin: reports[i].jointLimits.margin,
   }));
-  const q = reached[chosen].q;
+  const q = centred[chosen].q;
   const dex = reports[chosen];
   const n = model.n;
   lap("dexterity");
@@ -210,6 +222,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   if (dex.marginal || dex.limiting.value < 0.5) parts.push(`limiting: ${describeLimit(dex)}`);
   if (dex.marginal) parts.push(`below the ${num(DEXTERITY_MARGINAL_THRESHOLD, 1)} threshold`);
   if (reached.length > 1) parts.push(`${reached.length} branches found`);
+  for (const c of centred[chosen].copies) parts.push(`joint ${c.joint} at ${deg(c.chosen)} (its copy${c.others.length > 1 ? "s" : ""} at ${c.others.map(deg).join(", ")} ${c.others.length > 1 ? "are" : "is"} nearer a limit)`);
   if (holding.verdict !== "meets") { verdict = worseVerdict(verdict, holding.verdict); parts.push(holding.reason); }
   if (force) { verdict = worseVerdict(verdict, force.verdict); parts.push(force.reason); }
   if (wrist.verdict === "fails" || wrist.verdict === "marginal") { verdict = worseVerdict(verdict, wrist.verdict); parts.push(wrist.reason); }
@@ -252,7 +265,7 @@ function limitJoints(model: ArmModel, q: ArrayLike<number>): number[] {
 export function describeLimit(d: DexterityReport): string {
   switch (d.limiting.factor) {
     case "translation": return `translational conditioning 1/κ = ${num(d.limiting.value, 3)} (arm near stretched or folded)`;
-    case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)} (near a wrist singularity)`;
+    case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)}${d.axisOrientation ? " over the constrained rotations (about the tool x and y axes)" : ""} (near a wrist singularity)`;
     default: return `joint ${d.limiting.joint} near its limit (margin ${num(d.jointLimits.margin, 3)})`;
   }
 }

@@ -8,6 +8,7 @@ import "server-only";
 import { createHash, randomBytes, randomUUID, timingSafeEqual } from "node:crypto";
 import { z } from "zod";
 import type { LinkAccess } from "@/shared/schemas/roles";
+import { labelText } from "@/shared/schemas/common";
 import { db } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
@@ -50,7 +51,7 @@ export interface ShareLinkRecord {
 
 export const createLinkInput = z.object({
   access: z.enum(["view", "comment"], { error: "must be view or comment" }),
-  label: z.string({ error: "must be text" }).trim().max(80, "must be at most 80 characters").optional(),
+  label: labelText(80).optional(),
   /** Days until the link stops working; omitted or null = no expiry. */
   expiresInDays: z.number({ error: "must be a number of days" }).int("must be a whole number of days").min(1, "must be at least 1 day").max(MAX_LINK_DAYS, `must be at most ${MAX_LINK_DAYS} days`).nullable().optional(),
   hidePrices: z.boolean({ error: "must be true or false" }).optional(),

@@ -1,7 +1,7 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
-import { armSchema, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
+import { armSchema, nameText, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
 import { analysisKey } from "@/lib/analysis/key";
 import { ANALYSIS_VERSION, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
 import { db } from "./client";
@@ -78,7 +78,7 @@ export interface ShortlistSummary {
 }
 
 const createInput = z.object({
-  name: z.string({ error: "must be text" }).trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
+  name: nameText(120),
   requirementSetId: z.string({ error: "choose a requirement set" }).min(1, "choose a requirement set"),
   armIds: z
     .array(z.string().min(1), { error: "must be a list of arm ids" })

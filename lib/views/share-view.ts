@@ -8,7 +8,7 @@
  */
 import "server-only";
 import { can, type LinkGuest } from "@/lib/auth/permissions";
-import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
+import { rankArms, subScoreOf, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { Verdict } from "@/lib/analysis/types";
 import { getSharedShortlist } from "@/lib/db";
 
@@ -112,7 +112,7 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
       }];
     }),
     subScores: SUB_SCORE_KEYS.filter((k) => prices || k !== "price").map((key) => ({
-      key, cells: result.arms.map((a) => ({ armId: a.id, value: a.subScores[key].value, applicable: a.subScores[key].applicable })),
+      key, cells: result.arms.map((a) => ({ armId: a.id, value: subScoreOf(a.subScores, key).value, applicable: subScoreOf(a.subScores, key).applicable })),
     })),
   };
   return view;

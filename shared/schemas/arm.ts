@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { finite, nonNegative, positive, vec3, mat4 } from "./common";
+import { finite, labelText, nameText, nonNegative, positive, vec3, mat4 } from "./common";
 import { fmt, jointToDisplay, jointUnit } from "../units";
 import { armCapsuleSchema, MAX_BODY_SHAPES } from "./cell";
 
@@ -143,9 +143,9 @@ export type ArmSpecs = z.infer<typeof armSpecsSchema>;
 
 /** Identity fields (first in a stored document, as before the kinematics). */
 const armIdentityShape = {
-  name: z.string().trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
-  maker: z.string().trim().max(120).optional(),
-  modelCode: z.string().trim().max(60).optional(),
+  name: nameText(120),
+  maker: labelText(120).optional(),
+  modelCode: labelText(60).optional(),
   description: z.string().max(4000).optional(),
 };
 

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { finite, mat4, vec3 } from "./common";
+import { finite, mat4, nameText, vec3 } from "./common";
 
 /**
  * Collision geometry in the files (SI units, m; poses row-major 4×4).
@@ -37,7 +37,8 @@ export type ArmCapsule = z.infer<typeof armCapsuleSchema>;
 export const OBSTACLE_SHAPES = ["box", "sphere", "cylinder", "capsule"] as const;
 export type ObstacleShape = (typeof OBSTACLE_SHAPES)[number];
 
-const obstacleName = z.string().trim().min(1, "must not be empty").max(80, "must be at most 80 characters");
+/** Obstacle and shape names: shown to others, and listed comma-separated in contact lists. */
+const obstacleName = nameText(80).refine((s) => !s.includes(","), "must not contain a comma (contact lists separate names with commas)");
 
 export const boxObstacleSchema = z.object({
   name: obstacleName,
@@ -116,7 +117,7 @@ export type LegacyObstacle = z.infer<typeof legacyObstacleSchema>;
 export function convertLegacyObstacles(legacy: readonly LegacyObstacle[], taken: readonly string[]): Obstacle[] {
   const used = new Set(taken);
   return legacy.map((o, i) => {
-    let base = (o.name ?? "").trim() || `obstacle ${i + 1}`;
+    let base = (o.name ?? "").replace(/,/g, " ").replace(/\s+/g, " ").trim() || `obstacle ${i + 1}`;
     if (base.length > 76) base = base.slice(0, 76);
     let name = base;
     for (let k = 2; used.has(name); k++) name = `${base} (${k})`;

@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { finite, nonNegative, positive, vec3, mat4 } from "./common";
+import { finite, nameText, nonNegative, positive, vec3, mat4 } from "./common";
+import { SUB_SCORES, type SubScoreKey } from "../sub-scores";
 import { bodyShapeSchema, cellSchema, convertLegacyObstacles, DEFAULT_CLEARANCE, legacyObstacleSchema, MAX_BODY_SHAPES, type Cell } from "./cell";
 
 /**
@@ -18,10 +19,10 @@ export const CONSTRAINT_MODES = ["pose", "axis", "point"] as const;
 export type ConstraintMode = (typeof CONSTRAINT_MODES)[number];
 
 /** A list of obstacle names (checked against `cell.obstacles` by the requirement-set schema). */
-const contactSchema = z.array(z.string().trim().min(1, "must not be empty").max(80, "must be at most 80 characters")).max(50, "at most 50 names");
+const contactSchema = z.array(nameText(80)).max(50, "at most 50 names");
 
 export const targetSchema = z.object({
-  name: z.string().trim().min(1, "must not be empty").max(80),
+  name: nameText(80),
   /** Position of the TCP in the cell frame (m). */
   position: vec3,
   /** Roll, pitch, yaw (rad) about fixed X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll). */
@@ -47,7 +48,7 @@ export const waypointSchema = z.object({
 });
 
 export const pathSchema = z.object({
-  name: z.string().trim().min(1, "must not be empty").max(80),
+  name: nameText(80),
   /** Ordered waypoints, linearly interpolated (position linear, orientation by slerp). */
   waypoints: z.array(waypointSchema).min(2, "a path needs at least 2 waypoints").max(200),
   mode: z.enum(CONSTRAINT_MODES, { error: "must be pose, axis or point" }).default("axis"),
@@ -109,22 +110,17 @@ export const specRequirementSchema = z
   });
 export type SpecRequirement = z.infer<typeof specRequirementSchema>;
 
-/** Ranking weights (≥ 0, any scale; normalised by their sum when scoring). */
-export const weightsSchema = z.object({
-  coverage: nonNegative.default(4),
-  dexterity: nonNegative.default(2),
-  payload: nonNegative.default(1),
-  force: nonNegative.default(1),
-  pathSpeed: nonNegative.default(1),
-  price: nonNegative.default(1),
-});
-export type Weights = z.infer<typeof weightsSchema>;
-export const DEFAULT_WEIGHTS: Weights = { coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, price: 1 };
+/** Ranking weights (≥ 0, any scale; normalised by their sum when scoring), one per sub-score row. */
+export type Weights = Record<SubScoreKey, number>;
+export const weightsSchema = z.object(
+  Object.fromEntries(SUB_SCORES.rows.map((r) => [r.key, nonNegative.default(r.defaultWeight)])) as Record<SubScoreKey, z.ZodDefault<typeof nonNegative>>,
+);
+export const DEFAULT_WEIGHTS: Weights = { ...SUB_SCORES.defaultWeights };
 
 const toolShapes = z.array(bodyShapeSchema).max(MAX_BODY_SHAPES, `at most ${MAX_BODY_SHAPES} shapes`);
 
 const requirementSetObject = z.object({
-  name: z.string().trim().min(1, "must not be empty").max(120),
+  name: nameText(120),
   description: z.string().max(4000).optional(),
   /** Arm base pose in the cell frame, T_C_B (row-major 4×4). */
   base: mat4,
@@ -172,6 +168,12 @@ export const requirementSetSchema = requirementSetObject
     rs.targets.forEach((t, i) => {
       if (seen.has(t.name)) ctx.addIssue({ code: "custom", path: ["targets", i, "name"], message: `target name "${t.name}" is used twice (rows ${seen.get(t.name)! + 1} and ${i + 1})` });
       seen.set(t.name, i);
+    });
+    // Path names are unique too: comments are anchored to a path by its name.
+    const paths = new Map<string, number>();
+    rs.paths.forEach((p, i) => {
+      if (paths.has(p.name)) ctx.addIssue({ code: "custom", path: ["paths", i, "name"], message: `path name "${p.name}" is used twice (paths ${paths.get(p.name)! + 1} and ${i + 1})` });
+      paths.set(p.name, i);
     });
     const obstacles = new Map<string, number>();
     rs.cell.obstacles.forEach((o, i) => {

@@ -7,6 +7,7 @@ set -eu
 cd "$(dirname "$0")"
 /usr/bin/python3 kdl_fixtures.py
 /usr/bin/python3 analysis_reference.py
+/usr/bin/python3 axis_dexterity_reference.py
 tmp=$(mktemp -d)
 trap 'rm -rf "$tmp"' EXIT
 g++ -O2 -std=c++17 fcl_fixtures.cpp -I/usr/include/eigen3 -lfcl -lccd -o "$tmp/fcl_fixtures"

@@ -4,7 +4,7 @@ import { clientAddress, signInFailuresByEmail, signInFailuresByIp } from "@/lib/
 import { clearedSessionCookie, createSession, endRequestSession, getRequestUser, isHttps, sessionCookie } from "@/lib/auth/session";
 import type { SessionUser } from "@/lib/auth/permissions";
 import { createUser, findUserForSignIn, listUsers, normalizeEmail, setUserRole } from "@/lib/db";
-import { ROLES } from "@/shared/schemas";
+import { nameText, ROLES } from "@/shared/schemas";
 import { ApiError, unauthenticated } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { json, parseWith, requireUser, route, type RouteContext } from "@/lib/http/route";
@@ -13,7 +13,7 @@ const publicUser = (u: SessionUser) => ({ id: u.id, email: u.email, name: u.name
 
 const signUpBody = z.object({
   email: z.email({ error: "must be an email address" }).max(254, "must be at most 254 characters"),
-  name: z.string({ error: "must be text" }).trim().min(1, "must not be empty").max(80, "must be at most 80 characters"),
+  name: nameText(80),
   password: z.string({ error: "must be text" }).min(10, "must be at least 10 characters").max(1024, "must be at most 1024 characters"),
 });
 

@@ -104,10 +104,14 @@ export const resolveThread = route<CommentParams>(async (req, ctx) => {
 });
 
 export const commentRevisions = route<CommentParams>(async (req, ctx) => {
-  await requireUser(req, "comment:read");
+  const user = await requireUser(req, "comment:read");
   const { id, commentId } = await ctx.params;
-  await commentOf(id, commentId);
-  return json({ revisions: await listCommentRevisions(commentId) });
+  const c = await commentOf(id, commentId);
+  const revisions = (await listCommentRevisions(commentId)) ?? [];
+  if (c.deletedAt === null) return json({ revisions });
+  // A deleted comment's text stays readable to admins only; others see that versions existed.
+  if (can(user, "comment:read-deleted", { shortlistId: id })) return json({ revisions, deletedAt: c.deletedAt });
+  return json({ revisions: revisions.map((r) => ({ ...r, body: null })), deletedAt: c.deletedAt, bodiesHidden: true });
 });
 
 // ---- Share links (members) ----
