@@ -1,4 +1,5 @@
-import { z } from "zod";
+import type { z } from "zod";
+import { documentListQuery, documentUpdateInput } from "@/shared/schemas/documents";
 import type { Action } from "@/lib/auth/permissions";
 import type { DeletedFilter } from "@/lib/db";
 import { notFound } from "@/lib/http/errors";
@@ -26,9 +27,6 @@ export interface DocumentStore<D> {
   notices?(raw: unknown): string[];
 }
 
-const listQuery = z.object({
-  deleted: z.enum(["exclude", "include", "only"], { error: "must be include, only or exclude" }).optional(),
-});
 
 /** ASCII file name for an export, from the document's name. */
 function exportFileName(name: string, suffix: string): string {
@@ -38,10 +36,7 @@ function exportFileName(name: string, suffix: string): string {
 
 /** Route handlers for list/get/create/update/delete/restore/revisions/export/import of one kind. */
 export function documentRoutes<D extends { name: string }>(store: DocumentStore<D>) {
-  const updateBody = z.object({
-    baseRevision: z.number({ error: "must be the revision number your edit is based on" }).int("must be an integer").min(1, "must be ≥ 1"),
-    [store.key]: store.schema,
-  });
+  const updateBody = documentUpdateInput(store.key, store.schema);
   const missing = (id: string) => notFound(`${store.noun} ${id} does not exist`);
   const noticesOf = (raw: unknown): { notices?: string[] } => {
     const notices = store.notices?.(raw) ?? [];
@@ -51,7 +46,7 @@ export function documentRoutes<D extends { name: string }>(store: DocumentStore<
   return {
     list: route(async (req) => {
       await requireUser(req, store.read);
-      const q = parseWith(listQuery, Object.fromEntries(new URL(req.url).searchParams));
+      const q = parseWith(documentListQuery, Object.fromEntries(new URL(req.url).searchParams));
       return json({ [`${store.key === "arm" ? "arms" : "requirementSets"}`]: await store.list({ deleted: q.deleted }) });
     }),
 
