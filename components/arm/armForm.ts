@@ -3,10 +3,11 @@
  * The form shows mm, degrees, kg, N·m (N for prismatic), and keeps every value as typed text;
  * values that were loaded and not edited are sent back exactly as loaded (no rounding drift).
  */
-import { armSchema, type ArmDocument, type ArmSource, type Capsule, type ChainJointSpec, type Convention, type FieldError, type JointSpec, type Mounting } from "@/shared/schemas";
+import { armSchema, type ArmDocument, type ArmSource, type ChainJointSpec, type Convention, type FieldError, type JointSpec, type Mounting } from "@/shared/schemas";
 import { degToRad, jointFromDisplay, jointToDisplay, jointUnit, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { checkFormDoc } from "../formDoc";
 import { parseNum, parsePose, poseMatrix, poseTextFromMatrix, rowKey, samePose, show, isZeroPose, type PoseText } from "../pose";
+import { applyCollisionForm, capsuleRowsFromDoc, ignoredPairsText, type CapsuleRow } from "./collisionForm";
 
 export type JointType = "revolute" | "prismatic";
 export const JOINT_NUM_FIELDS = [
@@ -56,8 +57,6 @@ export interface JointRow {
   radius: string;
   /** Chain joints: inertia tensor as loaded (not edited in the form, kept on save). */
   inertia?: [number, number, number, number, number, number];
-  /** Collision capsules as loaded (not edited in this table, kept on save). */
-  collision?: Capsule[];
   /** Values as loaded: text shown and the SI value behind it, with the joint type then. */
   orig?: { type: JointType; values: Partial<Record<JointNumField, { text: string; si: number }>> };
 }
@@ -78,10 +77,11 @@ export interface ArmForm {
   joints: JointRow[];
   /** The file the arm was imported from (kept on save, not edited). */
   source?: ArmSource;
-  /** Base collision capsules as loaded (kept on save). */
-  baseCollision?: Capsule[];
   base: PoseText;
   tool: PoseText;
+  /** Collision capsules of the base and the links (one table) and the ignored pairs ("1-3, 2-4"). */
+  capsules: CapsuleRow[];
+  ignoredPairs: string;
   baseOrig?: { text: PoseText; matrix: number[] };
   toolOrig?: { text: PoseText; matrix: number[] };
   specs: {
@@ -240,6 +240,8 @@ export function emptyArmForm(): ArmForm {
     joints: [newJointRow()],
     base: { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" },
     tool: { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" },
+    capsules: [],
+    ignoredPairs: "",
     specs: {
       ratedPayload: "",
       reach: "",
@@ -311,7 +313,6 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
       if (v !== undefined) row.orig!.values[f] = { text, si: v };
     }
     if (ch?.inertia) row.inertia = [...ch.inertia];
-    if (j.collision) row.collision = structuredClone(j.collision);
     return row;
   });
   const s = doc.specs ?? {};
@@ -333,9 +334,10 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
     convention: doc.convention,
     joints,
     source: doc.source ? { ...doc.source } : undefined,
-    baseCollision: doc.baseCollision ? structuredClone(doc.baseCollision) : undefined,
     base,
     tool,
+    capsules: capsuleRowsFromDoc(doc),
+    ignoredPairs: ignoredPairsText(doc),
     baseOrig: doc.base ? { text: { ...base }, matrix: doc.base.slice() } : undefined,
     toolOrig: doc.tool ? { text: { ...tool }, matrix: doc.tool.slice() } : undefined,
     specs: {
@@ -428,7 +430,6 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
     const cz = get("comZ", `joints.${i}.com.2`);
     if (cx !== undefined || cy !== undefined || cz !== undefined) joint.com = [cx ?? 0, cy ?? 0, cz ?? 0];
     if (row.inertia && "origin" in joint) joint.inertia = [...row.inertia];
-    if (row.collision) joint.collision = structuredClone(row.collision);
     return joint;
   });
 
@@ -483,7 +484,6 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
     joints,
   } as ArmDocument;
   if (form.source) doc.source = { ...form.source };
-  if (form.baseCollision) doc.baseCollision = structuredClone(form.baseCollision);
   if (form.maker.trim()) doc.maker = form.maker.trim();
   if (form.modelCode.trim()) doc.modelCode = form.modelCode.trim();
   if (form.description.trim()) doc.description = form.description;
@@ -492,6 +492,7 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
   const tool = transform(form.tool, form.toolOrig, "tool");
   if (tool) doc.tool = tool;
   if (Object.keys(specs).length) doc.specs = specs;
+  applyCollisionForm(doc, form.capsules, form.ignoredPairs, errors);
   return { doc, errors };
 }
 
@@ -514,16 +515,30 @@ export function armPathLabel(path: string): string {
           ? "axis" + xyz(p[3])
           : p[2] === "origin"
             ? "origin" + (p[3] === "rpy" ? (p[4] !== undefined ? " " + (["roll", "pitch", "yaw"][Number(p[4])] ?? p[4]) : " rpy") : xyz(p[4]))
-            : (JOINT_LABEL as Record<string, string>)[p[2]] ?? p[2];
+            : p[2] === "collision"
+              ? `capsule${p[3] !== undefined ? ` ${Number(p[3]) + 1}` : "s"}${capsuleField(p.slice(4))}`
+              : (JOINT_LABEL as Record<string, string>)[p[2]] ?? p[2];
     return `joint ${n} ${f}`;
   }
   if (p[0] === "specs") {
     if (p[1] === "wristAllowables" && p.length >= 3) return `wrist row ${Number(p[2]) + 1}${p[3] ? " " + p[3] : ""}`;
     return SPEC_LABEL[p[1]] ?? p[1] ?? "specs";
   }
+  if (p[0] === "baseCollision") return `base capsule${p[1] !== undefined ? ` ${Number(p[1]) + 1}` : "s"}${capsuleField(p.slice(2))}`;
+  if (p[0] === "collision") return `capsule ${Number(p[1]) + 1}${p[2] ? " " + (CAPSULE_CELL_LABEL[p[2]] ?? p[2]) : ""}`;
+  if (p[0] === "ignoredPairs") return `ignored pair${p[1] !== undefined ? ` ${Number(p[1]) + 1}` : "s"}`;
   if (p[0] === "base") return "base transform";
   if (p[0] === "tool") return "tool transform";
   return p[0] === "modelCode" ? "model code" : p[0] || "arm";
+}
+
+const CAPSULE_CELL_LABEL: Record<string, string> = { link: "body", fx: "from x", fy: "from y", fz: "from z", tx: "to x", ty: "to y", tz: "to z", r: "radius" };
+
+/** " from x", " radius", … for the tail of a capsule's error path. */
+function capsuleField(rest: string[]): string {
+  if (rest.length === 0) return "";
+  const [f, k] = rest;
+  return ` ${f}${k !== undefined ? " " + ("xyz"[Number(k)] ?? k) : ""}`;
 }
 
 export { describeError } from "../formDoc";

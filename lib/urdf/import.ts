@@ -25,7 +25,8 @@
  *   the chain; more than 12 moving joints. Parts off the chain behind a moving joint (a gripper,
  *   a second arm) are skipped and listed.
  */
-import { MAX_CAPSULES, MAX_JOINTS, armSchema, type ArmDocument, type Capsule, type ChainJointSpec } from "@/shared/schemas/arm";
+import { MAX_JOINTS, armSchema, type ArmDocument, type Capsule, type ChainJointSpec } from "@/shared/schemas/arm";
+import { MAX_BODY_SHAPES } from "@/shared/schemas/cell";
 import { mulRigid, originFromMatrix, originMatrix, transformPointRigid } from "@/lib/kinematics/chain";
 import { quote, UrdfError } from "./errors";
 import { parseUrdf, type UrdfCollision, type UrdfJoint, type UrdfLink, type UrdfPose, type Vec3 } from "./parse";
@@ -350,8 +351,8 @@ export function importUrdf(text: string, options: UrdfImportOptions = {}): UrdfI
         (c.geometry.kind === "mesh" ? meshes : report.skipped).push(c.geometry.kind === "mesh" ? r.skip : `link ${quote(name)}: ${r.skip} collision shape`);
         continue;
       }
-      if (capsules[b].length >= MAX_CAPSULES) {
-        report.skipped.push(`link ${quote(name)}: collision shape beyond ${MAX_CAPSULES} for ${b === 0 ? "the base" : `link ${b}`}`);
+      if (capsules[b].length >= MAX_BODY_SHAPES) {
+        report.skipped.push(`link ${quote(name)}: collision shape beyond ${MAX_BODY_SHAPES} for ${b === 0 ? "the base" : `link ${b}`}`);
         continue;
       }
       capsules[b].push(r.capsule);
