@@ -26,7 +26,7 @@ writeFileSync(reqFile, JSON.stringify({
   specs: [{ field: "axes", comparator: "atLeast", value: 2, priority: "must" }, { field: "reach", comparator: "atLeast", value: 1, priority: "want" }],
 }));
 
-describe("command line: statics and analyze (DESIGN.md)", () => {
+describe("command line: statics and analyze (docs/cli.md)", { timeout: 60_000 }, () => {
   it("statics prints τ_hold, the force capacity, the payload capacity and the limiting joint", () => {
     // Source: Spong's planar elbow arm with g = 9.80665 (analysis_reference.py), q = (0, 0).
     const ref = REF.gravity2r.find((r: { g: number }) => r.g === 9.80665).rows[0];

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import {
   dexterityAt, isotropyDistance, jointLimitMargin, spdDistanceAffineInvariant, spdDistanceLogEuclidean,
-  dexterityMargin, structuralRanksFromJacobians, DEXTERITY_MARGINAL_THRESHOLD,
+  dexterityMargin, structuralRanksFromJacobians,
 } from "@/lib/analysis/dexterity";
 import { computeJacobian, createData, createModel } from "@/lib/kinematics";
 import { AXIS_REF, poseOf, REF } from "./fixtures";
@@ -123,7 +123,17 @@ describe("joint-limit margin and the dexterity margin", () => {
     expect(dexterityMargin(0.2, 0.2, 0.2, "pose")).toBeCloseTo(0.2, 12);
     expect(dexterityMargin(0.04, 1, 1, "point")).toBeCloseTo(0.2, 12);
     expect(dexterityMargin(1, 1, 0, "axis")).toBe(0);
-    expect(DEXTERITY_MARGINAL_THRESHOLD).toBe(0.2);
+  });
+  it("a reached pose is marginal exactly when D < 0.2 (the threshold of docs/design.md#dexterity)", () => {
+    // 2R arm, elbow from stretched to bent: D rises through 0.2, and `marginal` must flip there.
+    let seen = { below: false, above: false };
+    for (let deg = 1; deg <= 90; deg++) {
+      const q = [0, (deg * Math.PI) / 180];
+      const d = dexterityAt(jac2r(1, 1, q[0], q[1]), 2, limits2, q, "point", planarRanks);
+      expect(d.marginal).toBe(d.margin < 0.2);
+      seen = { below: seen.below || d.margin < 0.2, above: seen.above || d.margin >= 0.2 };
+    }
+    expect(seen).toEqual({ below: true, above: true });
   });
   it("catches a wrist singularity that neither block shows alone (reference six-axis arm)", () => {
     const model = createModel(REF.endToEnd.arm);
