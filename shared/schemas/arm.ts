@@ -3,7 +3,7 @@ import { finite, labelText, nameText, nonNegative, positive, vec3, mat4 } from "
 import { fmt, jointToDisplay, jointUnit } from "../units";
 
 /**
- * Arm model: the interchange format of DESIGN.md (SI units: m, rad, kg, N·m) plus identity and
+ * Arm model: the arm file of docs/formats.md#arm-file (SI units: m, rad, kg, N·m) plus identity and
  * datasheet specs. The kinematic part ({name, convention, joints, base, tool}) is exactly the
  * interchange arm JSON the command line reads; identity and specs are optional extras.
  */
