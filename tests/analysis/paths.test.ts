@@ -89,3 +89,31 @@ describe("path speed on a 2R arm (point mode)", () => {
     expect(ro.reason).toMatch(/not reached/);
   });
 });
+
+describe("a joint that would have to pass its limit: an unwinding, not a small step", () => {
+  // Planar 2R (invented): joint 1 limited to ±3.1 rad, the elbow kept on one side (q2 ∈ [0.5, 3]),
+  // and a line behind the base, where the tool's bearing passes ±π. Past q1 = 3.1 the only way on
+  // is the copy near −π: joint 1 must turn back almost a full turn. Source: the geometry itself.
+  const I4b = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+  const arm2 = armSchema.parse({
+    name: "2R behind", convention: "dh",
+    joints: [
+      { type: "revolute", a: 0.5, alpha: 0, d: 0, theta: 0, min: -3.1, max: 3.1, maxSpeed: 2 },
+      { type: "revolute", a: 0.1, alpha: 0, d: 0, theta: 0, min: 0.5, max: 3, maxSpeed: 2 },
+    ],
+  });
+  const cell = requirementSetSchema.parse({
+    name: "behind", base: I4b, tool: { tcp: I4b, mass: 0, cog: [0, 0, 0] }, payload: { mass: 0, cog: [0, 0, 0] }, targets: [], specs: [],
+    paths: [{ name: "behind", mode: "point", step: 0.01, speed: 0.1, waypoints: [{ position: [-0.55, 0.12, 0], rpy: [0, 0, 0] }, { position: [-0.55, -0.12, 0], rpy: [0, 0, 0] }] }],
+  });
+  const r2 = analyzePath(createArmContext(arm2, cell), cell.paths[0], DEFAULT_PATH_BUDGET, 5);
+
+  it("is reported as a flip of that joint and the path fails", () => {
+    const unwinding = r2.flips.find((f) => f.joint === 1);
+    expect(unwinding, r2.reason).toBeDefined();
+    expect(unwinding!.detail).toMatch(/joint 1 jumps 3\d\d\.\d°/);
+    expect(r2.verdict).toBe("fails");
+    // The joint values themselves stay within the limits at every sample.
+    for (const q of r2.q) if (q) expect(Math.abs(q[0])).toBeLessThanOrEqual(3.1 + 1e-12);
+  });
+});
