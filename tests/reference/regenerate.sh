@@ -9,8 +9,10 @@ cd "$(dirname "$0")"
 /usr/bin/python3 kdl_fixtures.py
 /usr/bin/python3 analysis_reference.py
 /usr/bin/python3 axis_dexterity_reference.py
-# Path speed: the product writes the sampled configurations, KDL and HiGHS answer them.
-(cd ../.. && npx --no-install tsx tests/reference/path_speed_cases.ts)
+# Path speed: the product writes the sampled configurations, KDL and HiGHS answer them (needs the
+# repository's node_modules; installed from the lockfile when missing, as npm test would).
+[ -x ../../node_modules/.bin/tsx ] || (cd ../.. && npm ci --no-audit --no-fund)
+(cd ../.. && node_modules/.bin/tsx tests/reference/path_speed_cases.ts)
 /usr/bin/python3 path_speed_reference.py
 tmp=$(mktemp -d)
 trap 'rm -rf "$tmp"' EXIT
