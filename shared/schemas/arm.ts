@@ -4,7 +4,7 @@ import { fmt, jointToDisplay, jointUnit } from "../units";
 import { armCapsuleSchema, MAX_BODY_SHAPES } from "./cell";
 
 /**
- * Arm model: the interchange format of DESIGN.md (SI units: m, rad, kg, N·m) plus identity and
+ * Arm model: the arm file of docs/formats.md#arm-file (SI units: m, rad, kg, N·m) plus identity and
  * datasheet specs. The kinematic part ({name, convention, joints, base, tool}) is exactly the
  * interchange arm JSON the command line reads; identity and specs are optional extras.
  */
