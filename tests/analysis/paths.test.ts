@@ -20,7 +20,7 @@ const req = requirementSetSchema.parse({
   paths: [{ name: "line", mode: "point", step: 0.01, speed: SPEED, waypoints: [{ position: P0, rpy: [0, 0, 0] }, { position: P1, rpy: [0, 0, 0] }] }],
 });
 
-/** Closed-form 2R inverse kinematics (both elbows) and q̇ = J⁻¹ v (Craig ch. 4–5; REFERENCES.md §7 Jacobian). */
+/** Closed-form 2R inverse kinematics (both elbows) and q̇ = J⁻¹ v (Craig ch. 4–5; the 2R Jacobian of docs/references.md#2r-dexterity-check-values). */
 function closedForm(x: number, y: number, elbow: 1 | -1) {
   const c2 = (x * x + y * y - L1 * L1 - L2 * L2) / (2 * L1 * L2);
   const q2 = elbow * Math.acos(c2);
