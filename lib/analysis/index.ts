@@ -15,3 +15,4 @@ export * from "./workspace";
 export * from "./shortlist";
 export { createArmContext, type ArmContext } from "./context";
 export * from "./copies";
+export * from "./speed";

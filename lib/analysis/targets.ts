@@ -32,7 +32,7 @@ export interface TargetBudget {
   /**
    * Restarts of a second, single-branch search run only when the first found no solution and the
    * target is not beyond the arm's largest possible reach. A numerical search that gives up is not
-   * proof that a pose is unreachable (REFERENCES.md §1.1: single-seed solvers miss 2–79 % of
+   * proof that a pose is unreachable (docs/references.md#ik-solver-benchmarks: single-seed solvers miss 2–79 % of
    * reachable targets), so a "not reached" verdict is only given after this larger budget.
    */
   escalatedRestarts: number;

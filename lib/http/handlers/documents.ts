@@ -24,6 +24,8 @@ export interface DocumentStore<D> {
   restore(userId: string, id: string): Promise<{ id: string; deletedAt: Date | null }>;
   revisions(id: string): Promise<unknown[] | null>;
   revision(id: string, rev: number): Promise<{ revision: number; createdAt: Date; author: unknown; doc: D } | null>;
+  /** What the schema converted in a document as sent (e.g. an earlier form of a field); shown to the sender. */
+  notices?(raw: unknown): string[];
 }
 
 
@@ -31,6 +33,10 @@ export interface DocumentStore<D> {
 export function documentRoutes<D extends { name: string }>(store: DocumentStore<D>) {
   const updateBody = documentUpdateInput(store.key, store.schema);
   const missing = (id: string) => notFound(`${store.noun} ${id} does not exist`);
+  const noticesOf = (raw: unknown): { notices?: string[] } => {
+    const notices = store.notices?.(raw) ?? [];
+    return notices.length ? { notices } : {};
+  };
 
   return {
     list: route(async (req) => {
@@ -41,16 +47,18 @@ export function documentRoutes<D extends { name: string }>(store: DocumentStore<
 
     create: route(async (req) => {
       const user = await requireUser(req, store.write);
-      const doc = parseWith(store.schema, await readJsonObject(req));
+      const raw = await readJsonObject(req);
+      const doc = parseWith(store.schema, raw);
       const r = await store.create(user.id, doc, "create");
-      return json({ id: r.id, revision: r.revision, [store.key]: r.doc }, 201);
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc, ...noticesOf(raw) }, 201);
     }),
 
     import: route(async (req) => {
       const user = await requireUser(req, store.write);
-      const doc = parseWith(store.schema, await readJsonObject(req));
+      const raw = await readJsonObject(req);
+      const doc = parseWith(store.schema, raw);
       const r = await store.create(user.id, doc, "import");
-      return json({ id: r.id, revision: r.revision, [store.key]: r.doc }, 201);
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc, ...noticesOf(raw) }, 201);
     }),
 
     get: route<{ id: string }>(async (req, ctx) => {
