@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: runs the kinematics benchmark, then the analysis benchmark when
- * bench/analysis.ts exists, then the shortlist page benchmark (each module exports `async function run()`).
+ * bench/analysis.ts exists, then the shortlist page benchmark and the 3-D view benchmark (chunk sizes,
+ * frame time) (each module exports `async function run()`).
  */
 import { existsSync } from "node:fs";
 import path from "node:path";
@@ -15,6 +16,7 @@ async function main(): Promise<void> {
     if (typeof mod.run === "function") await mod.run();
   }
   await (await import("./page")).run();
+  await (await import("./view")).run();
 }
 
 main().catch((e: unknown) => {

@@ -11,6 +11,7 @@ import { formatArmValue } from "./format";
 import { JointTable } from "./JointTable";
 import { DhPastePanel } from "./DhPastePanel";
 import { RemoveRowCell } from "../RowControls";
+import { ArmViewPanel } from "../view3d/launchers";
 
 interface Props {
   /** Arm id when editing an existing arm; absent for a new one. */
@@ -124,6 +125,12 @@ export function ArmEditor(props: Props) {
           readOnly={readOnly}
         />
       </div>
+
+      <fieldset className="panel">
+        <legend>3-D view</legend>
+        <p className="hint">The arm as the table and transforms stand, posed by a slider per joint: check link directions, offsets and axis signs against the datasheet drawing.</p>
+        <ArmViewPanel form={form} />
+      </fieldset>
 
       <fieldset className="panel">
         <legend>Datasheet specs</legend>

@@ -9,6 +9,7 @@ import { WEIGHT_KEYS, WEIGHT_LABEL, emptyReqForm, formatReqValue, reqFormFromDoc
 import { TargetTable } from "./TargetTable";
 import { PathEditor } from "./PathEditor";
 import { SpecTable } from "./SpecTable";
+import { CellViewPanel } from "../view3d/launchers";
 
 interface Props {
   id?: string;
@@ -126,6 +127,12 @@ export function RequirementEditor(props: Props) {
       <fieldset className="panel">
         <legend>Paths</legend>
         <PathEditor paths={form.paths} errors={errMap} readOnly={readOnly} onChange={(paths, s) => update({ paths }, s)} />
+      </fieldset>
+
+      <fieldset className="panel">
+        <legend>3-D view of the cell</legend>
+        <p className="hint">The arm base placement, the targets as frames with their names, the paths with their direction, and the obstacles, as the form stands.</p>
+        <CellViewPanel form={form} />
       </fieldset>
 
       <fieldset className="panel">

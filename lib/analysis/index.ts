@@ -12,4 +12,4 @@ export * from "./targets";
 export * from "./paths";
 export * from "./workspace";
 export * from "./shortlist";
-export { createArmContext, type ArmContext } from "./context";
+export { createArmContext, placedArmKinematics, type ArmContext } from "./context";

@@ -3,7 +3,7 @@ import { weightsSchema, type Weights } from "@/shared/schemas/requirements";
 import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import {
-  createShortlist, getRun, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
+  createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
 } from "@/lib/db/shortlists";
 import { startRunProcess } from "@/lib/jobs/analysis-runner";
 import { complianceTable, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
@@ -63,6 +63,16 @@ export const runStatus = route<{ id: string; runId: string }>(async (req, ctx) =
   await requireUser(req, "shortlist:read");
   const { id, runId } = await ctx.params;
   return json({ run: await runOf(id, runId) });
+});
+
+const viewQuery = z.object({ arm: z.string().min(1, "must name an arm of the run").max(100) });
+
+/** One arm of a finished run with the pinned documents: what the 3-D view of the shortlist page draws. */
+export const runArmView = route<{ id: string; runId: string }>(async (req, ctx) => {
+  await requireUser(req, "shortlist:read");
+  const { id, runId } = await ctx.params;
+  const q = parseWith(viewQuery, Object.fromEntries(new URL(req.url).searchParams));
+  return json(await getRunArmView(id, runId, q.arm));
 });
 
 /** `coverage:4,dexterity:2,…` → weights (missing keys keep the stored ones). */
