@@ -32,7 +32,7 @@ function armCount() {
     conn.close();
   }
 }
-if (armCount() === 0) mustRun("seed the demo data", bin("tsx"), [path.join(root, "scripts", "seed.ts")], env);
+if (armCount() === 0) mustRun("seed the demo data", bin("tsx"), ["--conditions=react-server", path.join(root, "scripts", "seed.ts")], env);
 
 /** Newest modification time of the files that go into the build. */
 function newestSource() {

@@ -15,6 +15,7 @@ import {
   type SpecField,
   type Weights,
 } from "@/shared/schemas";
+import { SUB_SCORES } from "@/shared/sub-scores";
 import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { checkFormDoc } from "../formDoc";
 import { matrixPose, parseNum, poseMatrix, rowKey, show, type PoseText } from "../pose";
@@ -56,15 +57,9 @@ export interface SpecRow {
   note: string;
 }
 export type WeightKey = keyof Weights;
-export const WEIGHT_KEYS: WeightKey[] = ["coverage", "dexterity", "payload", "force", "pathSpeed", "price"];
-export const WEIGHT_LABEL: Record<WeightKey, string> = {
-  coverage: "Target coverage",
-  dexterity: "Dexterity margin",
-  payload: "Payload margin",
-  force: "Force margin",
-  pathSpeed: "Path speed",
-  price: "Price",
-};
+/** One weight field per row of the sub-score table (shared/sub-scores.ts), labelled by it. */
+export const WEIGHT_KEYS: readonly WeightKey[] = SUB_SCORES.keys;
+export const WEIGHT_LABEL: Readonly<Record<WeightKey, string>> = SUB_SCORES.label;
 
 export interface ReqForm {
   name: string;

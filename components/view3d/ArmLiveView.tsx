@@ -7,7 +7,7 @@
 import { useMemo, useState } from "react";
 import { poseRpy } from "@/shared/pose";
 import { jointToDisplay, jointUnit } from "@/shared/units";
-import type { ArmDocument } from "@/shared/schemas/arm";
+import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
 import { armFormToDoc, type ArmForm } from "../arm/armForm";
 import { createRig, homeConfiguration, poseArm, originOf, type ArmRig } from "./scene";
 import { mmText, ViewShell } from "./ViewShell";
@@ -18,7 +18,7 @@ const KEEPS = "The joint table and the transforms above are unchanged.";
 function rigOf(doc: ArmDocument, formErrors: string[]): { rig: ArmRig | null; problem: string | null } {
   if (formErrors.length) return { rig: null, problem: formErrors[0] };
   try {
-    return { rig: createRig({ name: doc.name, convention: doc.convention, joints: doc.joints, base: doc.base, tool: doc.tool }), problem: null };
+    return { rig: createRig(kinematicsOf(doc)), problem: null };
   } catch (e) {
     return { rig: null, problem: e instanceof Error ? e.message : String(e) };
   }
@@ -132,8 +132,14 @@ export default function ArmLiveView({ form }: { form: ArmForm }) {
         keeps={KEEPS}
         legend={
           <>
-            <li>Links: rods from joint to joint along the table (d along z, then a along x){figure.capsules.length ? "; capsules where a collision radius is given" : ""}.</li>
-            <li>Joints: amber cylinders (revolute) or blocks (prismatic) along each joint axis, numbered 1–{rig.model.n}; the small frame at each is the frame whose z is that axis.</li>
+            <li>
+              Links: rods from joint to joint{rig.model.convention === "chain" ? ", straight from each link frame's origin to the next" : " along the table (d along z, then a along x)"}
+              {figure.capsules.length ? "; capsules where a collision radius is given" : ""}.
+            </li>
+            <li>
+              Joints: amber cylinders (revolute) or blocks (prismatic) along each joint axis, numbered 1–{rig.model.n}; the small frame at each is{" "}
+              {rig.model.convention === "chain" ? "the link frame the axis is given in" : "the frame whose z is that axis"}.
+            </li>
             <li>Tool point {mmText(Math.hypot(...originOf(figure.tool)))} from the base origin.</li>
           </>
         }

@@ -9,7 +9,9 @@
 import { useEffect, useMemo, useState } from "react";
 import { placedArmKinematics } from "@/lib/analysis/context";
 import { poseFromRpy, transformPoint } from "@/lib/analysis/geometry";
-import type { RunArmView } from "@/lib/db/shortlists";
+import type { ArmAnalysis } from "@/lib/analysis/shortlist";
+import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
+import type { RequirementSet } from "@/shared/schemas/requirements";
 import { api } from "../api";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
 import { cellObstacles } from "./cell";
@@ -25,6 +27,16 @@ export interface SolutionViewProps {
   armName: string;
 }
 
+/** GET /api/shortlists/{id}/runs/{runId}/view?arm=ID: one arm of a finished run with the documents it was pinned to. */
+interface RunArmView {
+  runId: string;
+  armId: string;
+  revision: number;
+  arm: ArmDocument;
+  requirementSet: RequirementSet;
+  analysis: ArmAnalysis;
+}
+
 type Loaded = { view: RunArmView; rig: ArmRig } | { error: string };
 
 export default function SolutionView(props: SolutionViewProps) {
@@ -37,7 +49,7 @@ export default function SolutionView(props: SolutionViewProps) {
       if (!r.ok) return setLoaded({ error: r.error.message });
       try {
         const v = r.data;
-        setLoaded({ view: v, rig: createRig(placedArmKinematics(v.arm, v.requirementSet), v.requirementSet.base) });
+        setLoaded({ view: v, rig: createRig(placedArmKinematics(kinematicsOf(v.arm), v.requirementSet), v.requirementSet.base) });
       } catch (e) {
         setLoaded({ error: `the arm cannot be drawn: ${e instanceof Error ? e.message : String(e)}` });
       }

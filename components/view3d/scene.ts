@@ -8,7 +8,7 @@
  * the files. On the shortlist page and in the requirement-set editor the world is the cell frame;
  * in the arm editor it is the arm's own base frame (the frame the arm file's `base` is given in).
  */
-import { createData, createModel, forwardKinematics, neutralConfiguration, type ArmData, type ArmKinematics, type ArmModel } from "@/lib/kinematics";
+import { createData, createModel, forwardKinematics, jointAxisWorld, neutralConfiguration, type ArmData, type ArmKinematics, type ArmModel } from "@/lib/kinematics";
 import type { Verdict } from "@/lib/analysis/types";
 
 export type Vec3 = [number, number, number];
@@ -30,10 +30,13 @@ export interface JointMark {
   /** 1-based joint number. */
   number: number;
   type: "revolute" | "prismatic";
-  /** A point on the joint axis (m) and the axis direction (unit). */
+  /** A point on the joint axis (m) and the axis direction (unit), world frame. */
   origin: Vec3;
   axis: Vec3;
-  /** The frame whose z axis is this joint's axis (row-major 4×4). */
+  /**
+   * The frame the joint's axis is fixed in (row-major 4×4): for `dh` and `mdh` arms the frame
+   * whose z axis is the joint axis; for `chain` arms the link frame after the joint.
+   */
   frame: Pose;
 }
 
@@ -86,8 +89,10 @@ export function homeConfiguration(rig: ArmRig): number[] {
  * The stick figure follows the table: for `dh` (link i = Rz(θ)·Tz(d)·Tx(a)·Rx(α)) it runs from
  * frame i−1 along its z axis by d to the point m = oᵢ − aᵢ·xᵢ, then along xᵢ by a to frame i; for
  * `mdh` (link i = Rx(α)·Tx(a)·Rz(θ)·Tz(d)) from frame i−1 along xᵢ₋₁ by a, then along zᵢ by d. So
- * a sign or an offset error in the table shows as a link that points the wrong way. Joint i's
- * axis is the z axis of frame i−1 (`dh`) or frame i (`mdh`), as the model states.
+ * a sign or an offset error in the table shows as a link that points the wrong way. `chain` arms
+ * (origin and axis per joint) are drawn straight from each link frame's origin to the next. The
+ * joint axes come from the model's per-joint frames (`jointAxisWorld`): z of frame i−1 (`dh`) or
+ * frame i (`mdh`), the joint's own axis in link frame i (`chain`).
  */
 export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
   const { model, data } = rig;
@@ -97,6 +102,7 @@ export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
   const segments: [Vec3, Vec3][] = [];
   const capsules: CapsuleMark[] = [];
   const joints: JointMark[] = [];
+  const axisBuf = new Float64Array(6);
   const mountOrigin = originOf(rig.mount);
   const o0 = originOf(f, 0);
   if (norm(sub(o0, mountOrigin)) > 1e-9) segments.push([mountOrigin, o0]);
@@ -105,7 +111,9 @@ export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
     const cur = originOf(f, 16 * i);
     const mid = model.convention === "dh"
       ? add(cur, axisOf(f, 0, 16 * i), -model.a[i - 1])
-      : add(prev, axisOf(f, 0, 16 * (i - 1)), model.a[i - 1]);
+      : model.convention === "mdh"
+        ? add(prev, axisOf(f, 0, 16 * (i - 1)), model.a[i - 1])
+        : prev;
     const pieces: [Vec3, Vec3][] = [];
     if (norm(sub(mid, prev)) > 1e-9) pieces.push([prev, mid]);
     if (norm(sub(cur, mid)) > 1e-9) pieces.push([mid, cur]);
@@ -113,7 +121,8 @@ export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
     const r = model.radius[i - 1];
     if (r > 0) for (const [a, b] of pieces) capsules.push({ link: i, from: a, to: b, radius: r });
     const k = i - 1 + model.axisFrameOffset;
-    joints.push({ number: i, type: model.types[i - 1], origin: originOf(f, 16 * k), axis: axisOf(f, 2, 16 * k), frame: slice16(f, 16 * k) });
+    jointAxisWorld(model, data, i, axisBuf);
+    joints.push({ number: i, type: model.types[i - 1], origin: [axisBuf[3], axisBuf[4], axisBuf[5]], axis: [axisBuf[0], axisBuf[1], axisBuf[2]], frame: slice16(f, 16 * k) });
   }
   const flange = slice16(data.flange);
   const tool = slice16(data.toolPose);

@@ -7,7 +7,7 @@
  * every Jacobian is expressed in the cell frame with gravity along −z of the cell (a tilted or
  * hanging base therefore gets the right gravity direction).
  */
-import type { ArmDocument, ArmKinematics } from "@/shared/schemas/arm";
+import { kinematicsOf, type ArmDocument, type ArmKinematics } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { computeJacobian, createData, createModel, createRng, randomConfiguration, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
@@ -42,13 +42,13 @@ export interface ArmContext {
 export function placedArmKinematics(arm: ArmKinematics, req: Pick<RequirementSet, "base" | "tool">): ArmKinematics {
   const base = mul4(req.base, arm.base ?? IDENTITY_4);
   const tool = mul4(arm.tool ?? IDENTITY_4, req.tool.tcp);
-  return { name: arm.name, convention: arm.convention, joints: arm.joints, base: Array.from(base), tool: Array.from(tool) };
+  return { name: arm.name, convention: arm.convention, joints: arm.joints, base: Array.from(base), tool: Array.from(tool) } as ArmKinematics;
 }
 
 /** Builds the context; throws RangeError (from createModel) on an invalid arm. */
 export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1): ArmContext {
   const tcp = Float64Array.from(req.tool.tcp);
-  const model = createModel(placedArmKinematics(arm, req));
+  const model = createModel(placedArmKinematics(kinematicsOf(arm), req));
   const data = createData(model);
   const jac = new Float64Array(6 * model.n);
   const tcpInverse = invertRigid(tcp);
@@ -58,10 +58,11 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   if (req.payload.mass > 0) loads.push({ mass: req.payload.mass, pointInTool: req.payload.cog });
   const rng = createRng(seed);
   const q = new Float64Array(model.n);
-  const jacs: Float64Array[] = [];
+  const jacs: Float64Array[] = [], toolPoses: Float64Array[] = [];
   for (let i = 0; i < 6; i++) {
     randomConfiguration(model, rng, q);
     jacs.push(Float64Array.from(computeJacobian(model, data, q, jac)));
+    toolPoses.push(Float64Array.from(data.toolPose));
   }
   let hasTorqueLimits = false, hasSpeedLimits = false;
   for (let i = 0; i < model.n; i++) {
@@ -69,7 +70,7 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
     if (model.maxSpeed[i] > 0) hasSpeedLimits = true;
   }
   return {
-    model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n), toolCogInTcp, loads,
+    model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n, toolPoses), toolCogInTcp, loads,
     loadMass: req.tool.mass + req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
   };
 }

@@ -1,3 +1,4 @@
+import "server-only";
 import path from "node:path";
 import { PrismaBetterSQLite3 } from "@prisma/adapter-better-sqlite3";
 import { PrismaClient } from "./generated/client";
@@ -113,4 +114,9 @@ export function db(): Db {
   }
   instance ??= createDb();
   return instance;
+}
+
+/** Closes this process's client (scripts call it before they exit). */
+export async function disconnectDb(): Promise<void> {
+  await db().$disconnect();
 }

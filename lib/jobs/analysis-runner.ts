@@ -1,6 +1,6 @@
 /**
  * Runs shortlist analyses outside the web server's request thread: the route that asks for a run
- * starts a detached `tsx scripts/run-analysis.ts <runId>` process, which reads the pinned inputs
+ * starts a detached `tsx --conditions=react-server scripts/run-analysis.ts <runId>` process, which reads the pinned inputs
  * from the database, analyses them and stores the result (or the reason it failed). Progress and a
  * heartbeat are written while the (synchronous, CPU-bound) analysis runs, at most every 200 ms.
  */
@@ -8,9 +8,12 @@ import { spawn } from "node:child_process";
 import { existsSync } from "node:fs";
 import path from "node:path";
 import { analyzeShortlist } from "@/lib/analysis/shortlist";
-import { databaseUrl } from "@/lib/db/client";
-import { openProgressWriter } from "@/lib/db/analysis-progress";
-import { claimRun, failRun, finishRun, getRun, loadPinnedInputs } from "@/lib/db/shortlists";
+import { databaseUrl } from "@/lib/db";
+import { openProgressWriter } from "@/lib/db";
+import { claimRun, failRun, finishRun, getRun, loadPinnedInputs } from "@/lib/db";
+
+/** The data layer is server-only: its processes resolve `server-only` as the server does. */
+export const SERVER_CONDITION = "--conditions=react-server";
 
 /** Least time between two progress writes (ms). */
 export const PROGRESS_INTERVAL_MS = 200;
@@ -62,7 +65,7 @@ export async function startRunProcess(runId: string, root: string = process.cwd(
     return;
   }
   try {
-    const child = spawn(tsx, [script, runId], {
+    const child = spawn(tsx, [SERVER_CONDITION, script, runId], {
       cwd: root,
       env: { ...process.env, DATABASE_URL: databaseUrl(), NODE_ENV: "production" },
       detached: true,

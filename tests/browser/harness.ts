@@ -10,6 +10,7 @@ import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
+import { buildIsStale } from "../helpers/build-freshness";
 
 const ROOT = path.resolve(__dirname, "..", "..");
 const CHROMIUM = "/usr/bin/chromium";
@@ -41,9 +42,9 @@ function freePort(): Promise<number> {
   });
 }
 
-/** Builds the production server once if no build exists (npm test builds before this project). */
+/** Builds the production server when it is missing or older than the sources (`npm test` builds first). */
 export function ensureBuild(): void {
-  if (existsSync(path.join(ROOT, ".next", "BUILD_ID"))) return;
+  if (!buildIsStale(ROOT)) return;
   run(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, "next build");
 }
 
@@ -76,7 +77,7 @@ export async function startHarness(): Promise<Harness> {
   const dbPath = path.join(dir, "armsift.db");
   const env: NodeJS.ProcessEnv = { ...process.env, ARMSIFT_DB: dbPath, DATABASE_URL: `file:${dbPath}`, NEXT_TELEMETRY_DISABLED: "1" };
   run(process.execPath, [path.join(ROOT, "scripts", "prisma.mjs"), "migrate", "deploy"], env, "migrate deploy");
-  run(path.join(ROOT, "node_modules", ".bin", "tsx"), [path.join(ROOT, "scripts", "seed.ts")], env, "seed");
+  run(path.join(ROOT, "node_modules", ".bin", "tsx"), ["--conditions=react-server", path.join(ROOT, "scripts", "seed.ts")], env, "seed");
 
   const port = await freePort();
   const logPath = path.join(dir, "server.log");

@@ -13,7 +13,7 @@ import type { ShortlistAnalysis } from "@/lib/analysis";
 import { createData, createModel, forwardKinematics } from "@/lib/kinematics";
 import { poseFromRpy } from "@/lib/analysis/geometry";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
-import type { ArmDocument } from "@/shared/schemas/arm";
+import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { signIn, signUp, startHarness, type Browser, type Harness, type TrackedPage } from "./harness";
 
@@ -252,7 +252,7 @@ describe("3-D views", () => {
     const canvas = frame.getByTestId("view3d-canvas");
     await expect.poll(() => toolFrame(canvas)).not.toBeNull();
     const doc = seedArms.get(name)!;
-    const model = createModel({ name: doc.name, convention: doc.convention, joints: doc.joints, base: doc.base, tool: doc.tool });
+    const model = createModel(kinematicsOf(doc));
     const data = createData(model);
     const fk = (q: number[]) => {
       forwardKinematics(model, data, q);
@@ -283,7 +283,9 @@ describe("3-D views", () => {
     // Editing the table redraws the arm: a longer first offset moves the tool point up by as much.
     const d1 = frame.page().getByLabel("joint 1 d (mm)", { exact: true });
     const zBefore = (await toolFrame(canvas))![11];
-    await d1.fill(String(doc.joints[0].d * 1000 + 100));
+    const j1 = doc.joints[0];
+    if (!("d" in j1)) throw new Error(`${name} is expected to be a DH arm`);
+    await d1.fill(String(j1.d * 1000 + 100));
     await expect.poll(async () => (await toolFrame(canvas))![11] - zBefore).toBeCloseTo(doc.base ? doc.base[10] * 0.1 : 0.1, 9);
     expect(t.errors()).toEqual([]);
   });

@@ -9,7 +9,8 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import type { ArmKinematics } from "@/lib/kinematics";
+import { dhToChain, type ArmKinematics, type DhArmKinematics } from "@/lib/kinematics";
+import { kinematicsOf } from "@/shared/schemas/arm";
 import { createArmContext, placedArmKinematics } from "@/lib/analysis/context";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { axisOf, bounds, createRig, forceScale, gridStep, homeConfiguration, niceStep, originOf, pathMarks, pointAtArcLength, poseArm, type Vec3 } from "@/components/view3d/scene";
@@ -30,8 +31,14 @@ const dot = (a: Vec3, b: Vec3) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 const len = (a: Vec3) => Math.hypot(...a);
 
 describe("3-D view: the drawn arm against Orocos KDL", () => {
-  for (const c of fixture.cases) {
-    it(`${c.arm.name}: tool frame, joint axes and axis points`, () => {
+  // Each DH case as its table and as the equivalent general chain (origin + axis per joint): both
+  // are drawn from the model's per-joint frames and must match KDL's answer for the table.
+  const cases = fixture.cases.flatMap((c) => [
+    { ...c, label: c.arm.name, arm: c.arm },
+    { ...c, label: `${c.arm.name} as a chain`, arm: dhToChain(c.arm as DhArmKinematics) as ArmKinematics },
+  ]);
+  for (const c of cases) {
+    it(`${c.label}: tool frame, joint axes and axis points`, () => {
       const rig = createRig(c.arm);
       const n = rig.model.n;
       c.configs.forEach((q, k) => {
@@ -49,8 +56,9 @@ describe("3-D view: the drawn arm against Orocos KDL", () => {
             expect(maxDiff(j.axis, lin)).toBeLessThan(1e-9);
             expect(len(ang)).toBeLessThan(1e-12);
           }
-          // The frame drawn for the joint has that axis as its z axis.
-          expect(maxDiff(axisOf(j.frame, 2), j.axis)).toBeLessThan(1e-15);
+          // A DH joint's frame has the joint axis as its z axis; a chain joint's axis passes through its link frame's origin.
+          if (c.arm.convention === "chain") expect(maxDiff(originOf(j.frame), j.origin)).toBeLessThan(1e-15);
+          else expect(maxDiff(axisOf(j.frame, 2), j.axis)).toBeLessThan(1e-15);
         });
         expect(fig.joints.map((j) => j.number)).toEqual(Array.from({ length: n }, (_, i) => i + 1));
       });
@@ -61,6 +69,7 @@ describe("3-D view: the drawn arm against Orocos KDL", () => {
 describe("3-D view: the stick figure follows the DH table", () => {
   it("runs |d| along z and |a| along x between consecutive frames (both conventions, prismatic q in d)", () => {
     for (const c of fixture.cases) {
+      if (c.arm.convention === "chain") continue;
       const rig = createRig(c.arm);
       const m = rig.model;
       const q = c.configs[0];
@@ -94,8 +103,8 @@ describe("3-D view: the stick figure follows the DH table", () => {
   });
 
   it("draws capsules only where a collision radius is given", () => {
-    const arm = loadSeedArms()[0];
-    const rig = createRig({ ...arm, joints: arm.joints.map((j, i) => ({ ...j, radius: i === 1 ? 0.05 : undefined })) });
+    const arm = kinematicsOf(loadSeedArms()[0]);
+    const rig = createRig({ ...arm, joints: arm.joints.map((j, i) => ({ ...j, radius: i === 1 ? 0.05 : undefined })) } as ArmKinematics);
     const fig = poseArm(rig, homeConfiguration(rig));
     expect(fig.capsules.length).toBeGreaterThan(0);
     expect(fig.capsules.every((c) => c.link === 2 && c.radius === 0.05)).toBe(true);
@@ -108,7 +117,7 @@ describe("3-D view: the shortlist view places the arm as the analysis does", () 
     for (const arm of loadSeedArms()) {
       for (const req of sets) {
         const ctx = createArmContext(arm, req);
-        const rig = createRig(placedArmKinematics(arm, req), req.base);
+        const rig = createRig(placedArmKinematics(kinematicsOf(arm), req), req.base);
         expect(Array.from(rig.model.base)).toEqual(Array.from(ctx.model.base));
         expect(Array.from(rig.model.tool)).toEqual(Array.from(ctx.model.tool));
         const q = homeConfiguration(rig);

@@ -9,6 +9,7 @@ import { call, type Body } from "../api/client";
 import { sampleArm, sampleRequirementSet } from "../db/helpers";
 import { createFixture, ROLES, type Fixture, type MemberRole, type Role } from "./fixtures";
 import { discoverRoutes, discoverServerActions, type Method } from "./routes";
+import { deleteComment } from "@/lib/db";
 import { commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
 
 type Expect = "ok" | 401 | 403 | 404;
@@ -106,6 +107,15 @@ const ROWS: Row[] = [
   {
     route: "shortlists/[id]/comments/[commentId]/revisions", method: "GET", expect: READ,
     request: async (f) => ({ params: { id: f.shortlistId, commentId: await f.freshComment(f.editor2) } }),
+  },
+  {
+    // Members get the versions; only admins get a deleted comment's bodies (deleted-comments.test.ts).
+    route: "shortlists/[id]/comments/[commentId]/revisions", method: "GET", variant: "a deleted comment", expect: READ,
+    request: async (f) => {
+      const commentId = await f.freshComment(f.editor2);
+      await deleteComment(f.editor2, commentId);
+      return { params: { id: f.shortlistId, commentId } };
+    },
   },
   // Share links: editors manage the links they made, admins all.
   { route: "shortlists/[id]/links", method: "GET", expect: WRITE, request: (f) => ({ params: sl(f) }) },

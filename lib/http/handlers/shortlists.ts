@@ -4,7 +4,7 @@ import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import {
   createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
-} from "@/lib/db/shortlists";
+} from "@/lib/db";
 import { startRunProcess } from "@/lib/jobs/analysis-runner";
 import { complianceTable, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
 import { badRequest, notFound } from "@/lib/http/errors";

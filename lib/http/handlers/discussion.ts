@@ -7,10 +7,10 @@ import { clientAddress, commentPosts, shareTokenFailures, shareTokenRequests } f
 import {
   createComment, deleteComment, editComment, getCommentOwner, listCommentRevisions, listCommentThreads, markDiscussionRead,
   mentionableMembers, setCommentResolved, threadForGuest, unreadCounts, type CommentOwner,
-} from "@/lib/db/comments";
-import { createShareLink, getShareLink, listShareLinks, resolveShareToken, revokeShareLink } from "@/lib/db/shares";
-import { shortlistForGuest } from "@/lib/db/share-view";
-import { getShortlist } from "@/lib/db/shortlists";
+} from "@/lib/db";
+import { createShareLink, getShareLink, listShareLinks, resolveShareToken, revokeShareLink } from "@/lib/db";
+import { shortlistForGuest } from "@/lib/views/share-view";
+import { getShortlist } from "@/lib/db";
 import { ApiError, forbidden, notFound } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { json, parseWith, requireUser, route } from "@/lib/http/route";
@@ -104,10 +104,14 @@ export const resolveThread = route<CommentParams>(async (req, ctx) => {
 });
 
 export const commentRevisions = route<CommentParams>(async (req, ctx) => {
-  await requireUser(req, "comment:read");
+  const user = await requireUser(req, "comment:read");
   const { id, commentId } = await ctx.params;
-  await commentOf(id, commentId);
-  return json({ revisions: await listCommentRevisions(commentId) });
+  const c = await commentOf(id, commentId);
+  const revisions = (await listCommentRevisions(commentId)) ?? [];
+  if (c.deletedAt === null) return json({ revisions });
+  // A deleted comment's text stays readable to admins only; others see that versions existed.
+  if (can(user, "comment:read-deleted", { shortlistId: id })) return json({ revisions, deletedAt: c.deletedAt });
+  return json({ revisions: revisions.map((r) => ({ ...r, body: null })), deletedAt: c.deletedAt, bodiesHidden: true });
 });
 
 // ---- Share links (members) ----
