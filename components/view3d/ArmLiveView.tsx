@@ -8,6 +8,7 @@ import { useMemo, useState } from "react";
 import { poseRpy } from "@/shared/pose";
 import { jointToDisplay, jointUnit } from "@/shared/units";
 import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
+import { linkGeometry } from "@/lib/geometry/arm";
 import { armFormToDoc, type ArmForm } from "../arm/armForm";
 import { createRig, homeConfiguration, poseArm, originOf, type ArmRig } from "./scene";
 import { mmText, ViewShell } from "./ViewShell";
@@ -18,7 +19,7 @@ const KEEPS = "The joint table and the transforms above are unchanged.";
 function rigOf(doc: ArmDocument, formErrors: string[]): { rig: ArmRig | null; problem: string | null } {
   if (formErrors.length) return { rig: null, problem: formErrors[0] };
   try {
-    return { rig: createRig(kinematicsOf(doc)), problem: null };
+    return { rig: createRig(kinematicsOf(doc), undefined, { links: linkGeometry(doc), base: doc.baseCollision }), problem: null };
   } catch (e) {
     return { rig: null, problem: e instanceof Error ? e.message : String(e) };
   }
@@ -134,7 +135,7 @@ export default function ArmLiveView({ form }: { form: ArmForm }) {
           <>
             <li>
               Links: rods from joint to joint{rig.model.convention === "chain" ? ", straight from each link frame's origin to the next" : " along the table (d along z, then a along x)"}
-              {figure.capsules.length ? "; capsules where a collision radius is given" : ""}.
+              {figure.capsules.length ? "; translucent capsules: the collision geometry (given, or derived from the collision radius)" : ""}.
             </li>
             <li>
               Joints: amber cylinders (revolute) or blocks (prismatic) along each joint axis, numbered 1–{rig.model.n}; the small frame at each is{" "}

@@ -6,15 +6,16 @@
  * steps along a path through the configurations the analysis found. The view reads the stored
  * result and the pinned documents; the only computation is forward kinematics of the stored q.
  */
-import { useEffect, useMemo, useState } from "react";
+import { useCallback, useEffect, useMemo, useState } from "react";
 import { placedArmKinematics } from "@/lib/analysis/context";
-import { poseFromRpy, transformPoint } from "@/lib/analysis/geometry";
+import { linkGeometry } from "@/lib/geometry/arm";
+import { invertRigid, mul4, poseFromRpy, transformPoint } from "@/lib/analysis/geometry";
 import type { ArmAnalysis } from "@/lib/analysis/shortlist";
 import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { api } from "../api";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
-import { cellObstacles } from "./cell";
+import { bodyShapes, cellObstacles } from "./cell";
 import { createRig, forceScale, homeConfiguration, originOf, pathMarks, pointAtArcLength, poseArm, type ArmRig, type ForceMark, type PathMark, type SceneContent, type TargetMark, type Vec3 } from "./scene";
 import { mmText, ViewShell } from "./ViewShell";
 
@@ -49,7 +50,8 @@ export default function SolutionView(props: SolutionViewProps) {
       if (!r.ok) return setLoaded({ error: r.error.message });
       try {
         const v = r.data;
-        setLoaded({ view: v, rig: createRig(placedArmKinematics(kinematicsOf(v.arm), v.requirementSet), v.requirementSet.base) });
+        const geometry = { links: linkGeometry(v.arm), base: v.arm.baseCollision };
+        setLoaded({ view: v, rig: createRig(placedArmKinematics(kinematicsOf(v.arm), v.requirementSet), v.requirementSet.base, geometry) });
       } catch (e) {
         setLoaded({ error: `the arm cannot be drawn: ${e instanceof Error ? e.message : String(e)}` });
       }
@@ -83,6 +85,12 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
   const path = a.paths[pi];
 
   const obstacles = useMemo(() => cellObstacles(req), [req]);
+  // Tool shapes are given in the arm's tool-point frame (TCP · tcp⁻¹), payload shapes in the TCP frame.
+  const tcpInverse = useMemo(() => Array.from(invertRigid(req.tool.tcp)), [req]);
+  const heldShapes = useCallback(
+    (tcp: number[]) => [...bodyShapes(Array.from(mul4(tcp, tcpInverse)), req.tool.collision, "tool"), ...bodyShapes(tcp, req.payload.collision, "payload")],
+    [req, tcpInverse],
+  );
   const span = useMemo(() => poseArm(rig, homeConfiguration(rig)).size, [rig]);
   const targets = useMemo(
     (): TargetMark[] =>
@@ -118,7 +126,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
       const arm = poseArm(rig, q);
       const margin = path.profile.dexterityMargin[k];
       return {
-        content: { ...base, arm, cursor: { at: originOf(arm.tool), text: `sample ${k + 1}` } },
+        content: { ...base, arm, bodies: heldShapes(arm.tool), cursor: { at: originOf(arm.tool), text: `sample ${k + 1}` } },
         status: `${where}: reached${margin !== null && margin !== undefined ? `, dexterity margin D = ${margin.toFixed(2)}` : ""}.`,
         force: null,
       };
@@ -134,6 +142,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
     }
     const sol = t.solutions[b];
     const arm = poseArm(rig, sol.q);
+    const bodies = heldShapes(arm.tool);
     const ghosts = showBranches ? t.solutions.filter((_, i) => i !== b).map((s) => poseArm(rig, s.q)) : [];
     let force: ForceMark | null = null;
     if (b === chosen && t.forceEllipsoid) {
@@ -151,11 +160,11 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
     }
     const which = b === chosen ? "the chosen branch (best dexterity margin)" : "another branch";
     return {
-      content: { ...base, arm, ghosts, force },
+      content: { ...base, arm, ghosts, force, bodies },
       status: `Target ${t.name}: ${verdictText}; branch ${b + 1} of ${t.solutions.length}, ${which}, dexterity margin D = ${sol.margin.toFixed(2)}.`,
       force,
     };
-  }, [targets, paths, obstacles, mode, path, sample, pi, t, b, chosen, showBranches, rig, req, ti, span]);
+  }, [targets, paths, obstacles, mode, path, sample, pi, t, b, chosen, showBranches, rig, req, ti, span, heldShapes]);
 
   const f = scene.force;
   const radiiText = f ? f.axes.map((x) => (x.radius === null ? "unbounded" : `${x.radius >= 100 ? x.radius.toFixed(0) : x.radius.toPrecision(3)} N`)).join(", ") : "";
@@ -266,7 +275,8 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
               </li>
             )}
             {paths.length > 0 && <li>Paths: polylines with arrowheads in the direction of travel.</li>}
-            {obstacles.length > 0 && <li>Obstacles: translucent shapes with their names.</li>}
+            {obstacles.length > 0 && <li>Obstacles: translucent clay shapes with their names (the cell frame).</li>}
+            {(req.tool.collision?.length ?? 0) + (req.payload.collision?.length ?? 0) > 0 && <li>Tool and payload shapes: translucent blue, where the arm holds them.</li>}
           </>
         }
       />

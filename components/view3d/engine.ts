@@ -35,6 +35,7 @@ export const PALETTE = {
   missed: "#b0344a",
   path: "#6a4c9c",
   obstacle: "#a39379",
+  body: "#5f7fa3",
   ellipsoid: "#e3a531",
   force: "#b0344a",
   payload: "#1d1c1a",
@@ -117,7 +118,7 @@ export class Viewer {
   private readonly resize: ResizeObserver;
   private readonly groups = {
     grid: new Group(), world: new Group(), arm: new Group(), ghosts: new Group(), mount: new Group(),
-    targets: new Group(), paths: new Group(), obstacles: new Group(), force: new Group(), cursor: new Group(),
+    targets: new Group(), paths: new Group(), obstacles: new Group(), bodies: new Group(), force: new Group(), cursor: new Group(),
   };
   private readonly owned = new Map<keyof Viewer["groups"], Owned>();
   private content: SceneContent = {};
@@ -141,7 +142,7 @@ export class Viewer {
     x: lambert(PALETTE.x), y: lambert(PALETTE.y), z: lambert(PALETTE.z),
     link: lambert(PALETTE.link), capsule: lambert(PALETTE.capsule, 0.55), joint: lambert(PALETTE.joint),
     ghost: lambert(PALETTE.ghost, 0.35), reached: lambert(PALETTE.reached), missed: lambert(PALETTE.missed), target: lambert(PALETTE.target),
-    path: lambert(PALETTE.path), obstacle: lambert(PALETTE.obstacle, 0.42), ellipsoid: lambert(PALETTE.ellipsoid, 0.3),
+    path: lambert(PALETTE.path), obstacle: lambert(PALETTE.obstacle, 0.42), body: lambert(PALETTE.body, 0.5), ellipsoid: lambert(PALETTE.ellipsoid, 0.3),
     force: lambert(PALETTE.force), payload: lambert(PALETTE.payload), cursor: lambert(PALETTE.cursor), mount: lambert(PALETTE.mount),
   };
 
@@ -214,7 +215,8 @@ export class Viewer {
     if (c.mount !== prev.mount) this.rebuild("mount", () => (c.mount ? [this.frameMark(c.mount, this.size * 0.08, "arm base", true)] : []));
     if (c.targets !== prev.targets || resized) this.rebuild("targets", () => this.buildTargets(c.targets ?? []));
     if (c.paths !== prev.paths || resized) this.rebuild("paths", () => (c.paths ?? []).map((p) => this.buildPath(p)));
-    if (c.obstacles !== prev.obstacles) this.rebuild("obstacles", () => (c.obstacles ?? []).map((o) => this.buildObstacle(o)));
+    if (c.obstacles !== prev.obstacles) this.rebuild("obstacles", () => (c.obstacles ?? []).map((o) => this.buildObstacle(o, this.mats.obstacle, "obstacle")));
+    if (c.bodies !== prev.bodies) this.rebuild("bodies", () => (c.bodies ?? []).map((o) => this.buildObstacle(o, this.mats.body, "body")));
     if (c.force !== prev.force) this.rebuild("force", () => (c.force ? [this.buildForce(c.force)] : []));
     if (c.cursor !== prev.cursor || resized) this.rebuild("cursor", () => (c.cursor ? [this.buildCursor(c.cursor)] : []));
     if (resized || this.groups.grid.children.length === 0 || c.floorZ !== prev.floorZ || c.originLabel !== prev.originLabel) {
@@ -445,12 +447,12 @@ export class Viewer {
     return g;
   }
 
-  private buildObstacle(o: ObstacleMark): Object3D {
+  private buildObstacle(o: ObstacleMark, material: Material, cls: string): Object3D {
     const g = new Group();
     let labelAt: Vec3;
     if (o.shape === "box") {
       const m = matrixOf(o.pose).multiply(new Matrix4().makeScale(...o.size));
-      const mesh = new Mesh(this.shared.box, this.mats.obstacle);
+      const mesh = new Mesh(this.shared.box, material);
       const edges = new LineSegments(this.shared.boxEdges, this.ownMat(new LineBasicMaterial({ color: "#6d6150" })));
       for (const x of [mesh, edges]) {
         x.matrixAutoUpdate = false;
@@ -460,13 +462,13 @@ export class Viewer {
       const c = originOf(o.pose);
       labelAt = [c[0], c[1], c[2] + o.size[2] / 2];
     } else if (o.shape === "sphere") {
-      const mesh = new Mesh(this.shared.sphere, this.mats.obstacle);
+      const mesh = new Mesh(this.shared.sphere, material);
       mesh.position.set(...o.center);
       mesh.scale.setScalar(o.radius);
       g.add(mesh);
       labelAt = [o.center[0], o.center[1], o.center[2] + o.radius];
     } else if (o.shape === "cylinder") {
-      const mesh = new Mesh(this.shared.rod, this.mats.obstacle);
+      const mesh = new Mesh(this.shared.rod, material);
       mesh.matrixAutoUpdate = false;
       mesh.matrix.copy(matrixOf(o.pose)).multiply(new Matrix4().makeRotationX(Math.PI / 2)).multiply(new Matrix4().makeScale(o.radius, o.length, o.radius));
       g.add(mesh);
@@ -474,13 +476,13 @@ export class Viewer {
       labelAt = [c[0], c[1], c[2] + o.length / 2];
     } else {
       const d = new Vector3(o.to[0] - o.from[0], o.to[1] - o.from[1], o.to[2] - o.from[2]);
-      const mesh = new Mesh(this.own(new CapsuleGeometry(o.radius, d.length(), 4, 16)), this.mats.obstacle);
+      const mesh = new Mesh(this.own(new CapsuleGeometry(o.radius, d.length(), 4, 16)), material);
       mesh.position.set((o.from[0] + o.to[0]) / 2, (o.from[1] + o.to[1]) / 2, (o.from[2] + o.to[2]) / 2);
       if (d.length() > 0) mesh.quaternion.setFromUnitVectors(Y_AXIS, d.normalize());
       g.add(mesh);
       labelAt = [mesh.position.x, mesh.position.y, mesh.position.z + o.radius];
     }
-    g.add(this.label(o.name, labelAt, "obstacle"));
+    g.add(this.label(o.name, labelAt, cls));
     return g;
   }
 

@@ -10,6 +10,8 @@
  */
 import { createData, createModel, forwardKinematics, jointAxisWorld, neutralConfiguration, type ArmData, type ArmKinematics, type ArmModel } from "@/lib/kinematics";
 import type { Verdict } from "@/lib/analysis/types";
+import type { LinkGeometry } from "@/lib/geometry/arm";
+import type { ArmCapsule } from "@/shared/schemas/cell";
 
 export type Vec3 = [number, number, number];
 /** Row-major 4×4 (16 numbers). */
@@ -70,13 +72,30 @@ export interface ArmRig {
   model: ArmModel;
   data: ArmData;
   mount: Pose;
+  /** Link collision geometry (lib/geometry `linkGeometry`), and the base's capsules in the mount frame. */
+  links: LinkGeometry[] | null;
+  baseCapsules: ArmCapsule[];
 }
 
-/** Compiles an arm for drawing (the same createModel the analysis uses); throws RangeError on a bad arm. */
-export function createRig(kin: ArmKinematics, mount: readonly number[] = IDENTITY): ArmRig {
+/**
+ * Compiles an arm for drawing (the same createModel the analysis uses); throws RangeError on a
+ * bad arm. With `geometry` the capsules drawn are the geometry library's; without it, a capsule
+ * along each stick segment of a link that has a collision radius.
+ */
+export function createRig(kin: ArmKinematics, mount: readonly number[] = IDENTITY, geometry?: { links: LinkGeometry[]; base?: ArmCapsule[] }): ArmRig {
   const model = createModel(kin);
-  return { model, data: createData(model), mount: mount.slice() };
+  return { model, data: createData(model), mount: mount.slice(), links: geometry?.links ?? null, baseCapsules: geometry?.base ?? [] };
 }
+
+/** A point fixed in frame `k` of the posed chain (frames 0…n), in the world. */
+const inFrame = (f: ArrayLike<number>, k: number, p: ArrayLike<number>): Vec3 => {
+  const o = 16 * k;
+  return [
+    f[o] * p[0] + f[o + 1] * p[1] + f[o + 2] * p[2] + f[o + 3],
+    f[o + 4] * p[0] + f[o + 5] * p[1] + f[o + 6] * p[2] + f[o + 7],
+    f[o + 8] * p[0] + f[o + 9] * p[1] + f[o + 10] * p[2] + f[o + 11],
+  ];
+};
 
 /** The home configuration: q = 0 where the limits allow it, else mid-range (the library's neutral configuration). */
 export function homeConfiguration(rig: ArmRig): number[] {
@@ -119,11 +138,15 @@ export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
     if (norm(sub(cur, mid)) > 1e-9) pieces.push([mid, cur]);
     segments.push(...pieces);
     const r = model.radius[i - 1];
-    if (r > 0) for (const [a, b] of pieces) capsules.push({ link: i, from: a, to: b, radius: r });
+    if (!rig.links && r > 0) for (const [a, b] of pieces) capsules.push({ link: i, from: a, to: b, radius: r });
     const k = i - 1 + model.axisFrameOffset;
     jointAxisWorld(model, data, i, axisBuf);
     joints.push({ number: i, type: model.types[i - 1], origin: [axisBuf[3], axisBuf[4], axisBuf[5]], axis: [axisBuf[0], axisBuf[1], axisBuf[2]], frame: slice16(f, 16 * k) });
   }
+  for (const g of rig.links ?? []) {
+    for (const c of g.attached) capsules.push({ link: g.link, from: inFrame(f, c.from.frame, c.from.point), to: inFrame(f, c.to.frame, c.to.point), radius: c.radius });
+  }
+  for (const c of rig.baseCapsules) capsules.push({ link: 0, from: inFrame(rig.mount, 0, c.from), to: inFrame(rig.mount, 0, c.to), radius: c.radius });
   const flange = slice16(data.flange);
   const tool = slice16(data.toolPose);
   if (norm(sub(originOf(tool), originOf(flange))) > 1e-9) segments.push([originOf(flange), originOf(tool)]);
@@ -256,6 +279,8 @@ export interface SceneContent {
   targets?: TargetMark[];
   paths?: PathMark[];
   obstacles?: ObstacleMark[];
+  /** Tool and payload shapes where the arm holds them (world frame), drawn apart from the cell. */
+  bodies?: ObstacleMark[];
   force?: ForceMark | null;
   /** The current path sample (m), with its words. */
   cursor?: { at: Vec3; text: string } | null;

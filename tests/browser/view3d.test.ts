@@ -299,7 +299,8 @@ describe("3-D views", () => {
     await frame.getByTestId("cell-view").waitFor();
     const req = seedSets.get(BENCH)!;
     await expect.poll(async () => (await frame.locator(".v3-label.target").allTextContents()).sort()).toEqual(req.targets.map((x) => x.name).sort());
-    for (const o of req.obstacles ?? []) await frame.locator(".v3-label.obstacle", { hasText: o.name }).waitFor();
+    expect(req.cell.obstacles.length).toBeGreaterThan(0);
+    for (const o of req.cell.obstacles) await frame.locator(".v3-label.obstacle", { hasText: o.name }).waitFor();
     await frame.locator(".v3-label", { hasText: "arm base" }).waitFor();
     expect((await inspect(frame.getByTestId("view3d-canvas"), "coverage")) as number).toBeGreaterThan(0.01);
     expect(t.errors()).toEqual([]);

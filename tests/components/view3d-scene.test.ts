@@ -15,6 +15,7 @@ import { createArmContext, placedArmKinematics } from "@/lib/analysis/context";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { axisOf, bounds, createRig, forceScale, gridStep, homeConfiguration, niceStep, originOf, pathMarks, pointAtArcLength, poseArm, type Vec3 } from "@/components/view3d/scene";
 import { cellObstacles } from "@/components/view3d/cell";
+import { linkGeometry } from "@/lib/geometry/arm";
 
 interface KdlCase {
   arm: ArmKinematics;
@@ -127,16 +128,43 @@ describe("3-D view: the shortlist view places the arm as the analysis does", () 
   });
 
   it("draws the requirement set's obstacles with their names and sizes", () => {
-    const req = loadSeedRequirementSets().find((r) => (r.obstacles ?? []).length > 0)!;
+    const req = loadSeedRequirementSets().find((r) => r.cell.obstacles.length > 0)!;
     const marks = cellObstacles(req);
-    expect(marks.map((m) => m.name)).toEqual(req.obstacles!.map((o, i) => o.name ?? `obstacle ${i + 1}`));
+    expect(marks.map((m) => m.name)).toEqual(req.cell.obstacles.map((o) => o.name));
     marks.forEach((m, i) => {
-      const o = req.obstacles![i];
+      const o = req.cell.obstacles[i];
+      expect(m.shape).toBe(o.shape);
       if (m.shape === "box" && o.shape === "box") {
-        expect(originOf(m.pose)).toEqual(o.center);
+        expect(m.pose).toEqual(o.pose);
         expect(m.size).toEqual(o.size);
       }
     });
+  });
+
+  it("draws the geometry library's link capsules where the arm is posed (link frame coordinates × FK frame)", () => {
+    for (const doc of loadSeedArms()) {
+      const kin = kinematicsOf(doc);
+      const withRadius = { ...doc, joints: doc.joints.map((j) => ({ ...j, radius: j.radius ?? 0.04 })) } as typeof doc;
+      const links = linkGeometry(withRadius);
+      const rig = createRig(kin, undefined, { links });
+      const q = homeConfiguration(rig).map((x, i) => Math.min(rig.model.upper[i], Math.max(rig.model.lower[i], x + 0.3 * Math.sin(i + 1))));
+      const fig = poseArm(rig, q);
+      const f = rig.data.frames;
+      const inLink = (k: number, p: readonly number[]): Vec3 => [0, 1, 2].map((r) => f[16 * k + 4 * r] * p[0] + f[16 * k + 4 * r + 1] * p[1] + f[16 * k + 4 * r + 2] * p[2] + f[16 * k + 4 * r + 3]) as Vec3;
+      let k = 0;
+      for (const g of links) {
+        for (const c of g.capsules) {
+          const drawn = fig.capsules[k++];
+          expect(drawn.link).toBe(g.link);
+          if (g.stretches) continue;
+          // lib/geometry rounds link-frame coordinates to 1e-12 m.
+          expect(maxDiff(drawn.from, inLink(g.link, c.from))).toBeLessThan(1e-9);
+          expect(maxDiff(drawn.to, inLink(g.link, c.to))).toBeLessThan(1e-9);
+          expect(drawn.radius).toBe(c.radius);
+        }
+      }
+      expect(k).toBe(fig.capsules.length);
+    }
   });
 });
 

@@ -1,5 +1,5 @@
-import { z } from "zod";
 import { weightsSchema, type Weights } from "@/shared/schemas/requirements";
+import { exportQuery, runViewQuery } from "@/shared/schemas/shortlists";
 import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import {
@@ -65,13 +65,11 @@ export const runStatus = route<{ id: string; runId: string }>(async (req, ctx) =
   return json({ run: await runOf(id, runId) });
 });
 
-const viewQuery = z.object({ arm: z.string().min(1, "must name an arm of the run").max(100) });
-
 /** One arm of a finished run with the pinned documents: what the 3-D view of the shortlist page draws. */
 export const runArmView = route<{ id: string; runId: string }>(async (req, ctx) => {
   await requireUser(req, "shortlist:read");
   const { id, runId } = await ctx.params;
-  const q = parseWith(viewQuery, Object.fromEntries(new URL(req.url).searchParams));
+  const q = parseWith(runViewQuery, Object.fromEntries(new URL(req.url).searchParams));
   return json(await getRunArmView(id, runId, q.arm));
 });
 
@@ -88,12 +86,6 @@ export function parseWeightsParam(text: string, base: Weights): Weights {
   return parseWith(weightsSchema, out, "weights");
 }
 
-const exportQuery = z.object({
-  format: z.enum(["csv", "xlsx", "json"], { error: "must be csv, xlsx or json" }),
-  table: z.enum(["ranking", "compliance"], { error: "must be ranking or compliance" }).optional(),
-  run: z.string().min(1).max(100).optional(),
-  weights: z.string().max(300).optional(),
-});
 
 const slug = (s: string) => s.normalize("NFKD").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 60) || "shortlist";
 
