@@ -12,6 +12,8 @@ const COMMANDS: Record<string, () => Promise<CliCommand>> = {
   ik: () => import("./commands/ik").then((m) => m.command),
   statics: () => import("./commands/statics").then((m) => m.command),
   analyze: () => import("./commands/analyze").then((m) => m.command),
+  "import-urdf": () => import("./commands/import-urdf").then((m) => m.command),
+  "export-urdf": () => import("./commands/export-urdf").then((m) => m.command),
 };
 
 async function main(argv: readonly string[]): Promise<number> {

@@ -10,6 +10,9 @@ import { armCapsuleSchema, MAX_BODY_SHAPES } from "./cell";
  */
 export const MAX_JOINTS = 12;
 
+/** A collision capsule of an arm body (the points within `radius` of the segment from → to). */
+export type Capsule = z.infer<typeof armCapsuleSchema>;
+
 /** Fields every joint has, whatever the convention. */
 const jointCommonShape = {
   type: z.enum(["revolute", "prismatic"], { error: "must be revolute or prismatic" }),
