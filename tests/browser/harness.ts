@@ -24,8 +24,8 @@ const CHROMIUM_ARGS = [
   "--disable-sync",
 ];
 
-function run(cmd: string, args: string[], env: NodeJS.ProcessEnv, what: string): void {
-  const r = spawnSync(cmd, args, { cwd: ROOT, env, encoding: "utf8", timeout: 240_000 });
+function run(cmd: string, args: string[], env: NodeJS.ProcessEnv, what: string, timeoutMs = 240_000): void {
+  const r = spawnSync(cmd, args, { cwd: ROOT, env, encoding: "utf8", timeout: timeoutMs });
   if (r.status !== 0) throw new Error(`${what} failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
 }
 
@@ -45,7 +45,9 @@ function freePort(): Promise<number> {
 /** Builds the production server when it is missing or older than the sources (`npm test` builds first). */
 export function ensureBuild(): void {
   if (!buildIsStale(ROOT)) return;
-  run(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, "next build");
+  // A production build takes minutes on a loaded machine: allow 15. The browser project builds
+  // once in its global set-up (tests/browser/global-setup.ts), outside any hook's time limit.
+  run(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, "next build", 900_000);
 }
 
 export interface TrackedPage {
