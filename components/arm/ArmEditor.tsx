@@ -13,6 +13,7 @@ import { DhPastePanel } from "./DhPastePanel";
 import { convertFormToChain } from "./chainConvert";
 import { CollisionPanel } from "./CollisionPanel";
 import { RemoveRowCell } from "../RowControls";
+import { ArmViewPanel } from "../view3d/launchers";
 
 interface Props {
   /** Arm id when editing an existing arm; absent for a new one. */
@@ -192,6 +193,12 @@ export function ArmEditor(props: Props) {
       </div>
 
       <CollisionPanel form={form} errors={errMap} readOnly={readOnly} onChange={update} />
+
+      <fieldset className="panel">
+        <legend>3-D view</legend>
+        <p className="hint">The arm as the table and transforms stand, posed by a slider per joint: check link directions, offsets and axis signs against the datasheet drawing.</p>
+        <ArmViewPanel form={form} />
+      </fieldset>
 
       <fieldset className="panel">
         <legend>Datasheet specs</legend>

@@ -43,3 +43,6 @@ export const weightsParam = (base: Weights) =>
       return out;
     })
     .pipe(weightsSchema);
+
+/** The query of one arm's 3-D view data in a run: the arm's id. */
+export const runViewQuery = z.object({ arm: z.string({ error: "must name an arm of the run" }).min(1, "must name an arm of the run").max(100) });

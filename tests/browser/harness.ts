@@ -68,7 +68,8 @@ export interface Harness {
   baseUrl: string;
   dbPath: string;
   serverLog(): string;
-  browser(): Promise<Browser>;
+  /** A fresh Chromium profile; `args` adds command-line switches (e.g. `--disable-webgl`). */
+  browser(opts?: { args?: string[] }): Promise<Browser>;
   close(): Promise<void>;
 }
 
@@ -142,12 +143,12 @@ export async function startHarness(): Promise<Harness> {
     baseUrl,
     dbPath,
     serverLog,
-    async browser() {
+    async browser(opts = {}) {
       const profile = mkdtempSync(path.join(dir, "profile-"));
       const context = await chromium.launchPersistentContext(profile, {
         executablePath: CHROMIUM,
         headless: true,
-        args: CHROMIUM_ARGS,
+        args: [...CHROMIUM_ARGS, ...(opts.args ?? [])],
         baseURL: baseUrl,
         viewport: { width: 1280, height: 900 },
       });

@@ -9,8 +9,9 @@ import { toFieldErrors } from "@/shared/schemas";
 import { createShortlistInput } from "@/shared/schemas/shortlists";
 import { sqliteDateTime } from "@/lib/db/analysis-progress";
 import {
-  createShortlist, getRun, getRunResult, getShortlist, listRuns, listShortlists, loadPinnedInputs, repinShortlist, requestAnalysisRun, STALE_RUN_MS,
+  createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, loadPinnedInputs, repinShortlist, requestAnalysisRun, STALE_RUN_MS,
 } from "@/lib/db/shortlists";
+import { NotFoundError } from "@/lib/db/errors";
 import { executeRun } from "@/lib/jobs/analysis-runner";
 import { analyzeShortlist } from "@/lib/analysis/shortlist";
 import { analysisKey } from "@/lib/analysis/key";
@@ -92,6 +93,32 @@ describe("shortlists and analysis runs", () => {
 
     const list = await listShortlists();
     expect(list.find((x) => x.id === id)).toMatchObject({ arms: 2, requirementRevision: 1, latestRun: { id: second.run.id, status: "done" } });
+  });
+
+  it("gives the 3-D view one arm of a run with the revisions that run was pinned to, not the current ones", async () => {
+    const arm = (await createArm(null, sampleArm({ name: "Test arm TV-3", modelCode: "TV-3" }))).id;
+    const { id, pins } = await createShortlist(null, { name: "View pins", requirementSetId: setId, armIds: [armB, arm] });
+    const run = await requestAnalysisRun(id);
+    expect(await executeRun(run.run.id)).toBe("done");
+    await updateArm(null, arm, 1, sampleArm({ name: "Test arm TV-3 (edited)", modelCode: "TV-3" }));
+    const view = await getRunArmView(id, run.run.id, arm);
+    const inputs = await loadPinnedInputs(pins);
+    expect(view.revision).toBe(1);
+    expect(view.arm).toEqual(inputs.arms[1].arm);
+    expect(view.arm.name).toBe("Test arm TV-3");
+    expect(view.requirementSet).toEqual(inputs.requirementSet);
+    expect(view.analysis).toEqual((await getRunResult(run.run.id))!.arms[1]);
+    // Another shortlist's run, an arm not in the run, an unknown run: not found, with the reason.
+    const other = await createShortlist(null, { name: "Other", requirementSetId: setId, armIds: [armB] });
+    for (const [sl, r, a, why] of [
+      [other.id, run.run.id, arm, /has no analysis run/],
+      [id, run.run.id, armA, /does not include arm/],
+      [id, "no-such-run", arm, /has no analysis run/],
+    ] as const) {
+      const e = await getRunArmView(sl, r, a).catch((x: unknown) => x);
+      expect(e).toBeInstanceOf(NotFoundError);
+      expect((e as Error).message).toMatch(why);
+    }
   });
 
   it("fails a run whose process stopped reporting, and a run whose inputs cannot be loaded", async () => {
