@@ -96,11 +96,11 @@ describe("shortlists and analysis runs", () => {
   });
 
   it("gives the 3-D view one arm of a run with the revisions that run was pinned to, not the current ones", async () => {
-    const arm = (await createArm(null, sampleArm({ name: "Test arm TV-3", modelCode: "TV-3" }))).id;
+    const arm = (await createArm(null, armDoc({ name: "Test arm TV-3", modelCode: "TV-3" }))).id;
     const { id, pins } = await createShortlist(null, { name: "View pins", requirementSetId: setId, armIds: [armB, arm] });
     const run = await requestAnalysisRun(id);
     expect(await executeRun(run.run.id)).toBe("done");
-    await updateArm(null, arm, 1, sampleArm({ name: "Test arm TV-3 (edited)", modelCode: "TV-3" }));
+    await updateArm(null, arm, 1, armDoc({ name: "Test arm TV-3 (edited)", modelCode: "TV-3" }));
     const view = await getRunArmView(id, run.run.id, arm);
     const inputs = await loadPinnedInputs(pins);
     expect(view.revision).toBe(1);
