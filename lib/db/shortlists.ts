@@ -2,7 +2,7 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { armSchema, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
-import { createShortlistInput } from "@/shared/schemas/shortlists";
+import type { CreateShortlistInput } from "@/shared/schemas/shortlists";
 import { analysisKey } from "@/lib/analysis/key";
 import { ANALYSIS_VERSION, type ArmAnalysis, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
 import { db } from "./client";
@@ -78,15 +78,6 @@ export interface ShortlistSummary {
   latestRun: { id: string; status: RunStatus; finishedAt: Date | null } | null;
 }
 
-
-function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
-  const r = schema.safeParse(input);
-  if (!r.success) {
-    throw new ValidationError(r.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })));
-  }
-  return r.data;
-}
-
 function toRunInfo(r: {
   id: string; shortlistId: string; key: string; analysisVersion: string; status: string; progress: number; stage: string | null;
   error: string | null; pins: string | null; createdAt: Date; startedAt: Date | null; finishedAt: Date | null; reusedFromId: string | null;
@@ -109,8 +100,7 @@ const runSelect = {
 } as const;
 
 /** Creates a shortlist pinned to the current revisions of the requirement set and the arms. */
-export async function createShortlist(userId: string | null, input: unknown): Promise<{ id: string; pins: Pins }> {
-  const body = parse(createShortlistInput, input);
+export async function createShortlist(userId: string | null, body: CreateShortlistInput): Promise<{ id: string; pins: Pins }> {
   const id = randomUUID();
   return db().$transaction(async (tx) => {
     const set = await tx.requirementSet.findUnique({ where: { id: body.requirementSetId } });

@@ -1,4 +1,4 @@
-import { exportQuery, runViewQuery, weightsParam } from "@/shared/schemas/shortlists";
+import { createShortlistInput, exportQuery, runViewQuery, weightsParam } from "@/shared/schemas/shortlists";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import {
   createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
@@ -23,7 +23,7 @@ export const list = route(async (req) => {
 
 export const create = route(async (req) => {
   const user = await requireUser(req, "shortlist:write");
-  const { id, pins } = await createShortlist(user.id, await readJsonObject(req));
+  const { id, pins } = await createShortlist(user.id, parseWith(createShortlistInput, await readJsonObject(req)));
   const { run, cached } = await runNow(id);
   return json({ id, pins, run, cached }, 201);
 });
