@@ -10,7 +10,7 @@ import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount,
 import type { ArmContext } from "./context";
 import { centredCopy } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
-import { deg, mm, num, pct } from "./format";
+import { deg, mm, num, pct } from "@/shared/format";
 import { poseFromQuaternion, poseFromRpy, quaternionOf, relativeRotation, slerp } from "./geometry";
 import { determinant } from "./linalg";
 import { AT_LIMIT_FRACTION, maxSpeedScale, speedBounds, type SpeedScale } from "./speed";

@@ -13,7 +13,7 @@ import { analyzePath, DEFAULT_PATH_BUDGET, SPEED_MARGINAL_RATIO, type PathAnalys
 import { SUB_SCORES } from "@/shared/sub-scores";
 import { rankArms, type ArmScoreInput, type RankedArm, type SubScore, type SubScoreKey } from "./ranking";
 import { SUB_SCORE_RULES, zeroScore } from "./sub-scores";
-import { checkSpec, IEC_60529_NOTE, type SpecResult } from "./spec";
+import { checkSpec, IEC_60529_NOTE, requirementText, type SpecResult } from "./spec";
 import { analyzeTarget, DEFAULT_TARGET_BUDGET, FORCE_MARGINAL_FRACTION, type TargetAnalysis, type TargetBudget } from "./targets";
 import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, type WorkspaceBudget } from "./workspace";
 import type { Verdict } from "./types";
@@ -110,11 +110,6 @@ export interface ShortlistAnalysis {
 
 const emptyCounts = (): VerdictCounts => ({ meets: 0, marginal: 0, fails: 0, unknown: 0 });
 
-/** Labels a spec requirement for lists of musts. */
-function specLabel(r: SpecResult): string {
-  const op = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" }[r.comparator];
-  return `${r.label} ${op} ${r.requiredDisplay}${r.displayUnit ? ` ${r.displayUnit}` : ""}`;
-}
 
 /**
  * Analyses every arm against the requirement set: targets (IK branches, dexterity, statics,
@@ -201,8 +196,8 @@ function finishArm(
   targets.forEach((t) => counts.targets[t.verdict]++);
   paths.forEach((p) => counts.paths[p.verdict]++);
   specs.forEach((s) => counts.specs[s.verdict]++);
-  const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map(specLabel);
-  const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map(specLabel);
+  const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map((s) => requirementText(s));
+  const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map((s) => requirementText(s));
   const sub = subScores(arm, error ? null : ctx, targets, paths, req, candidates);
   const reached = targets.filter((t) => t.reached).length;
   const summary = error

@@ -10,7 +10,7 @@ import { computeJacobian, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, solveIkMulti, 
 import type { ArmContext } from "./context";
 import { centredCopy, type JointCopyChoice } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
-import { deg, mm, num, pct } from "./format";
+import { deg, mm, num, pct } from "@/shared/format";
 import { poseFromRpy, rotationOf, transformPoint, mul4 } from "./geometry";
 import {
   capacityAlong, ellipsoidEstimateAlong, forceEllipsoid, gravityTorque, payloadCapacity, transposeTimes, wristAxisLoad,
