@@ -8,7 +8,7 @@ const pureRestrictions = {
 };
 
 export default tseslint.config(
-  { ignores: ["node_modules/**", ".next/**", "lib/db/generated/**", "data/**", "next-env.d.ts", "test-results/**"] },
+  { ignores: ["node_modules/**", ".next/**", "dist/**", "lib/db/generated/**", "lib/db/generated-pg/**", "data/**", "next-env.d.ts", "test-results/**"] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
@@ -23,7 +23,7 @@ export default tseslint.config(
   },
   {
     files: ["app/**", "components/**"],
-    rules: { "no-restricted-imports": ["error", { patterns: [{ group: ["@prisma/*", "**/lib/db/generated/**"], message: "Pages use lib/db, never Prisma directly." }] }] },
+    rules: { "no-restricted-imports": ["error", { patterns: [{ group: ["@prisma/*", "**/lib/db/generated/**", "**/lib/db/generated-pg/**"], message: "Pages use lib/db, never Prisma directly." }] }] },
   },
   {
     files: ["scripts/**/*.mjs", "*.mjs"],

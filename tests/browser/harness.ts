@@ -43,6 +43,7 @@ function freePort(): Promise<number> {
 
 /** Builds the production server once if no build exists (npm test builds before this project). */
 export function ensureBuild(): void {
+  run(process.execPath, [path.join(ROOT, "scripts", "build-jobs.mjs")], process.env, "build the analysis programs");
   if (existsSync(path.join(ROOT, ".next", "BUILD_ID"))) return;
   run(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, "next build");
 }
@@ -75,7 +76,7 @@ export async function startHarness(): Promise<Harness> {
   const dbPath = path.join(dir, "armsift.db");
   const env: NodeJS.ProcessEnv = { ...process.env, ARMSIFT_DB: dbPath, DATABASE_URL: `file:${dbPath}`, NEXT_TELEMETRY_DISABLED: "1" };
   run(process.execPath, [path.join(ROOT, "scripts", "prisma.mjs"), "migrate", "deploy"], env, "migrate deploy");
-  run(path.join(ROOT, "node_modules", ".bin", "tsx"), [path.join(ROOT, "scripts", "seed.ts")], env, "seed");
+  run(process.execPath, [path.join(ROOT, "dist", "jobs", "seed.mjs")], env, "seed");
 
   const port = await freePort();
   const logPath = path.join(dir, "server.log");
