@@ -112,7 +112,9 @@ export default defineConfig({
   experimental: { adapter: true },
   engine: "js",
   schema: path.join("prisma", provider),
-  migrations: { path: path.join("prisma", provider, "migrations") },
+  // ARMSIFT_MIGRATIONS_DIR: another folder of the same provider's migrations (the migration test
+  // applies all but the newest from a copy).
+  migrations: { path: process.env.ARMSIFT_MIGRATIONS_DIR ?? path.join("prisma", provider, "migrations") },
   async adapter() {
     if (provider === "postgres") return new PgMigrationAdapter(pgPoolConfig(process.env.DATABASE_URL ?? ""));
     return new SqliteMigrationAdapter({ url: process.env.DATABASE_URL ?? "file:./data/armsift.db" });

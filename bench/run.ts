@@ -1,14 +1,16 @@
 /**
- * `npm run bench`: runs the kinematics benchmark, then the analysis benchmark when
+ * `npm run bench`: runs the kinematics and distance-query benchmarks, then the analysis benchmark when
  * bench/analysis.ts exists, then the shortlist page benchmark (each module exports `async function run()`).
  */
 import { existsSync } from "node:fs";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
+import { run as runGeometry } from "./geometry";
 import { run as runKinematics } from "./kinematics";
 
 async function main(): Promise<void> {
   await runKinematics();
+  await runGeometry();
   const analysis = path.join(__dirname, "analysis.ts");
   if (existsSync(analysis)) {
     const mod = (await import(pathToFileURL(analysis).href)) as { run?: () => Promise<void> };

@@ -1,8 +1,8 @@
 // Seeds the invented demo arms and requirement sets into ARMSIFT_DB (default ./data/armsift.db)
-// when the database has no arms yet. Run from the repository root: `npx tsx scripts/seed.ts`.
-import { loadSeedArms, loadSeedRequirementSets } from "../seed-data/index";
-import { databaseUrl, db } from "../lib/db/client";
-import { seedDemo } from "../lib/db/seed";
+// when the database has no arms yet. Run from the repository root: `npm run db:seed`
+// (tsx with the react-server condition, under which the server-only data layer loads).
+import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
+import { databaseUrl, disconnectDb, seedDemo } from "@/lib/db";
 
 async function main(): Promise<void> {
   const arms = loadSeedArms();
@@ -10,7 +10,7 @@ async function main(): Promise<void> {
   const r = await seedDemo(arms, sets);
   const where = databaseUrl().replace(/^file:/, "");
   console.log(r.seeded ? `seeded ${r.arms} demo arms and ${r.requirementSets} requirement sets into ${where}` : `${where} already has arms; not seeding`);
-  await db().$disconnect();
+  await disconnectDb();
 }
 
 main().catch((err) => {

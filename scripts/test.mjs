@@ -1,5 +1,7 @@
-// `npm test`: install what is missing, generate the Prisma client, then type check, lint, unit
-// tests, database/API tests, production build and browser tests, stopping at the first failure.
+// `npm test`: install what is missing, generate the Prisma clients, then type check, lint, unit
+// tests, database/API tests (SQLite, then PostgreSQL), queue tests, production build and browser
+// tests, stopping at the first failure.
+import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import net from "node:net";
 import { tmpdir } from "node:os";
@@ -42,9 +44,22 @@ const steps = [
   ["browser tests", bin("vitest"), vitest("browser")],
 ];
 
-/** Sums passed / failed / skipped over the JSON reports written so far. */
+// Red unless NO_COLOR is set (https://no-color.org), so a skip stands out in a log as well.
+const red = (text) => (process.env.NO_COLOR ? text : `\x1b[1;31m${text}\x1b[0m`);
+// Tests of a step that did not run (the browser project without Chromium): counted as skipped.
+let notRun = 0;
+
+/** Number of tests in a project, from `vitest list` (collects the files, runs nothing). */
+function listed(project) {
+  const file = path.join(reports, `${project}-list.json`);
+  spawnSync(bin("vitest"), ["list", "--project", project, `--json=${file}`], { cwd: root, env, stdio: "ignore" });
+  if (!existsSync(file)) return 0;
+  return JSON.parse(readFileSync(file, "utf8")).length;
+}
+
+/** Sums passed / failed / skipped over the JSON reports written so far, plus the tests not run. */
 function counts() {
-  let passed = 0, failed = 0, skipped = 0;
+  let passed = 0, failed = 0, skipped = notRun;
   for (const project of ["unit", "db", "db-pg", "queue", "browser"]) {
     const file = path.join(reports, `${project}.json`);
     if (!existsSync(file)) continue;
@@ -53,7 +68,8 @@ function counts() {
     failed += r.numFailedTests ?? 0;
     skipped += (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
   }
-  return `${passed} passed, ${failed} failed` + (skipped ? `, ${skipped} skipped` : "");
+  const line = `${passed} passed, ${failed} failed, ${skipped} skipped`;
+  return skipped ? red(line) : line;
 }
 
 for (const [label, cmd, args] of steps) {
@@ -63,7 +79,9 @@ for (const [label, cmd, args] of steps) {
       console.log(`\nnpm test: FAILED at ${label} after ${secs(Date.now() - started)}`);
       process.exit(1);
     }
-    console.log(`\n⚠ SKIPPING ${label}: PostgreSQL at ${pgUrl.host} is not reachable (set ARMSIFT_TEST_PG_URL or start it). Under CI=true this is a failure.`);
+    const n = listed(args[args.indexOf("--project") + 1]);
+    notRun += n;
+    console.log(red(`\n⚠ SKIPPED ${n} ${label}: PostgreSQL at ${pgUrl.host} is not reachable (set ARMSIFT_TEST_PG_URL or start it). Under CI=true this is a failure.`));
     timings.push(`${label} skipped`);
     continue;
   }
@@ -71,9 +89,12 @@ for (const [label, cmd, args] of steps) {
     if (ci) {
       console.error(`\n✖ browser tests: ${chromium} is missing (required under CI; apt-get install -y chromium)`);
       console.log(`\nnpm test: FAILED at browser tests after ${secs(Date.now() - started)}`);
+      console.log(`tests: ${counts()}`);
       process.exit(1);
     }
-    console.log(`\n⚠ SKIPPING browser tests: ${chromium} is not installed (apt-get install -y chromium). Under CI=true this is a failure.`);
+    const n = listed("browser");
+    notRun += n;
+    console.log(red(`\n⚠ SKIPPED ${n} browser tests: ${chromium} is not installed (apt-get install -y chromium). Under CI=true this is a failure.`));
     timings.push(`${label} skipped`);
     continue;
   }
@@ -88,6 +109,7 @@ for (const [label, cmd, args] of steps) {
     process.exit(status);
   }
 }
-console.log(`\nnpm test: all steps passed in ${secs(Date.now() - started)} [${timings.join(", ")}] (root ${root})`);
+const closing = `npm test: ${notRun ? "every step that ran passed (some tests SKIPPED)" : "all steps passed"} in ${secs(Date.now() - started)} [${timings.join(", ")}] (root ${root})`;
+console.log(`\n${notRun ? red(closing) : closing}`);
 console.log(`tests: ${counts()}`);
 rmSync(reports, { recursive: true, force: true });

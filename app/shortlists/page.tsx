@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { listShortlists } from "@/lib/db/shortlists";
-import { unreadCounts } from "@/lib/db/comments";
+import { listShortlistsFor } from "@/lib/db";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { PageHead } from "@/components/PageHead";
 import { utc } from "@/components/time";
@@ -11,9 +10,8 @@ export const metadata: Metadata = { title: "Shortlists" };
 
 export default async function ShortlistsPage() {
   const user = await requireUser("/shortlists");
-  const rows = await listShortlists();
-  // Comments by others since the signed-in member last read each shortlist's discussion.
-  const unread = await unreadCounts(user.id, rows.map((r) => r.id));
+  // With the comments by others since the signed-in member last read each discussion.
+  const rows = await listShortlistsFor(user.id);
   return (
     <>
       <PageHead title="Shortlists" count={rows.length} noun="shortlist">
@@ -50,7 +48,7 @@ export default async function ShortlistsPage() {
                   <td className="num">{r.arms}</td>
                   <td>{r.latestRun ? `${r.latestRun.status}${r.latestRun.finishedAt ? `, ${utc(r.latestRun.finishedAt)}` : ""}` : "none"}</td>
                   <td data-testid="unread-count">
-                    <UnreadCell count={unread.get(r.id) ?? { unread: 0, mentions: 0 }} />
+                    <UnreadCell count={r.unread} />
                   </td>
                   <td>
                     {utc(r.createdAt)}

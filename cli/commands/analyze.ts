@@ -5,18 +5,16 @@
 import path from "node:path";
 import { analyzeShortlist, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis";
 import { analysisKey } from "@/lib/analysis/key";
+import { csvText } from "@/lib/export/csv";
 import { requirementSetSchema } from "@/shared/schemas/requirements";
 import { CliError, parseOptions, readArm, readJsonFile, required, type CliCommand } from "../io";
 
-/** RFC 4180 field: quoted when it holds a comma, quote or line break. */
-function csvField(v: unknown): string {
-  const s = v === null || v === undefined ? "" : String(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** The compliance table: specs, then targets and paths, each against every arm. */
+/**
+ * The compliance table: specs, then targets and paths, each against every arm. Written by the
+ * exports' CSV writer (quoting and the spreadsheet-formula guard), one LF-ended line per record.
+ */
 export function complianceCsv(result: ShortlistAnalysis): string {
-  const rows: unknown[][] = [["kind", "requirement", "priority", "required", "arm", "value", "unit", "verdict", "reason"]];
+  const rows: (string | number | null)[][] = [["kind", "requirement", "priority", "required", "arm", "value", "unit", "verdict", "reason"]];
   const nSpecs = result.requirementSet.specs.length;
   for (let i = 0; i < nSpecs; i++) {
     for (const a of result.arms) {
@@ -39,7 +37,7 @@ export function complianceCsv(result: ShortlistAnalysis): string {
       rows.push(["path", name, "", `${(p.speed.required * 1000).toFixed(0)} mm/s`, a.name, f === null ? "" : (f * 100).toFixed(0), f === null ? "" : "% of required speed", p.verdict, p.reason]);
     }
   });
-  return rows.map((r) => r.map(csvField).join(",")).join("\n") + "\n";
+  return csvText(rows, "\n");
 }
 
 export const command: CliCommand = {

@@ -3,14 +3,30 @@
  * The form shows mm, degrees, kg, N·m (N for prismatic), and keeps every value as typed text;
  * values that were loaded and not edited are sent back exactly as loaded (no rounding drift).
  */
-import { armSchema, type ArmDocument, type FieldError, type Mounting } from "@/shared/schemas";
+import { armSchema, type ArmDocument, type ArmSource, type ChainJointSpec, type Convention, type FieldError, type JointSpec, type Mounting } from "@/shared/schemas";
 import { degToRad, jointFromDisplay, jointToDisplay, jointUnit, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { checkFormDoc } from "../formDoc";
 import { parseNum, parsePose, poseMatrix, poseTextFromMatrix, rowKey, samePose, show, isZeroPose, type PoseText } from "../pose";
 
 export type JointType = "revolute" | "prismatic";
-export const JOINT_NUM_FIELDS = ["a", "alpha", "d", "theta", "min", "max", "maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ", "radius"] as const;
+export const JOINT_NUM_FIELDS = [
+  "a", "alpha", "d", "theta",
+  "ox", "oy", "oz", "roll", "pitch", "yaw", "axisX", "axisY", "axisZ",
+  "min", "max", "maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ", "radius",
+] as const;
 export type JointNumField = (typeof JOINT_NUM_FIELDS)[number];
+/** The DH table columns (`dh`, `mdh`). */
+export const DH_FIELDS = ["a", "alpha", "d", "theta"] as const;
+/** The chain columns: origin x y z (mm), roll pitch yaw (°), axis x y z (no unit). */
+export const ORIGIN_FIELDS = ["ox", "oy", "oz", "roll", "pitch", "yaw"] as const;
+export const AXIS_FIELDS = ["axisX", "axisY", "axisZ"] as const;
+type ChainField = (typeof ORIGIN_FIELDS)[number] | (typeof AXIS_FIELDS)[number];
+/** Document path of a chain column, e.g. "origin.xyz.0" or "axis.2". */
+export const CHAIN_FIELD_PATH: Record<ChainField, string> = {
+  ox: "origin.xyz.0", oy: "origin.xyz.1", oz: "origin.xyz.2",
+  roll: "origin.rpy.0", pitch: "origin.rpy.1", yaw: "origin.rpy.2",
+  axisX: "axis.0", axisY: "axis.1", axisZ: "axis.2",
+};
 
 export interface JointRow {
   key: string;
@@ -19,6 +35,16 @@ export interface JointRow {
   alpha: string;
   d: string;
   theta: string;
+  /** Chain joints: origin translation (mm) and roll, pitch, yaw (°), axis components. */
+  ox: string;
+  oy: string;
+  oz: string;
+  roll: string;
+  pitch: string;
+  yaw: string;
+  axisX: string;
+  axisY: string;
+  axisZ: string;
   min: string;
   max: string;
   maxSpeed: string;
@@ -28,6 +54,8 @@ export interface JointRow {
   comY: string;
   comZ: string;
   radius: string;
+  /** Chain joints: inertia tensor as loaded (not edited in the form, kept on save). */
+  inertia?: [number, number, number, number, number, number];
   /** Values as loaded: text shown and the SI value behind it, with the joint type then. */
   orig?: { type: JointType; values: Partial<Record<JointNumField, { text: string; si: number }>> };
 }
@@ -44,8 +72,10 @@ export interface ArmForm {
   maker: string;
   modelCode: string;
   description: string;
-  convention: "dh" | "mdh";
+  convention: Convention;
   joints: JointRow[];
+  /** The file the arm was imported from (kept on save, not edited). */
+  source?: ArmSource;
   base: PoseText;
   tool: PoseText;
   baseOrig?: { text: PoseText; matrix: number[] };
@@ -73,6 +103,15 @@ export const JOINT_LABEL: Record<JointNumField, string> = {
   alpha: "α",
   d: "d",
   theta: "θ",
+  ox: "origin x",
+  oy: "origin y",
+  oz: "origin z",
+  roll: "origin roll",
+  pitch: "origin pitch",
+  yaw: "origin yaw",
+  axisX: "axis x",
+  axisY: "axis y",
+  axisZ: "axis z",
   min: "min",
   max: "max",
   maxSpeed: "max speed",
@@ -89,7 +128,14 @@ export function jointFieldUnit(field: JointNumField, type: JointType): string {
   switch (field) {
     case "alpha":
     case "theta":
+    case "roll":
+    case "pitch":
+    case "yaw":
       return "°";
+    case "axisX":
+    case "axisY":
+    case "axisZ":
+      return "";
     case "min":
     case "max":
       return jointUnit(type);
@@ -109,6 +155,9 @@ export function jointFieldToDisplay(field: JointNumField, type: JointType, si: n
   switch (field) {
     case "alpha":
     case "theta":
+    case "roll":
+    case "pitch":
+    case "yaw":
       return radToDeg(si);
     case "min":
     case "max":
@@ -116,6 +165,9 @@ export function jointFieldToDisplay(field: JointNumField, type: JointType, si: n
       return jointToDisplay(type, si);
     case "maxTorque":
     case "mass":
+    case "axisX":
+    case "axisY":
+    case "axisZ":
       return si;
     default:
       return mToMm(si);
@@ -126,6 +178,9 @@ export function jointFieldFromDisplay(field: JointNumField, type: JointType, sho
   switch (field) {
     case "alpha":
     case "theta":
+    case "roll":
+    case "pitch":
+    case "yaw":
       return degToRad(shown);
     case "min":
     case "max":
@@ -133,6 +188,9 @@ export function jointFieldFromDisplay(field: JointNumField, type: JointType, sho
       return jointFromDisplay(type, shown);
     case "maxTorque":
     case "mass":
+    case "axisX":
+    case "axisY":
+    case "axisZ":
       return shown;
     default:
       return mmToM(shown);
@@ -147,6 +205,15 @@ export function newJointRow(type: JointType = "revolute"): JointRow {
     alpha: "0",
     d: "0",
     theta: "0",
+    ox: "0",
+    oy: "0",
+    oz: "0",
+    roll: "0",
+    pitch: "0",
+    yaw: "0",
+    axisX: "0",
+    axisY: "0",
+    axisZ: "1",
     min: type === "revolute" ? "-180" : "0",
     max: type === "revolute" ? "180" : "500",
     maxSpeed: "",
@@ -203,12 +270,23 @@ const SPEC_FROM_DISPLAY: Record<string, (v: number) => number> = {
 };
 
 export function armFormFromDoc(doc: ArmDocument): ArmForm {
-  const joints: JointRow[] = doc.joints.map((j) => {
+  const joints: JointRow[] = (doc.joints as (JointSpec | ChainJointSpec)[]).map((j) => {
+    const dh = "a" in j ? j : undefined;
+    const ch = "origin" in j ? j : undefined;
     const si: Record<JointNumField, number | undefined> = {
-      a: j.a,
-      alpha: j.alpha,
-      d: j.d,
-      theta: j.theta,
+      a: dh?.a,
+      alpha: dh?.alpha,
+      d: dh?.d,
+      theta: dh?.theta,
+      ox: ch?.origin.xyz[0],
+      oy: ch?.origin.xyz[1],
+      oz: ch?.origin.xyz[2],
+      roll: ch?.origin.rpy[0],
+      pitch: ch?.origin.rpy[1],
+      yaw: ch?.origin.rpy[2],
+      axisX: ch?.axis[0],
+      axisY: ch?.axis[1],
+      axisZ: ch?.axis[2],
       min: j.min,
       max: j.max,
       maxSpeed: j.maxSpeed,
@@ -219,13 +297,16 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
       comZ: j.com?.[2],
       radius: j.radius,
     };
-    const row = { ...newJointRow(j.type), orig: { type: j.type, values: {} as NonNullable<JointRow["orig"]>["values"] } };
+    const row: JointRow = { ...newJointRow(j.type), orig: { type: j.type, values: {} } };
     for (const f of JOINT_NUM_FIELDS) {
       const v = si[f];
       const text = v === undefined ? "" : show(jointFieldToDisplay(f, j.type, v));
+      // Columns of the other convention keep their defaults (used if the convention is switched).
+      if (v === undefined && ((ch && (DH_FIELDS as readonly string[]).includes(f)) || (dh && f in CHAIN_FIELD_PATH))) continue;
       row[f] = text;
-      if (v !== undefined) row.orig.values[f] = { text, si: v };
+      if (v !== undefined) row.orig!.values[f] = { text, si: v };
     }
+    if (ch?.inertia) row.inertia = [...ch.inertia];
     return row;
   });
   const s = doc.specs ?? {};
@@ -246,6 +327,7 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
     description: doc.description ?? "",
     convention: doc.convention,
     joints,
+    source: doc.source ? { ...doc.source } : undefined,
     base,
     tool,
     baseOrig: doc.base ? { text: { ...base }, matrix: doc.base.slice() } : undefined,
@@ -303,15 +385,30 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
       if (v === undefined && row[f].trim() === "") errors.push({ path: `joints.${i}.${f}`, message: `joint ${i + 1} ${JOINT_LABEL[f]} is required` });
       return v ?? 0;
     };
-    const joint: ArmDocument["joints"][number] = {
-      type: row.type,
-      a: need("a"),
-      alpha: need("alpha"),
-      d: need("d"),
-      theta: need("theta"),
-      min: need("min"),
-      max: need("max"),
+    const needAt = (f: ChainField): number => {
+      const path = `joints.${i}.${CHAIN_FIELD_PATH[f]}`;
+      const v = get(f, path);
+      if (v === undefined && row[f].trim() === "") errors.push({ path, message: `joint ${i + 1} ${JOINT_LABEL[f]} is required` });
+      return v ?? 0;
     };
+    const joint: JointSpec | ChainJointSpec =
+      form.convention === "chain"
+        ? {
+            type: row.type,
+            origin: { xyz: [needAt("ox"), needAt("oy"), needAt("oz")], rpy: [needAt("roll"), needAt("pitch"), needAt("yaw")] },
+            axis: [needAt("axisX"), needAt("axisY"), needAt("axisZ")],
+            min: need("min"),
+            max: need("max"),
+          }
+        : {
+            type: row.type,
+            a: need("a"),
+            alpha: need("alpha"),
+            d: need("d"),
+            theta: need("theta"),
+            min: need("min"),
+            max: need("max"),
+          };
     const maxSpeed = get("maxSpeed", `joints.${i}.maxSpeed`);
     if (maxSpeed !== undefined) joint.maxSpeed = maxSpeed;
     const maxTorque = get("maxTorque", `joints.${i}.maxTorque`);
@@ -324,6 +421,7 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
     const cy = get("comY", `joints.${i}.com.1`);
     const cz = get("comZ", `joints.${i}.com.2`);
     if (cx !== undefined || cy !== undefined || cz !== undefined) joint.com = [cx ?? 0, cy ?? 0, cz ?? 0];
+    if (row.inertia && "origin" in joint) joint.inertia = [...row.inertia];
     return joint;
   });
 
@@ -372,11 +470,12 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
     });
   }
 
-  const doc: ArmDocument = {
+  const doc = {
     name: form.name,
     convention: form.convention,
     joints,
-  };
+  } as ArmDocument;
+  if (form.source) doc.source = { ...form.source };
   if (form.maker.trim()) doc.maker = form.maker.trim();
   if (form.modelCode.trim()) doc.modelCode = form.modelCode.trim();
   if (form.description.trim()) doc.description = form.description;
@@ -399,7 +498,15 @@ export function armPathLabel(path: string): string {
   if (p[0] === "joints" && p.length >= 2) {
     const n = Number(p[1]) + 1;
     if (p.length === 2) return `joint ${n}`;
-    const f = p[2] === "com" ? "CoM" + (p[3] !== undefined ? " " + "xyz"[Number(p[3])] : "") : (JOINT_LABEL as Record<string, string>)[p[2]] ?? p[2];
+    const xyz = (k: string | undefined) => (k !== undefined ? " " + ("xyz"[Number(k)] ?? k) : "");
+    const f =
+      p[2] === "com"
+        ? "CoM" + xyz(p[3])
+        : p[2] === "axis"
+          ? "axis" + xyz(p[3])
+          : p[2] === "origin"
+            ? "origin" + (p[3] === "rpy" ? (p[4] !== undefined ? " " + (["roll", "pitch", "yaw"][Number(p[4])] ?? p[4]) : " rpy") : xyz(p[4]))
+            : (JOINT_LABEL as Record<string, string>)[p[2]] ?? p[2];
     return `joint ${n} ${f}`;
   }
   if (p[0] === "specs") {

@@ -1,14 +1,10 @@
 "use client";
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { api } from "@/components/api";
+import type { AnchorOption } from "@/lib/views/anchors";
 import "./discussion.css";
 
-/** Something a comment can be about. `id` null = the whole shortlist. */
-export interface AnchorOption {
-  type: "shortlist" | "arm" | "target" | "path" | "compliance";
-  id: string | null;
-  label: string;
-}
+export type { AnchorOption };
 
 export type DiscussionMode =
   | { kind: "member"; shortlistId: string; userId: string; canWrite: boolean; canResolve: boolean; canModerate: boolean }
@@ -23,6 +19,8 @@ interface CommentView {
   body: string;
   /** Sanitised on the server (lib/markdown): the only HTML this panel inserts. */
   html: string;
+  /** Set when the server could not render the body; shown instead of it. */
+  renderError?: string | null;
   revision: number;
   createdAt: string;
   editedAt: string | null;
@@ -209,6 +207,10 @@ function CommentItem({ c, mode, base, onChange, isRoot, thread }: { c: CommentVi
             </button>
           </div>
         </form>
+      ) : c.renderError ? (
+        <p className="comment-body unrenderable" data-testid="comment-body" role="note">
+          <em>{c.renderError[0].toUpperCase() + c.renderError.slice(1)}.</em>
+        </p>
       ) : (
         <div className="comment-body" data-testid="comment-body" dangerouslySetInnerHTML={{ __html: c.html }} />
       )}

@@ -1,12 +1,10 @@
 import "server-only";
 import { can, type SessionUser } from "@/lib/auth/permissions";
 import { ShareLinkManager } from "@/components/share/ShareLinkManager";
-import { DiscussionPanel } from "./DiscussionPanel";
-import { shortlistAnchors } from "./anchors";
+import { DiscussionPanel, type AnchorOption } from "./DiscussionPanel";
 
 /** The shortlist page's discussion and (for editors and admins) its share links. */
-export async function ShortlistCollaboration({ shortlistId, user }: { shortlistId: string; user: SessionUser }) {
-  const anchors = await shortlistAnchors(shortlistId);
+export function ShortlistCollaboration({ shortlistId, user, anchors }: { shortlistId: string; user: SessionUser; anchors: AnchorOption[] }) {
   const on = { shortlistId };
   return (
     <>

@@ -1,4 +1,4 @@
-import type { GuestShortlistView } from "@/lib/db/share-view";
+import type { GuestShortlistView } from "@/lib/views/share-view";
 
 const Verdict = ({ v, reason }: { v: string; reason: string }) => (
   <span className={`verdict-${v}`} title={reason}>

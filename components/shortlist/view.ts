@@ -24,7 +24,13 @@ function limitingText(t: TargetAnalysis): string {
 function targetCell(t: TargetAnalysis): MatrixCell {
   const details: string[] = [`mode ${t.mode}`, `position error ${fmtNum(mm(t.positionError), 4)} mm` + (t.mode === "point" ? "" : `, rotation error ${fmtNum(deg(t.rotationError), 4)}°`)];
   if (t.reached) details.push(`${t.solutions.length} distinct branch${t.solutions.length === 1 ? "" : "es"} found; best dexterity margin chosen`);
-  if (t.dexterity) details.push(`translational inverse condition ${fmtNum(t.dexterity.translation.inverseCondition, 3)}, orientation ${fmtNum(t.dexterity.orientation.inverseCondition, 3)}, joint-limit margin ${fmtNum(t.dexterity.jointLimits.margin, 3)}`);
+  if (t.dexterity) {
+    const d = t.dexterity;
+    const orientation = d.axisOrientation
+      ? `orientation ${fmtNum(d.axisOrientation.inverseCondition, 3)} about the tool x and y axes (the rotations an axis target constrains; ${fmtNum(d.orientation.inverseCondition, 3)} over all three)`
+      : `orientation ${fmtNum(d.orientation.inverseCondition, 3)}`;
+    details.push(`translational inverse condition ${fmtNum(d.translation.inverseCondition, 3)}, ${orientation}, joint-limit margin ${fmtNum(d.jointLimits.margin, 3)}`);
+  }
   if (t.holding) details.push(`holding: ${t.holding.verdict} — ${t.holding.reason}`);
   if (t.force) details.push(`force: ${t.force.verdict} — ${t.force.reason}`);
   if (t.wrist) details.push(`wrist: ${t.wrist.verdict} — ${t.wrist.reason}`);

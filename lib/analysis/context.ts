@@ -7,7 +7,7 @@
  * every Jacobian is expressed in the cell frame with gravity along −z of the cell (a tilted or
  * hanging base therefore gets the right gravity direction).
  */
-import type { ArmDocument } from "@/shared/schemas/arm";
+import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { computeJacobian, createData, createModel, createRng, randomConfiguration, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
@@ -39,7 +39,7 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   const base = mul4(req.base, arm.base ?? IDENTITY_4);
   const tcp = Float64Array.from(req.tool.tcp);
   const tool = mul4(arm.tool ?? IDENTITY_4, tcp);
-  const model = createModel({ name: arm.name, convention: arm.convention, joints: arm.joints, base: Array.from(base), tool: Array.from(tool) });
+  const model = createModel({ ...kinematicsOf(arm), base: Array.from(base), tool: Array.from(tool) });
   const data = createData(model);
   const jac = new Float64Array(6 * model.n);
   const tcpInverse = invertRigid(tcp);
@@ -49,10 +49,11 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   if (req.payload.mass > 0) loads.push({ mass: req.payload.mass, pointInTool: req.payload.cog });
   const rng = createRng(seed);
   const q = new Float64Array(model.n);
-  const jacs: Float64Array[] = [];
+  const jacs: Float64Array[] = [], toolPoses: Float64Array[] = [];
   for (let i = 0; i < 6; i++) {
     randomConfiguration(model, rng, q);
     jacs.push(Float64Array.from(computeJacobian(model, data, q, jac)));
+    toolPoses.push(Float64Array.from(data.toolPose));
   }
   let hasTorqueLimits = false, hasSpeedLimits = false;
   for (let i = 0; i < model.n; i++) {
@@ -60,7 +61,7 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
     if (model.maxSpeed[i] > 0) hasSpeedLimits = true;
   }
   return {
-    model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n), toolCogInTcp, loads,
+    model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n, toolPoses), toolCogInTcp, loads,
     loadMass: req.tool.mass + req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
   };
 }

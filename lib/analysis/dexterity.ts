@@ -13,6 +13,7 @@
  * - smallest singular value σ_r;
  * - scale-free affine-invariant distance of J Jᵀ to the nearest isotropic matrix c·I (below).
  */
+import { taskJacobianInto } from "@/lib/kinematics";
 import { svdRows, symmetricEigen, cholesky, type SvdRows } from "./linalg";
 
 /** Singular values below this fraction of the block's σ₁ count as zero when ranks are counted. */
@@ -29,9 +30,12 @@ export const JOINT_MARGIN_SATURATION = 0.25;
 
 /** Measures of one 3×n block (translational or rotational) of a Jacobian. */
 export interface BlockMeasures {
-  /** Singular values, descending (3 numbers; m/rad for translation, dimensionless for rotation). */
+  /**
+   * Singular values, descending (3 numbers, 2 for the axis-target block; m/rad for translation,
+   * dimensionless for rotation).
+   */
   singularValues: number[];
-  /** Principal directions u₁, u₂, u₃ (unit 3-vectors, cell frame), matching `singularValues`. */
+  /** Principal directions (unit 3-vectors, cell frame), one per entry of `singularValues`. */
   directions: number[][];
   /**
    * Rank counted from the arm's structure (the generic rank r this block can have; ≤ 3). 0 means
@@ -58,7 +62,7 @@ export interface BlockMeasures {
  * Measures of a 3×n block given its SVD. `rank` is the generic rank to use (structural: e.g. 1 for
  * the rotation of a 4-axis SCARA); defaults to the numerical rank of this matrix.
  */
-export function blockMeasuresFromSvd(svd: SvdRows, rank?: number): BlockMeasures {
+export function blockMeasuresFromSvd(svd: SvdRows, rank?: number, reference = 0): BlockMeasures {
   const s = svd.sigma;
   const directions: number[][] = [];
   for (let j = 0; j < 3; j++) directions.push([svd.u[j], svd.u[3 + j], svd.u[6 + j]]);
@@ -67,6 +71,8 @@ export function blockMeasuresFromSvd(svd: SvdRows, rank?: number): BlockMeasures
     // nothing to condition, so the block is neutral (factor 1) rather than singular.
     return { singularValues: [s[0], s[1], s[2]], directions, rank: 0, manipulability: 1, inverseCondition: 1, minSingularValue: 0, isotropyDistance: 0 };
   }
+  // A derived block that is only rounding noise against its reference is structurally absent.
+  if (rank === undefined && reference > 0 && numericalRank(s, reference) === 0) return blockMeasuresFromSvd(svd, 0);
   const r = Math.max(1, Math.min(3, rank ?? numericalRank(s)));
   let w = 1;
   for (let i = 0; i < r; i++) w *= s[i];
@@ -83,11 +89,17 @@ export function blockMeasuresFromSvd(svd: SvdRows, rank?: number): BlockMeasures
   };
 }
 
-/** Count of singular values above {@link RANK_TOLERANCE}·σ₁ (descending input). */
-export function numericalRank(sigma: ArrayLike<number>): number {
-  if (!(sigma[0] > 0)) return 0;
+/**
+ * Count of singular values above {@link RANK_TOLERANCE}·max(σ₁, reference) (descending input).
+ * `reference` is the scale of the matrix a block was derived from (σ₁ of the rotational block for
+ * the orientation blocks): a block that is zero in exact arithmetic holds only rounding noise, and
+ * against its own σ₁ that noise would count as full rank.
+ */
+export function numericalRank(sigma: ArrayLike<number>, reference = 0): number {
+  const scale = Math.max(sigma[0], reference);
+  if (!(scale > 0)) return 0;
   let r = 0;
-  for (let i = 0; i < sigma.length; i++) if (sigma[i] > RANK_TOLERANCE * sigma[0]) r++;
+  for (let i = 0; i < sigma.length; i++) if (sigma[i] > RANK_TOLERANCE * scale) r++;
   return r;
 }
 
@@ -222,6 +234,11 @@ export interface StructuralRanks {
   orientation: number;
   /** Rank of the plain rotational block (≤ 3). */
   rotation: number;
+  /**
+   * Rank of that orientation block projected on the tool's x and y axes (≤ 2): the rotations an
+   * `axis` target constrains (0 for an arm whose tool can only spin about its own z axis).
+   */
+  axisOrientation: number;
 }
 
 /** Which factor limits the dexterity margin. */
@@ -239,6 +256,13 @@ export interface DexterityReport {
    * wrist singularities, which neither block shows alone.
    */
   orientation: BlockMeasures;
+  /**
+   * `axis` mode only (null otherwise): the orientation block projected on the tool's x and y
+   * axes, the 2×n matrix [xᵀ·J_o; yᵀ·J_o] (J_o the block above). An axis target leaves the spin
+   * about the tool z axis free, so only these two rotations are constrained; its orientation factor
+   * is this block's σ₂/σ₁. Directions are cell-frame unit vectors in the tool's x-y plane.
+   */
+  axisOrientation: BlockMeasures | null;
   jointLimits: JointLimitMargin;
   /** Joint-limit factor h = min(1, m / JOINT_MARGIN_SATURATION). */
   jointLimitFactor: number;
@@ -255,7 +279,10 @@ export interface DexterityReport {
  * - ι_t = 1/κ of the translational block: how evenly the tool point can move in all directions
  *   (0 at a position singularity: arm stretched or folded).
  * - ι_o = 1/κ of the rotational block restricted to the null space of the translational block:
- *   how evenly the tool can turn about the fixed point (0 at a wrist singularity).
+ *   how evenly the tool can turn about the fixed point (0 at a wrist singularity). For `axis`
+ *   targets only the rotations about the tool's x and y axes are constrained (the spin about z is
+ *   free), so ι_o = σ₂/σ₁ of that block projected on x and y, [xᵀ·J_o; yᵀ·J_o] (2×n); the full
+ *   three-direction block is still reported beside it.
  * - h = min(1, m/0.25), m the joint-limit margin: a joint within 12.5 % of its range from a limit
  *   lowers D, linearly to 0 at the limit; being nearer mid-range than that adds nothing.
  * - D = (ι_t·ι_o·h)^(1/3) for `pose` and `axis` targets, D = (ι_t·h)^(1/2) for `point` targets
@@ -286,16 +313,25 @@ export function dexterityAt(
   q: ArrayLike<number>,
   mode: "pose" | "axis" | "point",
   ranks?: StructuralRanks,
+  toolPose?: ArrayLike<number>,
 ): DexterityReport {
+  if (mode === "axis" && (!toolPose || toolPose.length < 12)) throw new RangeError("toolPose: the tool pose (row-major 4×4) is needed for an axis target");
   const svdT = svdRows(jac, 3, n, 0);
   const svdR = svdRows(jac, 3, n, 3);
   const translation = blockMeasuresFromSvd(svdT, ranks?.translation);
   const rotation = blockMeasuresFromSvd(svdR, ranks?.rotation);
-  const svdO = svdRows(orientationBlock(jac, n, svdT), 3, n, 0);
-  const orientation = blockMeasuresFromSvd(svdO, ranks?.orientation);
+  const jo = orientationBlock(jac, n, svdT);
+  const svdO = svdRows(jo, 3, n, 0);
+  const rScale = svdR.sigma[0];
+  const orientation = blockMeasuresFromSvd(svdO, ranks?.orientation, rScale);
+  let axisOrientation: BlockMeasures | null = null;
+  if (mode === "axis") {
+    const svdA = svdRows(axisOrientationBlock(jac, jo, n, toolPose!), 2, n, 0);
+    axisOrientation = axisBlockMeasures(svdA, toolPose!, ranks?.axisOrientation ?? numericalRank(svdA.sigma, rScale));
+  }
   const jointLimits = jointLimitMargin(limits, q);
   const h = Math.min(1, jointLimits.margin / JOINT_MARGIN_SATURATION);
-  const iotaT = translation.inverseCondition, iotaO = orientation.inverseCondition;
+  const iotaT = translation.inverseCondition, iotaO = (axisOrientation ?? orientation).inverseCondition;
   const margin = dexterityMargin(iotaT, iotaO, h, mode);
   const candidates: { factor: DexterityLimit; value: number; joint: number | null }[] = [
     { factor: "translation", value: iotaT, joint: null },
@@ -305,7 +341,7 @@ export function dexterityAt(
   let limiting = candidates[0];
   for (const c of candidates) if (c.value < limiting.value) limiting = c;
   return {
-    translation, rotation, orientation, jointLimits, jointLimitFactor: h, margin, limiting,
+    translation, rotation, orientation, axisOrientation, jointLimits, jointLimitFactor: h, margin, limiting,
     marginal: margin < DEXTERITY_MARGINAL_THRESHOLD,
   };
 }
@@ -332,14 +368,56 @@ export function orientationBlock(jac: ArrayLike<number>, n: number, svdT: SvdRow
   return out;
 }
 
-/** Structural ranks from Jacobians at a few general configurations (the largest numerical ranks). */
-export function structuralRanksFromJacobians(jacs: ArrayLike<number>[], n: number): StructuralRanks {
-  let t = 0, o = 0, r = 0;
-  for (const jac of jacs) {
+/**
+ * The 2×n block [xᵀ·J_o; yᵀ·J_o] of an axis target: the orientation block `jo` (3×n, from
+ * {@link orientationBlock}) projected on the tool's x and y axes by the task construction that IK
+ * and paths use (lib/kinematics/task.ts, `axis` rows 3–4). `jac` supplies the translational rows.
+ */
+export function axisOrientationBlock(jac: ArrayLike<number>, jo: ArrayLike<number>, n: number, toolPose: ArrayLike<number>): Float64Array {
+  const stacked = new Float64Array(6 * n);
+  for (let k = 0; k < 3 * n; k++) { stacked[k] = jac[k]; stacked[3 * n + k] = jo[k]; }
+  const task = new Float64Array(5 * n);
+  taskJacobianInto("axis", stacked, n, toolPose, task);
+  return task.subarray(3 * n, 5 * n);
+}
+
+/** Measures of the 2-row axis block of rank `rank`; directions mapped from the tool's x-y plane to the cell frame. */
+function axisBlockMeasures(svd: SvdRows, toolPose: ArrayLike<number>, rank: number): BlockMeasures {
+  const s = svd.sigma;
+  const x = [toolPose[0], toolPose[4], toolPose[8]], y = [toolPose[1], toolPose[5], toolPose[9]];
+  const directions: number[][] = [];
+  for (let j = 0; j < 2; j++) {
+    const a = svd.u[j], b = svd.u[2 + j];
+    directions.push([a * x[0] + b * y[0], a * x[1] + b * y[1], a * x[2] + b * y[2]]);
+  }
+  const singularValues = [s[0], s[1]];
+  if (rank === 0) return { singularValues, directions, rank: 0, manipulability: 1, inverseCondition: 1, minSingularValue: 0, isotropyDistance: 0 };
+  const r = Math.max(1, Math.min(2, rank));
+  const smin = s[r - 1];
+  return {
+    singularValues, directions, rank: r,
+    manipulability: r === 2 ? s[0] * s[1] : s[0],
+    inverseCondition: s[0] > 0 ? smin / s[0] : 0,
+    minSingularValue: smin,
+    isotropyDistance: isotropyDistance(Array.from(s.subarray(0, r))),
+  };
+}
+
+/**
+ * Structural ranks from Jacobians at a few general configurations (the largest numerical ranks).
+ * `toolPoses` (the tool pose at each of those configurations) give the axis-target rank; without
+ * them it is taken as min(2, orientation rank), an upper bound.
+ */
+export function structuralRanksFromJacobians(jacs: ArrayLike<number>[], n: number, toolPoses?: ArrayLike<number>[]): StructuralRanks {
+  let t = 0, o = 0, r = 0, a = 0;
+  jacs.forEach((jac, i) => {
     const svdT = svdRows(jac, 3, n, 0);
     t = Math.max(t, numericalRank(svdT.sigma));
-    r = Math.max(r, numericalRank(svdRows(jac, 3, n, 3).sigma));
-    o = Math.max(o, numericalRank(svdRows(orientationBlock(jac, n, svdT), 3, n, 0).sigma));
-  }
-  return { translation: t, orientation: o, rotation: r };
+    const svdR = svdRows(jac, 3, n, 3);
+    r = Math.max(r, numericalRank(svdR.sigma));
+    const jo = orientationBlock(jac, n, svdT);
+    o = Math.max(o, numericalRank(svdRows(jo, 3, n, 0).sigma, svdR.sigma[0]));
+    if (toolPoses) a = Math.max(a, numericalRank(svdRows(axisOrientationBlock(jac, jo, n, toolPoses[i]), 2, n, 0).sigma, svdR.sigma[0]));
+  });
+  return { translation: t, orientation: o, rotation: r, axisOrientation: toolPoses ? a : Math.min(2, o) };
 }

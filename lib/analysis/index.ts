@@ -3,6 +3,7 @@
  * frame). Browser-safe: the cache key (node:crypto) lives in ./key.
  */
 export * from "./types";
+export * from "./canonical";
 export * from "./linalg";
 export * from "./dexterity";
 export * from "./statics";

@@ -5,7 +5,7 @@
  * of the required speed, and profiles of the smallest singular value and the dexterity margin.
  */
 import type { PathSpec } from "@/shared/schemas/requirements";
-import { computeJacobian, solveIk, solveIkMulti, type IkResult } from "@/lib/kinematics";
+import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount, taskVelocityInto, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
@@ -150,7 +150,7 @@ export function analyzePath(ctx: ArmContext, path: PathSpec, budget: PathBudget,
   // Try start branches in order of their dexterity margin; keep the first that carries through.
   const ranked = starts.map((r) => {
     computeJacobian(model, data, r.q, ctx.jac);
-    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks).margin };
+    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks, data.toolPose).margin };
   }).sort((a, b) => b.m - a.m);
   let best: Traversal | null = null;
   for (const st of ranked.slice(0, Math.max(1, budget.startBranches))) {
@@ -239,30 +239,19 @@ function traverse(ctx: ArmContext, path: PathSpec, samples: Sample[], start: IkR
 /** det of the square task Jacobian (rows by mode), or null when it is not square. */
 function taskDeterminant(ctx: ArmContext, q: Float64Array, mode: PathSpec["mode"]): number | null {
   const n = ctx.model.n;
-  const rows = mode === "pose" ? 6 : mode === "axis" ? 5 : 3;
-  if (rows !== n) return null;
+  if (taskRowCount(mode) !== n) return null;
   const a = taskJacobian(ctx, q, mode);
   return determinant(a.matrix, n);
 }
 
-/** Task Jacobian rows (point: v; axis: v and ω about the tool x and y axes; pose: v, ω). */
-function taskJacobian(ctx: ArmContext, q: Float64Array, mode: PathSpec["mode"]): { matrix: Float64Array; rows: number; toolX: number[]; toolY: number[] } {
+/** Task Jacobian of the mode at q (lib/kinematics/task.ts); leaves the full Jacobian in ctx.jac and FK at q in ctx.data. */
+function taskJacobian(ctx: ArmContext, q: Float64Array, mode: PathSpec["mode"]): { matrix: Float64Array; rows: number } {
   const { model, data } = ctx;
   const n = model.n;
   computeJacobian(model, data, q, ctx.jac);
-  const t = data.toolPose;
-  const toolX = [t[0], t[4], t[8]], toolY = [t[1], t[5], t[9]];
-  const rows = mode === "pose" ? 6 : mode === "axis" ? 5 : 3;
-  const m = new Float64Array(rows * n);
-  for (let r = 0; r < Math.min(rows, 6); r++) if (r < 3 || mode === "pose") for (let c = 0; c < n; c++) m[r * n + c] = ctx.jac[r * n + c];
-  if (mode === "axis") {
-    for (let c = 0; c < n; c++) {
-      const wx = ctx.jac[3 * n + c], wy = ctx.jac[4 * n + c], wz = ctx.jac[5 * n + c];
-      m[3 * n + c] = toolX[0] * wx + toolX[1] * wy + toolX[2] * wz;
-      m[4 * n + c] = toolY[0] * wx + toolY[1] * wy + toolY[2] * wz;
-    }
-  }
-  return { matrix: m, rows, toolX, toolY };
+  const m = new Float64Array(taskRowCount(mode) * n);
+  const rows = taskJacobianInto(mode, ctx.jac, n, data.toolPose, m);
+  return { matrix: m, rows };
 }
 
 function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Traversal, length: number, step: number, coarsened: boolean): PathAnalysis {
@@ -278,7 +267,7 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
     const q = tr.qs[k];
     if (!q) { prof.sigmaMinTranslation.push(null); prof.dexterityMargin.push(null); prof.speedRatio.push(null); return; }
     const task = taskJacobian(ctx, q, path.mode); // also leaves the full Jacobian in ctx.jac
-    const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks);
+    const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks, ctx.data.toolPose);
     prof.sigmaMinTranslation.push(dex.translation.minSingularValue);
     prof.dexterityMargin.push(dex.margin);
     minMargin = minMargin === null ? dex.margin : Math.min(minMargin, dex.margin);
@@ -289,9 +278,8 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
     }
     if (!smp.twist) { rotationOnly = true; prof.speedRatio.push(null); return; }
     const tw = smp.twist;
-    const b = path.mode === "point" ? tw.slice(0, 3)
-      : path.mode === "axis" ? [tw[0], tw[1], tw[2], dot(task.toolX, tw.slice(3)), dot(task.toolY, tw.slice(3))]
-      : tw;
+    const b = new Float64Array(task.rows);
+    taskVelocityInto(path.mode, tw, ctx.data.toolPose, b);
     const qd = pseudoInverseSolve(svdRows(task.matrix, task.rows, n), b);
     let r: number | null = null, rj: number | null = null;
     for (let i = 0; i < n; i++) {
@@ -349,8 +337,4 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
     speed: { required: path.speed, ratio: finiteRatio === Infinity ? null : finiteRatio, achievableFraction: fraction, limitingJoint: limJoint, limitingSample: limSample, note: speedNote },
     minDexterityMargin: minMargin, profile: prof, q: tr.qs.map((q) => (q ? Array.from(q) : null)),
   };
-}
-
-function dot(a: readonly number[], b: readonly number[]): number {
-  return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 }

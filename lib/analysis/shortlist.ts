@@ -5,6 +5,7 @@
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Weights } from "@/shared/schemas/requirements";
+import { armSeedText, contentSeed } from "./canonical";
 import { createArmContext, type ArmContext } from "./context";
 import type { StructuralRanks } from "./dexterity";
 import { DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
@@ -16,7 +17,7 @@ import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, typ
 import type { Verdict } from "./types";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.1.0";
+export const ANALYSIS_VERSION = "analysis-1.4.0";
 
 /** Shown on every analysis page and export (RULES: the usual caution). */
 export const CAUTION =
@@ -107,11 +108,6 @@ export interface ShortlistAnalysis {
 
 const emptyCounts = (): VerdictCounts => ({ meets: 0, marginal: 0, fails: 0, unknown: 0 });
 
-/** Stable seed per (arm index, item index) so results do not depend on evaluation order. */
-function seedOf(armIndex: number, kind: number, item: number): number {
-  return (((armIndex + 1) * 7919 + kind * 104729 + item * 15485863) >>> 0) || 1;
-}
-
 /** Labels a spec requirement for lists of musts. */
 function specLabel(r: SpecResult): string {
   const op = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" }[r.comparator];
@@ -147,26 +143,28 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     const arm = entry.arm;
     const label = `arm ${ai + 1}/${arms.length} ${arm.name}`;
     const specs = time("spec", () => req.specs.map((s, i) => checkSpec(arm, s, i)));
+    // Seeds from the arm's content and the item's name, never from the arm's place in the list.
+    const seedText = armSeedText(arm);
     const ident = { id: entry.id, revision: entry.revision, name: arm.name, maker: arm.maker ?? null, modelCode: arm.modelCode ?? null, axes: arm.joints.length };
     let ctx: ArmContext;
     try {
-      ctx = createArmContext(arm, req, seedOf(ai, 0, 0));
+      ctx = createArmContext(arm, req, contentSeed(seedText, "ranks"));
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
       progress(`${label}: not analysed (invalid model)`, stepsPerArm);
       return finishArm(ident, null, [], [], specs, null, req, `the arm model is invalid: ${message}`);
     }
     const targets = time("targets", () => req.targets.map((t, i) => {
-      const r = analyzeTarget(ctx, arm, req, t, budget.target, seedOf(ai, 1, i), clock);
+      const r = analyzeTarget(ctx, arm, req, t, budget.target, contentSeed(seedText, "target", t.name), clock);
       progress(`${label}: target ${t.name} (${i + 1}/${nT})`);
       return r;
     }));
     const paths = time("paths", () => req.paths.map((p, i) => {
-      const r = analyzePath(ctx, p, budget.path, seedOf(ai, 2, i));
+      const r = analyzePath(ctx, p, budget.path, contentSeed(seedText, "path", p.name));
       progress(`${label}: path ${p.name} (${i + 1}/${nP})`);
       return r;
     }));
-    const workspace = time("workspace", () => analyzeWorkspace(ctx, arm.specs?.reach, req.targets.map((t, i) => ({ name: t.name, position: t.position, reached: targets[i].reached })), budget.workspace, seedOf(ai, 3, 0)));
+    const workspace = time("workspace", () => analyzeWorkspace(ctx, arm.specs?.reach, req.targets.map((t, i) => ({ name: t.name, position: t.position, reached: targets[i].reached })), budget.workspace, contentSeed(seedText, "workspace")));
     progress(`${label}: workspace and specs`);
     return finishArm(ident, ctx, targets, paths, specs, workspace, req, null);
   });
@@ -291,13 +289,15 @@ function addPriceScores(results: ArmAnalysis[], arms: readonly ShortlistArm[]): 
   const priced = arms.map((a, i) => ({ i, price: a.arm.specs?.price, currency: a.arm.specs?.currency ?? null }))
     .filter((x): x is { i: number; price: number; currency: string | null } => typeof x.price === "number" && x.price > 0);
   if (priced.length === 0) return;
-  const cheapest = priced.reduce((a, b) => (b.price < a.price ? b : a));
+  // Ties on price are broken by currency code (content, not list order).
+  const cur = (x: { currency: string | null }) => x.currency ?? "\uffff";
+  const cheapest = priced.reduce((a, b) => (b.price < a.price || (b.price === a.price && cur(b) < cur(a)) ? b : a));
   for (const p of priced) {
     const r = results[p.i];
     if (p.currency !== cheapest.currency) {
       r.subScores.price = { value: 0, applicable: true, note: `price in ${p.currency ?? "an unstated currency"}, not comparable with the cheapest (${cheapest.currency ?? "unstated"}): scored 0` };
     } else {
-      r.subScores.price = { value: cheapest.price / p.price, applicable: true, note: p.i === cheapest.i ? "cheapest candidate" : `${(p.price / cheapest.price).toFixed(2)}× the cheapest candidate` };
+      r.subScores.price = { value: cheapest.price / p.price, applicable: true, note: p.price === cheapest.price ? "cheapest candidate" : `${(p.price / cheapest.price).toFixed(2)}× the cheapest candidate` };
     }
   }
 }

@@ -6,7 +6,7 @@
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Target } from "@/shared/schemas/requirements";
-import { computeJacobian, solveIkMulti } from "@/lib/kinematics";
+import { computeJacobian, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
@@ -46,7 +46,10 @@ export interface SolutionSummary {
   margin: number;
   limiting: DexterityReport["limiting"];
   translationInverseCondition: number;
+  /** 1/κ of the full three-direction orientation block (rotations keeping the TCP still). */
   orientationInverseCondition: number;
+  /** `axis` targets: σ₂/σ₁ of that block on the tool's x and y axes, the factor the margin uses; null otherwise. */
+  axisOrientationInverseCondition: number | null;
   jointLimitMargin: number;
 }
 
@@ -156,7 +159,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
     mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
     maxRestarts: budget.restarts, maxSolutions: budget.maxSolutions, maxIterations: budget.maxIterations, seed,
   });
-  if (!results.some((r) => r.status === "reached") && !/beyond/.test(results[0].reason) && budget.escalatedRestarts > budget.restarts) {
+  if (!results.some((r) => r.status === "reached") && results[0].cause !== "beyond-reach" && budget.escalatedRestarts > budget.restarts) {
     const retry = solveIkMulti(model, data, pose, {
       mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
       maxRestarts: budget.escalatedRestarts, maxSolutions: 1, maxIterations: budget.maxIterations, seed: seed + 0x9e3779b9,
@@ -168,14 +171,8 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   const base = { name: target.name, mode: target.mode };
   if (reached.length === 0) {
     const best = results[0];
-    const beyond = /beyond/.test(best.reason);
     const reason = `not reached after ${best.restarts} restart${best.restarts === 1 ? "" : "s"}: best position error ${mm(best.positionError)}` +
-      (target.mode === "point" ? "" : `, rotation error ${deg(best.rotationError)}`) +
-      (beyond
-        ? " (beyond the arm's largest possible reach)"
-        : best.positionError > 0.005
-          ? " (outside the reachable workspace or excluded by joint limits, as far as the search could tell)"
-          : " (close: the search budget ran out; check with the maker's tools)");
+      (target.mode === "point" ? "" : `, rotation error ${deg(best.rotationError)}`) + ` (${missText(best, model)})`;
     return {
       ...base, verdict: "fails", reason, reached: false, positionError: best.positionError, rotationError: best.rotationError,
       ikReason: best.reason, solutions: [], chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null,
@@ -183,7 +180,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   }
   const reports: DexterityReport[] = reached.map((r) => {
     computeJacobian(model, data, r.q, ctx.jac);
-    return dexterityAt(ctx.jac, model.n, model, r.q, target.mode, ctx.ranks);
+    return dexterityAt(ctx.jac, model.n, model, r.q, target.mode, ctx.ranks, data.toolPose);
   });
   let chosen = 0;
   for (let i = 1; i < reports.length; i++) if (reports[i].margin > reports[chosen].margin) chosen = i;
@@ -191,6 +188,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
     q: Array.from(r.q), margin: reports[i].margin, limiting: reports[i].limiting,
     translationInverseCondition: reports[i].translation.inverseCondition,
     orientationInverseCondition: reports[i].orientation.inverseCondition,
+    axisOrientationInverseCondition: reports[i].axisOrientation?.inverseCondition ?? null,
     jointLimitMargin: reports[i].jointLimits.margin,
   }));
   const q = reached[chosen].q;
@@ -226,11 +224,39 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   };
 }
 
+/** A miss this close (m) is reported as close: more search might reach it. */
+export const CLOSE_MISS = 0.005;
+
+/** Words for why a target was not reached, from the IK result's structured cause. */
+function missText(best: IkResult, model: ArmModel): string {
+  switch (best.cause) {
+    case "beyond-reach": return "beyond the arm's largest possible reach: no configuration gets there";
+    case "joint-limit": {
+      const joints = limitJoints(model, best.q);
+      return `the search stalled with joint${joints.length > 1 ? "s" : ""} ${joints.join(", ")} at a limit: the pose is likely excluded by the joint limits`;
+    }
+    case "singularity": return "the search stalled where no joint motion brings the tool closer: likely outside the reachable workspace, or an orientation this arm's axes cannot make";
+    default: return best.positionError <= CLOSE_MISS
+      ? "close: the search budget ran out; check with the maker's tools"
+      : "the search budget ran out away from a limit or a singularity: the target may still be reachable; check with the maker's tools";
+  }
+}
+
+/** 1-based joints within IK_NEAR_LIMIT_FRACTION of their range from a limit. */
+function limitJoints(model: ArmModel, q: ArrayLike<number>): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < model.n; i++) {
+    const band = IK_NEAR_LIMIT_FRACTION * (model.upper[i] - model.lower[i]);
+    if (q[i] <= model.lower[i] + band || q[i] >= model.upper[i] - band) out.push(i + 1);
+  }
+  return out;
+}
+
 /** Words for the limiting factor of a dexterity report. */
 export function describeLimit(d: DexterityReport): string {
   switch (d.limiting.factor) {
     case "translation": return `translational conditioning 1/κ = ${num(d.limiting.value, 3)} (arm near stretched or folded)`;
-    case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)} (near a wrist singularity)`;
+    case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)}${d.axisOrientation ? " over the constrained rotations (about the tool x and y axes)" : ""} (near a wrist singularity)`;
     default: return `joint ${d.limiting.joint} near its limit (margin ${num(d.jointLimits.margin, 3)})`;
   }
 }
@@ -310,9 +336,8 @@ function wristCheck(ctx: ArmContext, arm: ArmDocument, req: RequirementSet, q: F
   let verdict: Verdict = "meets";
   const reasons: string[] = [];
   for (const a of allow) {
-    const f = 16 * (a.joint - 1 + model.axisFrameOffset);
-    const fr = data.frames;
-    const load = wristAxisLoad([fr[f + 2], fr[f + 6], fr[f + 10]], [fr[f + 3], fr[f + 7], fr[f + 11]], bodies);
+    const ax = jointAxisWorld(model, data, a.joint, new Float64Array(6));
+    const load = wristAxisLoad([ax[0], ax[1], ax[2]], [ax[3], ax[4], ax[5]], bodies);
     let v: Verdict = "meets";
     const why: string[] = [];
     if (a.moment !== undefined) {

@@ -7,7 +7,7 @@
  * Sampling finds points inside the envelope only, so the boundary and the reach are lower bounds;
  * a short coordinate search from the farthest samples tightens the reach.
  */
-import { createRng, forwardKinematics, randomConfiguration } from "@/lib/kinematics";
+import { createRng, forwardKinematics, jointAxisWorld, randomConfiguration } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
 
 export interface WorkspaceBudget {
@@ -31,7 +31,7 @@ export interface WorkspaceAnalysis {
   /** Targets in both views. */
   targets: { name: string; r: number; z: number; x: number; y: number; reached: boolean | null }[];
   /**
-   * Largest distance of the flange centre from joint 1's axis found (m) — the way datasheets
+   * Largest distance of the flange centre (the arm's tool point) from joint 1's axis found (m) — the way datasheets
    * usually state reach (common practice, no source) — after refinement; a lower bound.
    */
   sampledReach: number;
@@ -112,13 +112,23 @@ export function analyzeWorkspace(
   };
 }
 
-/** Distance of the flange origin from joint 1's axis (after an FK call). */
+const axisScratch = new Float64Array(6);
+
+/**
+ * Distance from joint 1's axis of the arm's own tool point, the flange centre (after an FK call):
+ * TCP pose · tcp⁻¹, i.e. the last link frame · the arm's `tool`, so the flange offset that an `mdh`
+ * table or an imported chain keeps in `tool` counts, and a DH table and its equivalent chain give
+ * the same reach.
+ */
 function flangeAxisDistance(ctx: ArmContext): number {
   const { model, data } = ctx;
-  const f = data.frames, b = 16 * model.axisFrameOffset;
-  const zx = f[b + 2], zy = f[b + 6], zz = f[b + 10];
-  const fl = data.flange;
-  const rx = fl[3] - f[b + 3], ry = fl[7] - f[b + 7], rz = fl[11] - f[b + 11];
+  const ax = jointAxisWorld(model, data, 1, axisScratch);
+  const zx = ax[0], zy = ax[1], zz = ax[2];
+  const t = data.toolPose, v = ctx.tcpInverse;
+  const fx = t[0] * v[3] + t[1] * v[7] + t[2] * v[11] + t[3];
+  const fy = t[4] * v[3] + t[5] * v[7] + t[6] * v[11] + t[7];
+  const fz = t[8] * v[3] + t[9] * v[7] + t[10] * v[11] + t[11];
+  const rx = fx - ax[3], ry = fy - ax[4], rz = fz - ax[5];
   const along = rx * zx + ry * zy + rz * zz;
   return Math.hypot(rx - along * zx, ry - along * zy, rz - along * zz);
 }

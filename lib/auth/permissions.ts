@@ -1,4 +1,4 @@
-import type { Role } from "@/lib/db/users";
+import type { LinkAccess, Role } from "@/shared/schemas/roles";
 
 /** The signed-in user as the server sees it. */
 export interface SessionUser {
@@ -16,7 +16,7 @@ export interface LinkGuest {
   kind: "link";
   linkId: string;
   shortlistId: string;
-  access: "view" | "comment";
+  access: LinkAccess;
   hidePrices: boolean;
 }
 

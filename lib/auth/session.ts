@@ -1,7 +1,7 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { cookies } from "next/headers";
-import { deleteSession, findSessionUser, insertSession } from "@/lib/db/sessions";
+import { deleteSession, findSessionUser, insertSession } from "@/lib/db";
 import type { SessionUser } from "./permissions";
 
 export const SESSION_COOKIE = "armsift_session";

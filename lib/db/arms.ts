@@ -1,3 +1,4 @@
+import "server-only";
 import { armSchema, type ArmDocument, type ArmSpecs } from "@/shared/schemas";
 import type { Arm } from "./generated/client";
 import type { DeletedFilter, UserRef } from "./documents";
@@ -95,6 +96,12 @@ export async function getArm(id: string): Promise<ArmRecord | null> {
 /** Revision history, newest first; null when the arm does not exist. */
 export async function listArmRevisions(id: string): Promise<ArmRevisionInfo[] | null> {
   return revisioned.listRevisionInfo(arms, id);
+}
+
+/** The arm and its revision history (newest first), for the history page; null when it does not exist. */
+export async function getArmHistory(id: string): Promise<{ record: ArmRecord; revisions: ArmRevisionInfo[] } | null> {
+  const [record, revisions] = await Promise.all([getArm(id), listArmRevisions(id)]);
+  return record && revisions ? { record, revisions } : null;
 }
 
 export async function getArmRevision(id: string, revision: number): Promise<ArmRevisionRecord | null> {

@@ -1,3 +1,4 @@
+import "server-only";
 import path from "node:path";
 import { PrismaBetterSQLite3 } from "@prisma/adapter-better-sqlite3";
 import { PrismaPg } from "@prisma/adapter-pg";
@@ -179,4 +180,14 @@ export function db(): Db {
   }
   instance ??= createDb();
   return instance;
+}
+
+/** Closes this process's client (scripts call it before they exit). */
+/** Round trip to the database (health check); throws when it does not answer. */
+export async function pingDatabase(): Promise<void> {
+  await db().$queryRawUnsafe("SELECT 1");
+}
+
+export async function disconnectDb(): Promise<void> {
+  await db().$disconnect();
 }

@@ -6,10 +6,11 @@
  * comment never exists without its text history. Deleting only marks the comment; resolving and
  * reopening apply to a thread's first comment. Every change is an audit event.
  */
+import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { requirementSetSchema } from "@/shared/schemas";
-import { cleanDisplayName, handleOf, MAX_COMMENT_LENGTH, mentionedHandles, renderMarkdown } from "@/lib/markdown";
+import { cleanDisplayName, handleOf, MAX_COMMENT_LENGTH, mentionedHandles, nestingProblem, renderComment } from "@/lib/markdown";
 import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { readStoredDocument } from "./documents";
@@ -31,7 +32,11 @@ export const MAX_DISPLAY_NAME = 60;
 const bodySchema = z
   .string({ error: "must be text" })
   .max(MAX_COMMENT_LENGTH, `must be at most ${MAX_COMMENT_LENGTH} characters`)
-  .refine((s) => s.trim().length > 0, "must not be empty");
+  .refine((s) => s.trim().length > 0, "must not be empty")
+  .superRefine((s, ctx) => {
+    const problem = nestingProblem(s);
+    if (problem) ctx.addIssue({ code: "custom", message: problem });
+  });
 
 export const createCommentInput = z.object({
   body: bodySchema,
@@ -71,8 +76,10 @@ export interface CommentView {
   author: { kind: "member"; id: string; name: string } | { kind: "guest"; name: string } | { kind: "unknown" };
   /** Markdown source (empty once deleted). */
   body: string;
-  /** Sanitised HTML of the body (empty once deleted). */
+  /** Sanitised HTML of the body (empty once deleted, or when it could not be rendered). */
   html: string;
+  /** Set when the body could not be rendered: the reader sees this instead of it. */
+  renderError: string | null;
   revision: number;
   createdAt: Date;
   editedAt: Date | null;
@@ -258,7 +265,7 @@ export async function setCommentResolved(actorId: string, commentId: string, res
 /** A thread as a link guest sees it: names only, no account ids. */
 export function threadForGuest(t: CommentThread): unknown {
   const strip = (c: CommentView) => ({
-    id: c.id, parentId: c.parentId, anchor: c.anchor, body: c.body, html: c.html, revision: c.revision, createdAt: c.createdAt, editedAt: c.editedAt,
+    id: c.id, parentId: c.parentId, anchor: c.anchor, body: c.body, html: c.html, renderError: c.renderError, revision: c.revision, createdAt: c.createdAt, editedAt: c.editedAt,
     deletedAt: c.deletedAt, resolvedAt: c.resolvedAt,
     author: c.author.kind === "member" ? { kind: "member", name: c.author.name } : c.author,
     resolvedBy: c.resolvedBy ? { name: c.resolvedBy.name } : null,
@@ -285,11 +292,12 @@ export async function listCommentThreads(shortlistId: string): Promise<CommentTh
   const known = new Set(handles.keys());
   const views = rows.map((r): CommentView => {
     const deleted = r.deletedAt !== null;
+    const rendered = deleted ? { html: "", renderError: null } : renderComment(r.body, { mentions: known });
     return {
       id: r.id, shortlistId: r.shortlistId, parentId: r.parentId, anchor: { type: r.anchorType as AnchorType, id: r.anchorId },
       author: r.author ? { kind: "member", id: r.author.id, name: r.author.name } : r.authorLabel ? { kind: "guest", name: r.authorLabel } : { kind: "unknown" },
       body: deleted ? "" : r.body,
-      html: deleted ? "" : renderMarkdown(r.body, { mentions: known }),
+      html: rendered.html, renderError: rendered.renderError,
       revision: r.revision, createdAt: r.createdAt, editedAt: r.editedAt, deletedAt: r.deletedAt, resolvedAt: r.resolvedAt,
       resolvedBy: r.resolvedBy, mentions: deleted ? [] : r.mentions.map((m) => m.user),
     };

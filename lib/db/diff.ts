@@ -1,3 +1,4 @@
+import "server-only";
 import type { Change } from "./errors";
 
 const isObject = (v: unknown): v is Record<string, unknown> =>

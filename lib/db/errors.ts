@@ -1,3 +1,4 @@
+import "server-only";
 import type { FieldError } from "@/shared/schemas";
 
 /** One difference between two JSON documents, by dotted path ("joints.2.max"). Absent = null. */

@@ -1,5 +1,6 @@
-// Data access for server code (route handlers, server components). Everything here runs on the
-// server only; scripts and tests import the modules below directly.
+// The data layer: the only Prisma user. Everything outside lib/db (pages, route handlers, the
+// runner, scripts) imports it from here, never a module below; every module is server-only.
+// The lint configuration enforces both.
 import "server-only";
 
 export * from "./arms";
@@ -7,5 +8,12 @@ export * from "./requirements";
 export * from "./users";
 export * from "./sessions";
 export * from "./errors";
-export { listAuditEvents } from "./audit-read";
+export * from "./shortlists";
+export * from "./comments";
+export * from "./shares";
+export { listAuditEvents, type AuditEventRecord } from "./audit-read";
+export * from "./workers";
+export { databaseUrl, dbProvider, disconnectDb, pingDatabase, providerOf, type DbProvider, type Tx } from "./client";
+export { seedDemo } from "./seed";
+export type { Change } from "./errors";
 export type { UserRef, DeletedFilter } from "./documents";

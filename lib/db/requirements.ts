@@ -1,3 +1,4 @@
+import "server-only";
 import { requirementSetSchema, type RequirementSet } from "@/shared/schemas";
 import type { RequirementSet as RequirementSetRow } from "./generated/client";
 import type { DeletedFilter, UserRef } from "./documents";
@@ -90,6 +91,12 @@ export async function getRequirementSet(id: string): Promise<RequirementRecord |
 /** Revision history, newest first; null when the set does not exist. */
 export async function listRequirementRevisions(id: string): Promise<RequirementRevisionInfo[] | null> {
   return revisioned.listRevisionInfo(sets, id);
+}
+
+/** The set and its revision history (newest first), for the history page; null when it does not exist. */
+export async function getRequirementHistory(id: string): Promise<{ record: RequirementRecord; revisions: RequirementRevisionInfo[] } | null> {
+  const [record, revisions] = await Promise.all([getRequirementSet(id), listRequirementRevisions(id)]);
+  return record && revisions ? { record, revisions } : null;
 }
 
 export async function getRequirementRevision(id: string, revision: number): Promise<RequirementRevisionRecord | null> {

@@ -1,3 +1,4 @@
+import "server-only";
 import { countArms, createArm } from "./arms";
 import { createRequirementSet } from "./requirements";
 

@@ -1,3 +1,4 @@
+import "server-only";
 import { db } from "./client";
 import type { UserRecord } from "./users";
 import { getUser } from "./users";

@@ -4,9 +4,11 @@
  * compares it again in constant time; an unknown, expired or revoked token, or one whose
  * shortlist is gone, resolves to null, the same answer in every case.
  */
+import "server-only";
 import { createHash, randomBytes, randomUUID, timingSafeEqual } from "node:crypto";
 import { z } from "zod";
-import type { LinkGuest } from "@/lib/auth/permissions";
+import type { LinkAccess } from "@/shared/schemas/roles";
+import { labelText } from "@/shared/schemas/common";
 import { db } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
@@ -20,7 +22,18 @@ export const MAX_LINK_DAYS = 366;
 
 export const hashShareToken = (token: string): Buffer => createHash("sha256").update(token, "utf8").digest();
 
-export type LinkAccess = "view" | "comment";
+export type { LinkAccess };
+
+/** What a valid token grants: one shortlist, view or comment access (a link guest in lib/auth). */
+export interface ShareGrant {
+  kind: "link";
+  linkId: string;
+  shortlistId: string;
+  access: LinkAccess;
+  hidePrices: boolean;
+  label: string | null;
+  expiresAt: Date | null;
+}
 
 export interface ShareLinkRecord {
   id: string;
@@ -38,7 +51,7 @@ export interface ShareLinkRecord {
 
 export const createLinkInput = z.object({
   access: z.enum(["view", "comment"], { error: "must be view or comment" }),
-  label: z.string({ error: "must be text" }).trim().max(80, "must be at most 80 characters").optional(),
+  label: labelText(80).optional(),
   /** Days until the link stops working; omitted or null = no expiry. */
   expiresInDays: z.number({ error: "must be a number of days" }).int("must be a whole number of days").min(1, "must be at least 1 day").max(MAX_LINK_DAYS, `must be at most ${MAX_LINK_DAYS} days`).nullable().optional(),
   hidePrices: z.boolean({ error: "must be true or false" }).optional(),
@@ -131,7 +144,7 @@ const ZERO = Buffer.alloc(32);
  * The stored hash is compared with timingSafeEqual as well, and a miss compares against zeros,
  * so a lookup costs the same whether or not a row was found.
  */
-export async function resolveShareToken(token: string, now: Date = new Date()): Promise<(LinkGuest & { label: string | null; expiresAt: Date | null }) | null> {
+export async function resolveShareToken(token: string, now: Date = new Date()): Promise<ShareGrant | null> {
   const wellFormed = TOKEN_RE.test(token);
   const hash = hashShareToken(wellFormed ? token : "");
   const row = wellFormed

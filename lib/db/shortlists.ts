@@ -1,12 +1,16 @@
+import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
-import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
+import { armSchema, nameText, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
 import { analysisKey } from "@/lib/analysis/key";
 import { ANALYSIS_VERSION, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
 import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
 import { readStoredDocument, userRef, type UserRef } from "./documents";
+import { listArms, type ArmSummary } from "./arms";
+import { listRequirementSets, type RequirementSummary } from "./requirements";
+import { unreadCounts, type UnreadCount } from "./comments";
 
 /**
  * A run analysed by a web server's own runner that has not reported progress for this long is
@@ -91,7 +95,7 @@ export interface ShortlistSummary {
 }
 
 const createInput = z.object({
-  name: z.string({ error: "must be text" }).trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
+  name: nameText(120),
   requirementSetId: z.string({ error: "choose a requirement set" }).min(1, "choose a requirement set"),
   armIds: z
     .array(z.string().min(1), { error: "must be a list of arm ids" })
@@ -230,6 +234,20 @@ export async function listShortlists(): Promise<ShortlistSummary[]> {
     createdAt: r.createdAt, createdBy: userRef(r.createdBy),
     latestRun: r.runs[0] ? { id: r.runs[0].id, status: r.runs[0].status as RunStatus, finishedAt: r.runs[0].finishedAt } : null,
   }));
+}
+
+/** The shortlists list page: every shortlist with the member's unread comment counts. */
+export async function listShortlistsFor(userId: string): Promise<(ShortlistSummary & { unread: UnreadCount })[]> {
+  const rows = await listShortlists();
+  // Comments by others since the member last read each shortlist's discussion.
+  const unread = await unreadCounts(userId, rows.map((r) => r.id));
+  return rows.map((r) => ({ ...r, unread: unread.get(r.id) ?? { unread: 0, mentions: 0 } }));
+}
+
+/** What a new shortlist is chosen from: the current arms and requirement sets. */
+export async function getShortlistCatalog(): Promise<{ arms: ArmSummary[]; sets: RequirementSummary[] }> {
+  const [arms, sets] = await Promise.all([listArms(), listRequirementSets()]);
+  return { arms, sets };
 }
 
 /**
@@ -491,4 +509,56 @@ export async function countRunsByStatus(): Promise<Record<RunStatus, number>> {
   const out: Record<RunStatus, number> = { queued: 0, running: 0, done: 0, failed: 0, cancelled: 0 };
   for (const g of groups) if (g.status in out) out[g.status as RunStatus] = g._count._all;
   return out;
+}
+
+/**
+ * What a share link's view is built from, in one read: the shortlist, the pinned arms' specs
+ * (only when `prices` is asked for; they carry the prices), and the latest finished run with its
+ * result (null when there is none yet).
+ */
+export async function getSharedShortlist(
+  shortlistId: string,
+  opts: { prices: boolean },
+): Promise<{ shortlist: ShortlistRecord; specs: Map<string, ArmSpecs>; run: RunInfo | null; result: ShortlistAnalysis | null } | null> {
+  const shortlist = await getShortlist(shortlistId);
+  if (!shortlist) return null;
+  const specs = new Map<string, ArmSpecs>();
+  if (opts.prices) {
+    const pins = await getPins(shortlist.id);
+    for (const a of pins ? (await loadPinnedInputs(pins)).arms : []) if (a.arm.specs) specs.set(a.id, a.arm.specs);
+  }
+  const run = (await listRuns(shortlist.id)).find((r) => r.status === "done") ?? null;
+  const result = run ? await getRunResult(run.id) : null;
+  return { shortlist, specs, run, result };
+}
+
+/** Everything the shortlist page shows, in one read. */
+export interface ShortlistPageData {
+  shortlist: ShortlistRecord;
+  /** Newest first. */
+  runs: RunInfo[];
+  /** The run asked for, else the latest finished one; null when there is none (or no such run). */
+  shown: RunInfo | null;
+  /** The shown run's result when it is done. */
+  analysis: ShortlistAnalysis | null;
+  /** The pinned documents' names, for what comments can be about. */
+  pinned: { arms: { id: string; name: string }[]; targets: string[]; paths: string[]; specs: RequirementSet["specs"] };
+}
+
+/** The shortlist page's data: the shortlist, its runs, the shown run and result, the pinned names. */
+export async function getShortlistPage(id: string, opts: { run?: string } = {}): Promise<ShortlistPageData | null> {
+  const shortlist = await getShortlist(id);
+  if (!shortlist) return null;
+  const runs = await listRuns(id);
+  const shown = opts.run ? runs.find((r) => r.id === opts.run) ?? null : runs.find((r) => r.status === "done") ?? null;
+  const analysis = shown && shown.status === "done" ? await getRunResult(shown.id) : null;
+  const pins = await getPins(id);
+  const inputs = pins ? await loadPinnedInputs(pins) : null;
+  const pinned = {
+    arms: (inputs?.arms ?? []).map((a) => ({ id: a.id, name: a.arm.name })),
+    targets: (inputs?.requirementSet.targets ?? []).map((t) => t.name),
+    paths: (inputs?.requirementSet.paths ?? []).map((p) => p.name),
+    specs: inputs?.requirementSet.specs ?? [],
+  };
+  return { shortlist, runs, shown, analysis, pinned };
 }

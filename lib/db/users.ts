@@ -1,10 +1,11 @@
+import "server-only";
 import { randomUUID } from "node:crypto";
+import { ROLES, type Role } from "@/shared/schemas/roles";
 import { db } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
 
-export const ROLES = ["admin", "editor", "viewer"] as const;
-export type Role = (typeof ROLES)[number];
+export type { Role };
 
 export interface UserRecord {
   id: string;

@@ -1,3 +1,4 @@
+import "server-only";
 import { db } from "./client";
 
 // Queue worker processes (`npm run worker`): each keeps a row with a heartbeat, so the health

@@ -4,18 +4,21 @@ import { ApiError } from "./errors";
 export const MAX_BODY_BYTES = 1024 * 1024;
 /** Deepest nesting of arrays/objects accepted; documents need fewer than 10 levels. */
 export const MAX_JSON_DEPTH = 64;
-/** Beyond the limit, bytes are still counted (not kept) up to here to report the size. */
-const COUNT_UP_TO = 64 * 1024 * 1024;
 
 const fmtBytes = (n: number) => n.toLocaleString("en-US").replace(/,/g, " ");
 
+/** `size`: the declared length, or null when only "more than the limit" is known (streamed). */
 function tooLarge(size: number | null, limit: number): ApiError {
-  const sizeText = size === null ? `more than ${fmtBytes(COUNT_UP_TO)} bytes` : `${fmtBytes(size)} bytes`;
+  const sizeText = size === null ? `more than ${fmtBytes(limit)} bytes` : `${fmtBytes(size)} bytes`;
   const message = `request body is ${sizeText}; the limit is ${fmtBytes(limit)} bytes (${limit / (1024 * 1024)} MiB)`;
   return new ApiError(400, "validation", message, { fieldErrors: [{ path: "", message }] });
 }
 
-/** Reads the body as UTF-8 text, refusing more than `limit` bytes (Content-Length first, then while streaming). */
+/**
+ * Reads the body as UTF-8 text, refusing more than `limit` bytes: a declared Content-Length
+ * above it before reading anything, and a streamed (chunked) body as soon as the bytes read pass
+ * it; the rest is never read.
+ */
 export async function readBodyText(req: Request, limit = MAX_BODY_BYTES): Promise<string> {
   const declared = Number(req.headers.get("content-length"));
   if (Number.isFinite(declared) && declared > limit) {
@@ -31,12 +34,6 @@ export async function readBodyText(req: Request, limit = MAX_BODY_BYTES): Promis
     if (done) break;
     total += value.byteLength;
     if (total > limit) {
-      // Count the rest without keeping it, to report the size.
-      while (total <= COUNT_UP_TO) {
-        const next = await reader.read();
-        if (next.done) throw tooLarge(total, limit);
-        total += next.value.byteLength;
-      }
       await reader.cancel().catch(() => undefined);
       throw tooLarge(null, limit);
     }
@@ -108,8 +105,33 @@ export function parseJsonText(text: string): unknown {
 
 const kindOf = (v: unknown): string => (v === null ? "null" : Array.isArray(v) ? "an array" : typeof v === "object" ? "an object" : `a ${typeof v}`);
 
-/** Reads a JSON object body (size-limited, depth-limited); any other top-level value → 400 on path "". */
+/** True for `application/json` and `application/<something>+json`, with or without parameters. */
+export function isJsonContentType(header: string | null): boolean {
+  const type = header?.split(";")[0].trim().toLowerCase() ?? "";
+  return type === "application/json" || /^application\/[a-z0-9.+-]+\+json$/.test(type);
+}
+
+/** 415 unless the request says its body is JSON (a text/plain or untyped body is refused unread). */
+export function requireJsonContentType(req: Request): void {
+  const header = req.headers.get("content-type");
+  if (isJsonContentType(header)) return;
+  const message = header
+    ? `request body is sent as ${JSON.stringify(header.slice(0, 100))}; send it as application/json`
+    : "request body has no content type; send it as application/json";
+  throw new ApiError(415, "unsupported-media-type", message, { fieldErrors: [{ path: "", message }] });
+}
+
+/**
+ * Reads a JSON object body (Content-Type application/json, size-limited, depth-limited); any
+ * other content type → 415, any other top-level value → 400 on path "".
+ */
 export async function readJsonObject(req: Request, limit = MAX_BODY_BYTES): Promise<Record<string, unknown>> {
+  try {
+    requireJsonContentType(req);
+  } catch (err) {
+    await req.body?.cancel().catch(() => undefined);
+    throw err;
+  }
   const value = parseJsonText(await readBodyText(req, limit));
   if (typeof value !== "object" || value === null || Array.isArray(value)) {
     const message = `expected a JSON object, got ${kindOf(value)}`;

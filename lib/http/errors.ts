@@ -1,7 +1,7 @@
 import type { FieldError } from "@/shared/schemas";
-import { ConflictError, NotFoundError, ValidationError } from "@/lib/db/errors";
+import { ConflictError, NotFoundError, ValidationError } from "@/lib/db";
 
-export type ErrorCode = "validation" | "bad-json" | "unauthenticated" | "forbidden" | "not-found" | "conflict" | "rate-limited";
+export type ErrorCode = "validation" | "bad-json" | "unauthenticated" | "forbidden" | "not-found" | "conflict" | "rate-limited" | "unsupported-media-type";
 
 /** An error that becomes a JSON error response: `{ error: { code, message, fieldErrors?, conflict? } }`. */
 export class ApiError extends Error {

@@ -5,13 +5,31 @@ import { getRequestUser } from "@/lib/auth/session";
 import { ApiError, badRequest, errorResponse, forbidden, unauthenticated } from "./errors";
 import { checkOrigin } from "./origin";
 
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+/** Content types a page on another site can send without a preflight (HTML forms, text/plain). */
+const SIMPLE_TYPES = new Set(["text/plain", "application/x-www-form-urlencoded", "multipart/form-data"]);
+
+/**
+ * Refuses a state-changing request whose body is typed as form data or plain text: the API
+ * takes JSON only, and these are the types a cross-site form can send (defence in depth beside
+ * the origin check). A request without a body and without a content type passes.
+ */
+function checkContentType(req: Request): void {
+  if (SAFE_METHODS.has(req.method.toUpperCase())) return;
+  const type = req.headers.get("content-type")?.split(";")[0].trim().toLowerCase();
+  if (type && SIMPLE_TYPES.has(type)) {
+    const message = `request body is sent as ${type}; send it as application/json`;
+    throw new ApiError(415, "unsupported-media-type", message, { fieldErrors: [{ path: "", message }] });
+  }
+}
+
 /** Context Next passes to a dynamic route handler. */
 export interface RouteContext<P extends Record<string, string> = Record<string, string>> {
   params: Promise<P>;
 }
 
 /**
- * Wraps a route handler: refuses cross-origin state changes, turns thrown errors into JSON error
+ * Wraps a route handler: refuses cross-origin state changes and form or plain-text bodies, turns thrown errors into JSON error
  * responses (never a 500 for bad input), and marks responses as not cacheable.
  */
 export function route<P extends Record<string, string>>(
@@ -21,6 +39,7 @@ export function route<P extends Record<string, string>>(
     let res: Response;
     try {
       checkOrigin(req);
+      checkContentType(req);
       res = await handler(req, ctx);
     } catch (err) {
       res = errorResponse(err);

@@ -8,7 +8,7 @@
  * Used by both runners behind lib/jobs/runs.ts: the web server's bounded local runner (SQLite) and
  * the queue workers (`npm run worker`, PostgreSQL).
  */
-import { claimRun, failRun, finishRun, getRun, loadPinnedInputs, reportRunProgress, requeueRun } from "@/lib/db/shortlists";
+import { claimRun, failRun, finishRun, getRun, loadPinnedInputs, reportRunProgress, requeueRun } from "@/lib/db";
 import { AnalysisStopped, analyseInThread } from "./thread";
 
 /** Least time between two progress writes (ms). */

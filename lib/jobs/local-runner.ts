@@ -6,11 +6,11 @@
  * running are marked failed and the ones still queued are taken up again.
  */
 import os from "node:os";
-import { failRunsOfRunner, LOCAL_RUNNER_PREFIX, listQueuedRunIds, listRunners } from "@/lib/db/shortlists";
+import { failRunsOfRunner, LOCAL_RUNNER_PREFIX, listQueuedRunIds, listRunners } from "@/lib/db";
 import { executeRun, type RunOutcome } from "./analysis-runner";
 
 /** Analyses at once: ARMSIFT_ANALYSIS_CONCURRENCY, else cores − 1, at least 1. */
-export function localConcurrency(env: NodeJS.ProcessEnv = process.env, cores: number = os.availableParallelism?.() ?? os.cpus().length): number {
+export function localConcurrency(env: Record<string, string | undefined> = process.env, cores: number = os.availableParallelism?.() ?? os.cpus().length): number {
   const n = Number(env.ARMSIFT_ANALYSIS_CONCURRENCY);
   if (Number.isInteger(n) && n >= 1) return n;
   return Math.max(1, cores - 1);

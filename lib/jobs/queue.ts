@@ -6,7 +6,7 @@
  * delivered twice stores one result.
  */
 import PgBoss from "pg-boss";
-import type { Tx } from "@/lib/db/client";
+import type { Tx } from "@/lib/db";
 
 export const ANALYSIS_QUEUE = "analysis";
 

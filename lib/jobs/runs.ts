@@ -8,11 +8,9 @@
  * ARMSIFT_RUNNER=local|queue overrides the choice (queue needs PostgreSQL).
  */
 import type PgBoss from "pg-boss";
-import { databaseUrl, dbProvider } from "@/lib/db/client";
 import {
-  cancelRun as cancelRunRow, countRunsByStatus, createShortlist, repinShortlist, requestAnalysisRun, type EnqueueInTx, type Pins, type RunInfo, type RunStatus,
-} from "@/lib/db/shortlists";
-import { listLiveWorkers, type WorkerInfo } from "@/lib/db/workers";
+  pingDatabase, databaseUrl, dbProvider, cancelRun as cancelRunRow, countRunsByStatus, createShortlist, repinShortlist, requestAnalysisRun, type EnqueueInTx, type Pins, type RunInfo, type RunStatus, listLiveWorkers, type WorkerInfo,
+} from "@/lib/db";
 import { LocalRunner } from "./local-runner";
 import { createBoss, enqueueRun, queueDepth, queueSettings, startQueue, type QueueDepth } from "./queue";
 
@@ -120,4 +118,38 @@ export async function startUp(log: (line: string) => void = console.log): Promis
   }
   await queue();
   log("analysis runs go to the queue; start `npm run worker` on each worker machine");
+}
+
+export interface HealthReport {
+  ok: boolean;
+  database: { provider: "sqlite" | "postgres"; ok: boolean; latencyMs: number | null; error?: string };
+  runner:
+    | { kind: "local"; concurrency: number; running: number; waiting: number }
+    | { kind: "queue"; depth: QueueDepth; liveWorkers: number; workers?: WorkerInfo[] }
+    | { kind: RunnerKind; error: string };
+  runs: Record<RunStatus, number> | null;
+}
+
+/**
+ * The health check's report: the database (does it answer, how fast), the runner (the local
+ * runner's load, or the queue depth and the live workers) and the runs by state. The list of
+ * workers (host names, process ids) only with `detail` (administrators).
+ */
+export async function healthReport(opts: { detail?: boolean } = {}): Promise<HealthReport> {
+  const provider = dbProvider();
+  const t0 = performance.now();
+  const database: HealthReport["database"] = await pingDatabase().then(
+    () => ({ provider, ok: true, latencyMs: Math.round((performance.now() - t0) * 10) / 10 }),
+    (err: unknown) => ({ provider, ok: false, latencyMs: null, error: err instanceof Error ? err.message.split("\n")[0] : String(err) }),
+  );
+  if (!database.ok) return { ok: false, database, runner: { kind: runnerKind(), error: "the database does not answer" }, runs: null };
+  try {
+    const status = await runnerStatus();
+    const runner: HealthReport["runner"] = status.kind === "local"
+      ? { kind: "local", concurrency: status.concurrency, running: status.running, waiting: status.waiting }
+      : { kind: "queue", depth: status.depth, liveWorkers: status.workers.length, ...(opts.detail ? { workers: status.workers } : {}) };
+    return { ok: true, database, runner, runs: status.runs };
+  } catch (err) {
+    return { ok: false, database, runner: { kind: runnerKind(), error: err instanceof Error ? err.message.split("\n")[0] : String(err) }, runs: null };
+  }
 }

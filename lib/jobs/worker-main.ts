@@ -1,5 +1,5 @@
 // `npm run worker`: one queue worker process until SIGINT/SIGTERM (compiled to dist/jobs/worker.mjs).
-import { db } from "@/lib/db/client";
+import { disconnectDb } from "@/lib/db";
 import { startWorker, workerOptionsFromEnv } from "./worker";
 
 async function main(): Promise<void> {
@@ -12,7 +12,7 @@ async function main(): Promise<void> {
       console.log(`worker ${worker.id}: ${signal}, putting unfinished runs back in the queue`);
       void worker
         .stop(`worker ${worker.id} was stopped`)
-        .then(() => db().$disconnect())
+        .then(() => disconnectDb())
         .finally(() => process.exit(0));
     });
   }

@@ -15,8 +15,9 @@
 import os from "node:os";
 import { randomBytes } from "node:crypto";
 import type PgBoss from "pg-boss";
-import { failRun, getRun, listUnfinishedRunIds } from "@/lib/db/shortlists";
-import { heartbeatWorker, registerWorker, runningRunsOf, stopWorker, takeSilentWorkers, WORKER_SILENCE_MS } from "@/lib/db/workers";
+import {
+  failRun, getRun, listUnfinishedRunIds, heartbeatWorker, registerWorker, runningRunsOf, stopWorker, takeSilentWorkers, WORKER_SILENCE_MS,
+} from "@/lib/db";
 import { executeRun } from "./analysis-runner";
 import { ANALYSIS_QUEUE, createBoss, endedJobs, queueSettings, startQueue } from "./queue";
 

@@ -1,4 +1,4 @@
-/** Forward kinematics over the DH chain (both conventions), allocation-free. */
+/** Forward kinematics over DH tables (both conventions) and general joint chains, allocation-free. */
 import type { ArmData, ArmModel } from "./types";
 import { checkArgs } from "./data";
 
@@ -6,7 +6,8 @@ import { checkArgs } from "./data";
  * Fills `data.frames` (frame 0 = `model.base`, frame i = T_world_i after joint i's link
  * transform), `data.flange` (= frame n) and `data.toolPose` (= flange·tool), all row-major and in
  * the arm's world frame (the frame `model.base` is expressed in). q in rad (revolute) or m
- * (prismatic), added to θ or d. Does not allocate.
+ * (prismatic): added to θ or d for DH tables, the angle about or travel along the joint axis for a
+ * chain. Does not allocate.
  *
  * @throws RangeError if `data` belongs to another model or q has the wrong length.
  */
@@ -21,7 +22,46 @@ export function forwardKinematicsUnchecked(model: ArmModel, data: ArmData, q: Ar
   const n = model.n;
   const prismatic = model.prismatic, A = model.a, D = model.d, TH = model.theta;
   const CA = model.cosAlpha, SA = model.sinAlpha;
-  if (model.convention === "dh") {
+  if (model.convention === "chain") {
+    const O = model.origin, U = model.axis;
+    for (let i = 0; i < n; i++) {
+      const p = 16 * i, o = p + 16, b = 16 * i, k = 3 * i;
+      // P = parent · T(origin): rotation block and translation.
+      const o00 = O[b], o01 = O[b + 1], o02 = O[b + 2], o03 = O[b + 3];
+      const o10 = O[b + 4], o11 = O[b + 5], o12 = O[b + 6], o13 = O[b + 7];
+      const o20 = O[b + 8], o21 = O[b + 9], o22 = O[b + 10], o23 = O[b + 11];
+      const ux = U[k], uy = U[k + 1], uz = U[k + 2];
+      if (prismatic[i] === 1) {
+        // child = P · Trans(u·q): translation moves by q·(R_P u).
+        const tx = o03 + q[i] * (o00 * ux + o01 * uy + o02 * uz);
+        const ty = o13 + q[i] * (o10 * ux + o11 * uy + o12 * uz);
+        const tz = o23 + q[i] * (o20 * ux + o21 * uy + o22 * uz);
+        for (let r = 0; r < 12; r += 4) {
+          const p0 = f[p + r], p1 = f[p + r + 1], p2 = f[p + r + 2], p3 = f[p + r + 3];
+          f[o + r] = p0 * o00 + p1 * o10 + p2 * o20;
+          f[o + r + 1] = p0 * o01 + p1 * o11 + p2 * o21;
+          f[o + r + 2] = p0 * o02 + p1 * o12 + p2 * o22;
+          f[o + r + 3] = p0 * tx + p1 * ty + p2 * tz + p3;
+        }
+      } else {
+        // Rodrigues: Rot(u, q) = c·I + s·[u]× + (1 − c)·u·uᵀ; M = R_origin · Rot (origin translation unchanged).
+        const c = Math.cos(q[i]), s = Math.sin(q[i]), v = 1 - c;
+        const r00 = c + v * ux * ux, r01 = v * ux * uy - s * uz, r02 = v * ux * uz + s * uy;
+        const r10 = v * ux * uy + s * uz, r11 = c + v * uy * uy, r12 = v * uy * uz - s * ux;
+        const r20 = v * ux * uz - s * uy, r21 = v * uy * uz + s * ux, r22 = c + v * uz * uz;
+        const m00 = o00 * r00 + o01 * r10 + o02 * r20, m01 = o00 * r01 + o01 * r11 + o02 * r21, m02 = o00 * r02 + o01 * r12 + o02 * r22;
+        const m10 = o10 * r00 + o11 * r10 + o12 * r20, m11 = o10 * r01 + o11 * r11 + o12 * r21, m12 = o10 * r02 + o11 * r12 + o12 * r22;
+        const m20 = o20 * r00 + o21 * r10 + o22 * r20, m21 = o20 * r01 + o21 * r11 + o22 * r21, m22 = o20 * r02 + o21 * r12 + o22 * r22;
+        for (let r = 0; r < 12; r += 4) {
+          const p0 = f[p + r], p1 = f[p + r + 1], p2 = f[p + r + 2], p3 = f[p + r + 3];
+          f[o + r] = p0 * m00 + p1 * m10 + p2 * m20;
+          f[o + r + 1] = p0 * m01 + p1 * m11 + p2 * m21;
+          f[o + r + 2] = p0 * m02 + p1 * m12 + p2 * m22;
+          f[o + r + 3] = p0 * o03 + p1 * o13 + p2 * o23 + p3;
+        }
+      }
+    }
+  } else if (model.convention === "dh") {
     for (let i = 0; i < n; i++) {
       const p = 16 * i, o = p + 16;
       let th = TH[i], d = D[i];

@@ -5,8 +5,12 @@
 export type {
   ArmData,
   ArmKinematics,
+  ChainArmKinematics,
+  DhArmKinematics,
   ArmModel,
+  Convention,
   DhConvention,
+  IkCause,
   IkMode,
   IkMultiOptions,
   IkOptions,
@@ -18,7 +22,7 @@ export type {
 export { createModel } from "./model";
 export { createData } from "./data";
 export { forwardKinematics } from "./forward";
-export { computeJacobian, computeLinkPointJacobian } from "./jacobian";
+export { computeJacobian, computeLinkPointJacobian, jointAxisWorld } from "./jacobian";
 export {
   LIMIT_EPSILON,
   maxJointDistance,
@@ -38,4 +42,6 @@ export {
   zAxisAngleBetween,
 } from "./math/mat4";
 export { minSingularValue } from "./math/linalg";
-export { IK_DEFAULTS, solveIk, solveIkMulti } from "./inverse";
+export { IK_DEFAULTS, IK_NEAR_LIMIT_FRACTION, IK_STATIONARY_TOLERANCE, solveIk, solveIkMulti } from "./inverse";
+export { taskJacobianInto, taskRowCount, taskVelocityInto } from "./task";
+export { dhToChain, mulRigid, originFromMatrix, originMatrix, transformPointRigid } from "./chain";

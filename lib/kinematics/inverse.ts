@@ -29,7 +29,7 @@
  * w = θ·(z × z*)/|z × z*| rotates the tool z-axis onto the target's and x, y are the tool's current
  * x and y axes (spin about z is free). `point`: e = p* − p.
  */
-import type { ArmData, ArmModel, IkMode, IkMultiOptions, IkOptions, IkResult } from "./types";
+import type { ArmData, ArmModel, IkCause, IkMode, IkMultiOptions, IkOptions, IkResult } from "./types";
 import { checkArgs } from "./data";
 import { forwardKinematicsUnchecked } from "./forward";
 import { jacobianAtWorldPoint } from "./jacobian";
@@ -37,6 +37,7 @@ import { choleskyInPlace, choleskySolve, minSingularValue } from "./math/linalg"
 import { rotationErrorVector } from "./math/mat4";
 import { LIMIT_EPSILON, maxJointDistance, neutralConfiguration, projectJoint, randomConfiguration, wrapToLimits } from "./configuration";
 import { createRng } from "./rng";
+import { taskJacobianInto, taskRowCount } from "./task";
 
 /** Default tolerances and budget (DESIGN.md: reached = 1e-5 m and 1e-4 rad). */
 export const IK_DEFAULTS = Object.freeze({
@@ -68,7 +69,7 @@ interface Settings {
 }
 
 /** Outcome of one error evaluation, kept in module scratch (synchronous code only). */
-const ev = { E: 0, pos: 0, rot: 0 };
+const ev = { E: 0, pos: 0, rot: 0, gradient: 0 };
 
 function checkTarget(target: ArrayLike<number>): void {
   if (target.length !== 16) throw new RangeError(`target: wrong size, expected 16 (row-major 4×4), got ${target.length}`);
@@ -115,23 +116,11 @@ function evaluate(model: ArmModel, data: ArmData, q: Float64Array, target: Array
   ev.E = 0.5 * E;
 }
 
-/** Task Jacobian (m×n) at the tool point into data.ik.jt; needs FK at the current q. */
+/** Task Jacobian (m×n) at the tool point into data.ik.jt (task.ts); needs FK at the current q. */
 function taskJacobian(model: ArmModel, data: ArmData, s: Settings): void {
-  const n = model.n, J = data.jacobian, jt = data.ik.jt, t = data.toolPose;
+  const n = model.n, J = data.jacobian, t = data.toolPose;
   jacobianAtWorldPoint(model, data, t[3], t[7], t[11], n, J);
-  if (s.mode === "pose") {
-    jt.set(J);
-    return;
-  }
-  for (let k = 0; k < 3 * n; k++) jt[k] = J[k];
-  if (s.mode === "axis") {
-    const xx = t[0], xy = t[4], xz = t[8], yx = t[1], yy = t[5], yz = t[9];
-    for (let j = 0; j < n; j++) {
-      const wx = J[3 * n + j], wy = J[4 * n + j], wz = J[5 * n + j];
-      jt[3 * n + j] = xx * wx + xy * wy + xz * wz;
-      jt[4 * n + j] = yx * wx + yy * wy + yz * wz;
-    }
-  }
+  taskJacobianInto(s.mode, J, n, t, data.ik.jt);
 }
 
 /** Solves the damped step into data.ik.dq with columns of frozen joints removed. False if singular. */
@@ -275,17 +264,95 @@ function settingsOf(model: ArmModel, options: IkOptions | undefined): Settings {
   if (options?.initial !== undefined && options.initial.length !== model.n) {
     throw new RangeError(`initial: wrong size, expected ${model.n}, got ${options.initial.length}`);
   }
-  return { mode, m: mode === "pose" ? 6 : mode === "axis" ? 5 : 3, tolP, tolR, maxIterations };
+  return { mode, m: taskRowCount(mode), tolP, tolR, maxIterations };
 }
 
 /** Upper bound on the distance from frame 0's origin to the tool point over all configurations. */
 function reachBound(model: ArmModel): number {
-  let r = 0;
-  for (let i = 0; i < model.n; i++) {
-    const dmax = model.prismatic[i] === 1 ? Math.max(Math.abs(model.d[i] + model.lower[i]), Math.abs(model.d[i] + model.upper[i])) : Math.abs(model.d[i]);
-    r += Math.hypot(model.a[i], dmax);
+  return model.reach;
+}
+
+/**
+ * A joint within this fraction of its range from a limit counts as stalled at that limit when a
+ * search ends (the damped steps approach a limit slowly, so the best iterate of a search blocked by
+ * a limit is near it rather than on it).
+ */
+export const IK_NEAR_LIMIT_FRACTION = 0.01;
+
+function nearLimitBand(model: ArmModel, j: number): number {
+  return Math.max(LIMIT_EPSILON, IK_NEAR_LIMIT_FRACTION * (model.upper[j] - model.lower[j]));
+}
+
+/**
+ * Relative size below which a gradient counts as zero, against ‖Jₛ‖_F·‖eₛ‖ (the largest possible
+ * ‖Jₛᵀeₛ‖): the best iterate is then (near) a stationary point of the error. Chosen loose (1 %)
+ * because an attempt is abandoned once E stalls, a little before the stationary point itself.
+ */
+export const IK_STATIONARY_TOLERANCE = 1e-2;
+
+/**
+ * Why a search ended without reaching the target, from the best iterate (FK, data.ik.err and
+ * data.ik.jt at it). Position rows of the error and the Jacobian are divided by the arm's length
+ * scale so metres and radians weigh alike here (only for this test, never in a reported figure).
+ * The gradient of E is g = Jₛᵀeₛ (joint motion along g lowers the error, first order):
+ * - `joint-limit`: a joint sits at a limit (within IK_NEAR_LIMIT_FRACTION of its range) and g would
+ *   move it beyond that limit, by more than IK_STATIONARY_TOLERANCE of the largest possible
+ *   gradient;
+ * - `singularity`: otherwise, when g over the joints free to move is below that tolerance: no
+ *   joint motion lowers the remaining error, so the error lies along a direction the arm cannot
+ *   move in at this configuration (a singularity, or a motion its structure lacks);
+ * - `budget`: otherwise: the attempts ended (iterations spent, or progress too slow) away from a
+ *   limit and from a stationary point, so the search says nothing about reachability.
+ * Writes `ev.gradient` only.
+ */
+function classifyStall(model: ArmModel, data: ArmData, s: Settings, q: ArrayLike<number>): IkCause {
+  const n = model.n, jt = data.ik.jt, e = data.ik.err;
+  const L = model.lengthScale > 0 ? model.lengthScale : 1;
+  let jNorm2 = 0, eNorm2 = 0;
+  for (let r = 0; r < s.m; r++) {
+    const w = r < 3 ? 1 / L : 1;
+    eNorm2 += (e[r] * w) ** 2;
+    for (let j = 0; j < n; j++) jNorm2 += (jt[r * n + j] * w) ** 2;
   }
-  return r + Math.hypot(model.tool[3], model.tool[7], model.tool[11]);
+  const scale = Math.sqrt(jNorm2 * eNorm2);
+  if (!(scale > 0)) return "singularity";
+  let blocked = false, free2 = 0;
+  for (let j = 0; j < n; j++) {
+    let g = 0;
+    for (let r = 0; r < s.m; r++) g += jt[r * n + j] * e[r] * (r < 3 ? 1 / (L * L) : 1);
+    const eps = nearLimitBand(model, j);
+    const atLower = q[j] <= model.lower[j] + eps, atUpper = q[j] >= model.upper[j] - eps;
+    if ((atLower && g < 0) || (atUpper && g > 0)) {
+      if (Math.abs(g) > IK_STATIONARY_TOLERANCE * scale) blocked = true;
+      continue;
+    }
+    free2 += g * g;
+  }
+  if (blocked) return "joint-limit";
+  ev.gradient = Math.sqrt(free2) / scale;
+  return ev.gradient <= IK_STATIONARY_TOLERANCE ? "singularity" : "budget";
+}
+
+/** Distance of the target from frame 0's origin and the reach bound (m); beyond when farther than the bound. */
+function reachCheck(model: ArmModel, target: ArrayLike<number>, tolP: number): { beyond: boolean; dist: number; bound: number } {
+  const bound = reachBound(model);
+  const b = model.base;
+  const dist = Math.hypot(target[3] - b[3], target[7] - b[7], target[11] - b[11]);
+  return { beyond: dist > bound + tolP, dist, bound };
+}
+
+function beyondText(r: { dist: number; bound: number }): string {
+  return `target is ${r.dist.toPrecision(4)} m from the base, beyond the arm's largest possible reach of ${r.bound.toPrecision(4)} m`;
+}
+
+/** Words for a not-reached cause (appended to the residuals). */
+function causeText(cause: IkCause): string {
+  switch (cause) {
+    case "joint-limit": return "; stalled with a joint at a limit that blocks the remaining error";
+    case "singularity": return "; stalled where no joint motion lowers the remaining error (a singularity, or a motion the arm cannot make)";
+    case "budget": return "; the search ended without converging, away from a limit or a singularity";
+    default: return "";
+  }
 }
 
 /** Fills the result's final diagnostics at q (FK, errors, σ_min of the task Jacobian). */
@@ -299,6 +366,7 @@ function finish(
   restarts: number,
   reasonIfReached: string,
   reasonIfNot: string,
+  beyond = false,
 ): IkResult {
   const out = new Float64Array(model.n);
   const inLimits = wrapToLimits(model, q, out);
@@ -307,8 +375,10 @@ function finish(
   taskJacobian(model, data, s);
   const sigma = minSingularValue(data.ik.jt, s.m, model.n, data.ik.gram);
   const reached = inLimits && pos <= s.tolP && (s.mode === "point" || rot <= s.tolR);
+  const cause: IkCause = reached ? "reached" : beyond ? "beyond-reach" : classifyStall(model, data, s, out);
   return {
     status: reached ? "reached" : "not-reached",
+    cause,
     q: out,
     positionError: pos,
     rotationError: rot,
@@ -319,14 +389,19 @@ function finish(
   };
 }
 
+function notReachedText(model: ArmModel, s: Settings, res: IkResult, tail: string): string {
+  return `${tail}; best position error ${res.positionError.toExponential(2)} m` +
+    (s.mode === "point" ? "" : `, rotation error ${res.rotationError.toExponential(2)} rad`) +
+    (res.cause === "beyond-reach" ? "" : describeLimits(model, res.q) + causeText(res.cause));
+}
+
 function describeLimits(model: ArmModel, q: ArrayLike<number>): string {
   const at: number[] = [];
   for (let i = 0; i < model.n; i++) {
-    const span = model.upper[i] - model.lower[i];
-    const eps = Math.max(LIMIT_EPSILON, 1e-6 * span);
+    const eps = nearLimitBand(model, i);
     if (q[i] <= model.lower[i] + eps || q[i] >= model.upper[i] - eps) at.push(i + 1);
   }
-  return at.length ? `; best iterate has joint${at.length > 1 ? "s" : ""} ${at.join(", ")} at a limit` : "";
+  return at.length ? `; best iterate has joint${at.length > 1 ? "s" : ""} ${at.join(", ")} at a limit (within ${IK_NEAR_LIMIT_FRACTION * 100} % of the range)` : "";
 }
 
 /**
@@ -351,10 +426,8 @@ export function solveIk(model: ArmModel, data: ArmData, target: ArrayLike<number
   const maxRestarts = options?.maxRestarts ?? IK_DEFAULTS.maxRestarts;
   const rng = createRng(options?.seed ?? IK_DEFAULTS.seed);
   const ik = data.ik, n = model.n;
-  const bound = reachBound(model);
-  const b = model.base;
-  const dist = Math.hypot(target[3] - b[3], target[7] - b[7], target[11] - b[11]);
-  const beyond = dist > bound + s.tolP;
+  const reach = reachCheck(model, target, s.tolP);
+  const beyond = reach.beyond;
   const outcome: AttemptOutcome = { reached: false, iterations: 0, E: 0, pos: 0, rot: 0 };
   let bestE = Infinity, iterations = 0, attempt = 0;
   for (; attempt <= maxRestarts; attempt++) {
@@ -372,15 +445,9 @@ export function solveIk(model: ArmModel, data: ArmData, target: ArrayLike<number
     if (outcome.reached || beyond) break;
   }
   const restarts = Math.min(attempt, maxRestarts);
-  const tail = beyond
-    ? `target is ${dist.toPrecision(4)} m from the base, beyond the arm's largest possible reach of ${bound.toPrecision(4)} m`
-    : `not reached after ${restarts + 1} attempt${restarts ? "s" : ""} (${iterations} iterations)`;
-  const res = finish(model, data, target, s, ik.qBestAll, iterations, restarts, `reached in attempt ${restarts + 1} after ${iterations} iterations`, "");
-  if (res.status === "not-reached") {
-    res.reason = `${tail}; best position error ${res.positionError.toExponential(2)} m` +
-      (s.mode === "point" ? "" : `, rotation error ${res.rotationError.toExponential(2)} rad`) +
-      (beyond ? "" : describeLimits(model, res.q));
-  }
+  const tail = beyond ? beyondText(reach) : `not reached after ${restarts + 1} attempt${restarts ? "s" : ""} (${iterations} iterations)`;
+  const res = finish(model, data, target, s, ik.qBestAll, iterations, restarts, `reached in attempt ${restarts + 1} after ${iterations} iterations`, "", beyond);
+  if (res.status === "not-reached") res.reason = notReachedText(model, s, res, tail);
   return res;
 }
 
@@ -406,9 +473,13 @@ export function solveIkMulti(model: ArmModel, data: ArmData, target: ArrayLike<n
   const ik = data.ik, n = model.n;
   const found: IkResult[] = [];
   const outcome: AttemptOutcome = { reached: false, iterations: 0, E: 0, pos: 0, rot: 0 };
-  let bestE = Infinity, iterations = 0;
+  let bestE = Infinity, iterations = 0, attempts = 0;
   const qBestAll = new Float64Array(n);
-  for (let attempt = 0; attempt <= maxRestarts && found.length < maxSolutions; attempt++) {
+  const reach = reachCheck(model, target, s.tolP);
+  // Beyond the largest possible reach: one attempt gives the nearest miss; restarts cannot help.
+  const lastAttempt = reach.beyond ? 0 : maxRestarts;
+  for (let attempt = 0; attempt <= lastAttempt && found.length < maxSolutions; attempt++) {
+    attempts = attempt + 1;
     if (attempt === 0) for (let j = 0; j < n; j++) ik.q[j] = projectJoint(model, j, initial[j]);
     else randomConfiguration(model, rng, ik.q);
     descend(model, data, target, s, outcome);
@@ -423,9 +494,8 @@ export function solveIkMulti(model: ArmModel, data: ArmData, target: ArrayLike<n
     if (found.every((f) => maxJointDistance(model, f.q, candidate.q) >= threshold)) found.push(candidate);
   }
   if (found.length > 0) return found;
-  const res = finish(model, data, target, s, qBestAll, iterations, maxRestarts, "", "");
-  res.reason = `not reached after ${maxRestarts + 1} attempts (${iterations} iterations); best position error ` +
-    `${res.positionError.toExponential(2)} m` + (s.mode === "point" ? "" : `, rotation error ${res.rotationError.toExponential(2)} rad`) +
-    describeLimits(model, res.q);
+  const res = finish(model, data, target, s, qBestAll, iterations, attempts - 1, "", "", reach.beyond);
+  const tail = reach.beyond ? beyondText(reach) : `not reached after ${attempts} attempt${attempts === 1 ? "" : "s"} (${iterations} iterations)`;
+  res.reason = notReachedText(model, s, res, tail);
   return [res];
 }

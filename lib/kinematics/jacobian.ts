@@ -2,7 +2,8 @@
  * Geometric Jacobians (Craig, "Introduction to Robotics", ch. 5; Spong, Hutchinson & Vidyasagar,
  * "Robot Modeling and Control", §4.6): column j is [zⱼ × (p − oⱼ); zⱼ] for a revolute joint and
  * [zⱼ; 0] for a prismatic one, where zⱼ and oⱼ are joint j's axis direction and a point on it
- * (world frame) and p is the reference point.
+ * (world frame) and p is the reference point. For DH tables zⱼ is a frame's z-axis; for a chain
+ * it is the joint's unit axis rotated into the world by the frame after the joint.
  */
 import type { ArmData, ArmModel } from "./types";
 import { checkArgs } from "./data";
@@ -23,13 +24,21 @@ export function jacobianAtWorldPoint(
   out: Float64Array,
 ): Float64Array {
   const n = model.n, f = data.frames, off = model.axisFrameOffset, prismatic = model.prismatic;
+  const chain = model.convention === "chain", U = model.axis;
   for (let j = 0; j < n; j++) {
     if (j >= upTo) {
       out[j] = 0; out[n + j] = 0; out[2 * n + j] = 0; out[3 * n + j] = 0; out[4 * n + j] = 0; out[5 * n + j] = 0;
       continue;
     }
     const b = 16 * (j + off);
-    const zx = f[b + 2], zy = f[b + 6], zz = f[b + 10];
+    let zx = f[b + 2], zy = f[b + 6], zz = f[b + 10];
+    if (chain) {
+      // The axis is fixed in the frame after the joint: world axis = R_frame · u.
+      const ux = U[3 * j], uy = U[3 * j + 1], uz = U[3 * j + 2];
+      zx = f[b] * ux + f[b + 1] * uy + f[b + 2] * uz;
+      zy = f[b + 4] * ux + f[b + 5] * uy + f[b + 6] * uz;
+      zz = f[b + 8] * ux + f[b + 9] * uy + f[b + 10] * uz;
+    }
     if (prismatic[j] === 1) {
       out[j] = zx; out[n + j] = zy; out[2 * n + j] = zz;
       out[3 * n + j] = 0; out[4 * n + j] = 0; out[5 * n + j] = 0;
@@ -41,6 +50,27 @@ export function jacobianAtWorldPoint(
       out[3 * n + j] = zx; out[4 * n + j] = zy; out[5 * n + j] = zz;
     }
   }
+  return out;
+}
+
+/**
+ * Joint `joint` (1-based) in the world frame after a forward-kinematics call: writes the unit axis
+ * direction to out[0..2] and a point on the axis (m) to out[3..5] (the origin of the frame that
+ * holds the axis: frame joint−1 for `dh`, frame joint for `mdh` and `chain`). Returns `out`.
+ * Does not allocate.
+ *
+ * @throws RangeError on a bad joint number or a short `out`.
+ */
+export function jointAxisWorld(model: ArmModel, data: ArmData, joint: number, out: Float64Array | number[]): Float64Array | number[] {
+  if (data.model !== model) throw new RangeError("data: was created for a different model (use createData(model))");
+  if (!Number.isInteger(joint) || joint < 1 || joint > model.n) throw new RangeError(`joint: out of range, expected 1..${model.n}, got ${joint}`);
+  if (out.length < 6) throw new RangeError(`out: wrong size, expected 6 numbers, got ${out.length}`);
+  const f = data.frames, j = joint - 1, b = 16 * (j + model.axisFrameOffset), U = model.axis;
+  const ux = U[3 * j], uy = U[3 * j + 1], uz = U[3 * j + 2];
+  out[0] = f[b] * ux + f[b + 1] * uy + f[b + 2] * uz;
+  out[1] = f[b + 4] * ux + f[b + 5] * uy + f[b + 6] * uz;
+  out[2] = f[b + 8] * ux + f[b + 9] * uy + f[b + 10] * uz;
+  out[3] = f[b + 3]; out[4] = f[b + 7]; out[5] = f[b + 11];
   return out;
 }
 

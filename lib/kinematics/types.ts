@@ -11,9 +11,9 @@
  *   linear velocity of a reference point (the tool point unless another is given).
  * - SI units throughout: m, rad, kg, N·m.
  */
-import type { ArmKinematics } from "@/shared/schemas/arm";
+import type { ArmKinematics, ChainArmKinematics, DhArmKinematics } from "@/shared/schemas/arm";
 
-export type { ArmKinematics };
+export type { ArmKinematics, ChainArmKinematics, DhArmKinematics };
 
 /** Row-major 4×4 homogeneous transform, length 16. */
 export type Mat4 = Float64Array;
@@ -21,6 +21,8 @@ export type Mat4 = Float64Array;
 export type JointVector = Float64Array;
 export type JointType = "revolute" | "prismatic";
 export type DhConvention = "dh" | "mdh";
+/** `dh`, `mdh` (DH tables) or `chain` (general joint chain: origin + axis per joint, URDF semantics). */
+export type Convention = DhConvention | "chain";
 
 /**
  * Compiled, immutable arm model (made by `createModel`, never changed by any algorithm).
@@ -30,12 +32,15 @@ export interface ArmModel {
   readonly name: string;
   /** Number of joints. */
   readonly n: number;
-  /** `dh`: link i = Rz(θᵢ)·Tz(dᵢ)·Tx(aᵢ)·Rx(αᵢ); `mdh`: link i = Rx(α₍ᵢ₋₁₎)·Tx(a₍ᵢ₋₁₎)·Rz(θᵢ)·Tz(dᵢ). */
-  readonly convention: DhConvention;
+  /**
+   * `dh`: link i = Rz(θᵢ)·Tz(dᵢ)·Tx(aᵢ)·Rx(αᵢ); `mdh`: link i = Rx(α₍ᵢ₋₁₎)·Tx(a₍ᵢ₋₁₎)·Rz(θᵢ)·Tz(dᵢ);
+   * `chain`: link i = T(originᵢ)·Rot(axisᵢ, qᵢ) (revolute) or T(originᵢ)·Trans(axisᵢ·qᵢ) (prismatic).
+   */
+  readonly convention: Convention;
   readonly types: readonly JointType[];
   /** 1 for a prismatic joint, 0 for a revolute one (length n). */
   readonly prismatic: Uint8Array;
-  /** DH parameters per joint as written in the file (length n each; m, rad). */
+  /** DH parameters per joint as written in the file (length n each; m, rad); zero for `chain` arms. */
   readonly a: Float64Array;
   readonly alpha: Float64Array;
   readonly d: Float64Array;
@@ -61,12 +66,27 @@ export interface ArmModel {
   /** Flange → tool point transform T_flange_tool (row-major 4×4; identity when absent). */
   readonly tool: Mat4;
   /**
-   * Index into `frames` of the frame whose z-axis is joint i's axis (0-based joint index):
-   * i for `dh` (joint i+1 moves about z of frame i), i+1 for `mdh`.
+   * `chain` arms: joint origins T(originᵢ) = Trans(xyz)·Rz(yaw)·Ry(pitch)·Rx(roll), row-major,
+   * 16 numbers per joint (length 16n); the identity for `dh` and `mdh` arms.
+   */
+  readonly origin: Float64Array;
+  /**
+   * Unit joint axis (3 numbers per joint, length 3n) in the coordinates of frame
+   * `i + axisFrameOffset` (0-based joint index i): (0, 0, 1) for `dh` and `mdh`, the normalised
+   * `axis` for `chain`. The axis passes through that frame's origin. `jointAxisWorld` gives it in
+   * the world frame after a forward-kinematics call.
+   */
+  readonly axis: Float64Array;
+  /**
+   * Index offset into `frames` of the frame holding joint i's axis (0-based joint index):
+   * 0 for `dh` (joint i+1 moves about z of frame i), 1 for `mdh` and `chain` (the axis is fixed in
+   * the frame after the joint, which it rotates about or slides along).
    */
   readonly axisFrameOffset: 0 | 1;
-  /** Sum over joints of |a| + |d| plus the prismatic ranges, plus the tool offset (m): a length scale. */
+  /** Sum over joints of the link offsets plus the prismatic ranges, plus the tool offset (m): a length scale. */
   readonly lengthScale: number;
+  /** Upper bound on the distance from frame 0's origin to the tool point over all configurations (m). */
+  readonly reach: number;
 }
 
 /**
@@ -142,8 +162,20 @@ export interface IkMultiOptions extends IkOptions {
   distinctThreshold?: number;
 }
 
+/**
+ * Why a search ended (inverse.ts): `reached`; `beyond-reach` (the target is farther from the
+ * base than the arm's largest possible reach, so no search was made beyond the first attempt);
+ * `joint-limit` (stalled with a joint at a limit that the error would push it past);
+ * `singularity` (stalled where no joint motion lowers the remaining error: a singularity, or a
+ * motion the structure lacks); `budget` (attempts ended without converging, away from a limit and
+ * from a stationary point: the search says nothing about reachability).
+ */
+export type IkCause = "reached" | "beyond-reach" | "joint-limit" | "singularity" | "budget";
+
 export interface IkResult {
   status: "reached" | "not-reached";
+  /** Structured reason; branch on this, never on `reason`'s wording. */
+  cause: IkCause;
   /** Answer (wrapped into the limits), or the best iterate found when not reached. */
   q: Float64Array;
   /** |p_target − p_tool| (m). */

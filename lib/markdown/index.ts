@@ -13,6 +13,58 @@ import sanitizeHtml from "sanitize-html";
 /** Longest comment body accepted (characters of Markdown source). */
 export const MAX_COMMENT_LENGTH = 5000;
 
+/**
+ * Deepest nesting of quotes and lists written on one line that a comment may use. The parser
+ * recurses once per level; a few thousand `> ` markers exhaust the stack, and no discussion needs
+ * more than a handful of levels.
+ */
+export const MAX_NESTING = 16;
+
+const LIST_MARKER = /^(?:[-*+]|\d{1,9}[.)])(?=[ \t]|$)/;
+
+/**
+ * The deepest run of block-container markers (`>` quotes and `-`, `*`, `+`, `1.` list items)
+ * opening any line of a Markdown source, outside fenced code. Stops counting past `stopAt`.
+ */
+export function nestingDepth(source: string, stopAt = MAX_NESTING + 1): number {
+  let max = 0;
+  let fence: string | null = null;
+  for (const line of source.split(/\r\n|\r|\n/)) {
+    const fenceMark = /^ {0,3}(`{3,}|~{3,})/.exec(line)?.[1];
+    if (fence !== null) {
+      if (fenceMark && fenceMark[0] === fence[0] && fenceMark.length >= fence.length) fence = null;
+      continue;
+    }
+    if (fenceMark) {
+      fence = fenceMark;
+      continue;
+    }
+    let depth = 0;
+    let rest = line;
+    for (;;) {
+      rest = rest.replace(/^[ \t]+/, "");
+      if (rest.startsWith(">")) rest = rest.slice(1);
+      else {
+        const m = LIST_MARKER.exec(rest);
+        if (!m) break;
+        rest = rest.slice(m[0].length);
+      }
+      depth++;
+      if (depth >= stopAt) return depth;
+    }
+    if (depth > max) max = depth;
+  }
+  return max;
+}
+
+/** Why a body cannot be stored, or null: nesting deeper than MAX_NESTING. */
+export function nestingProblem(source: string): string | null {
+  const depth = nestingDepth(source);
+  return depth > MAX_NESTING
+    ? `quotes and lists are nested more than ${MAX_NESTING} levels deep on one line; use at most ${MAX_NESTING}`
+    : null;
+}
+
 const escapeHtml = (s: string): string =>
   s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
 
@@ -93,22 +145,40 @@ export const SANITIZE_OPTIONS: sanitizeHtml.IOptions = {
   nonTextTags: ["script", "style", "textarea", "option", "noscript", "title", "xmp", "iframe", "noembed", "noframes"],
 };
 
-/** Markdown → sanitised HTML. */
+/** Source shown as text: escaped, one paragraph, line breaks kept. */
+const plainText = (source: string): string => `<p>${escapeHtml(source).replace(/\r\n|\r|\n/g, "<br />")}</p>\n`;
+
+/**
+ * Markdown → sanitised HTML. A source nested deeper than MAX_NESTING (stored before the limit
+ * existed) is shown as plain text instead of being parsed.
+ */
 export function renderMarkdown(source: string, opts: RenderOptions = {}): string {
+  const text = source.slice(0, MAX_COMMENT_LENGTH);
+  if (nestingDepth(text) > MAX_NESTING) return sanitizeHtml(plainText(text), SANITIZE_OPTIONS);
   const md = opts.mentions && opts.mentions.size > 0 ? parser(opts.mentions) : defaultParser;
-  const raw = md.parse(source.slice(0, MAX_COMMENT_LENGTH)) as string;
+  const raw = md.parse(text) as string;
   return sanitizeHtml(raw, SANITIZE_OPTIONS);
 }
 
+/** What a reader sees instead of a comment whose body could not be rendered. */
+export const UNRENDERABLE = "this comment could not be displayed";
+
 /**
- * Cleans a display name (guests' names on a comment link): Unicode NFKC, control and format
- * characters (bidirectional overrides, zero-width joiners) removed, blanks collapsed, trimmed.
- * The result is still plain text; React escapes it where it is shown.
+ * Renders one comment on its own: a body the renderer fails on gives `html: ""` and the reason,
+ * so one bad comment never breaks the list it is in. `render` is the renderer (renderMarkdown).
  */
-export function cleanDisplayName(name: string): string {
-  return name
-    .normalize("NFKC")
-    .replace(/[\p{Cc}\p{Cf}\p{Co}\p{Cn}]/gu, "")
-    .replace(/\s+/g, " ")
-    .trim();
+export function renderComment(
+  source: string,
+  opts: RenderOptions = {},
+  render: (source: string, opts: RenderOptions) => string = renderMarkdown,
+): { html: string; renderError: string | null } {
+  try {
+    return { html: render(source, opts), renderError: null };
+  } catch (err) {
+    console.error("[markdown] a comment could not be rendered:", err instanceof Error ? err.message.split("\n")[0] : err);
+    return { html: "", renderError: UNRENDERABLE };
+  }
 }
+
+/** Guests' display names are cleaned like every other name (shared/text.ts). */
+export { cleanName as cleanDisplayName } from "@/shared/text";

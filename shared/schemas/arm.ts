@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { finite, nonNegative, positive, vec3, mat4 } from "./common";
+import { finite, labelText, nameText, nonNegative, positive, vec3, mat4 } from "./common";
 import { fmt, jointToDisplay, jointUnit } from "../units";
 
 /**
@@ -9,16 +9,9 @@ import { fmt, jointToDisplay, jointUnit } from "../units";
  */
 export const MAX_JOINTS = 12;
 
-export const jointSchema = z.object({
+/** Fields every joint has, whatever the convention. */
+const jointCommonShape = {
   type: z.enum(["revolute", "prismatic"], { error: "must be revolute or prismatic" }),
-  /** DH link length a (m). In `mdh` this is a₍ᵢ₋₁₎. */
-  a: finite,
-  /** DH twist α (rad). In `mdh` this is α₍ᵢ₋₁₎. */
-  alpha: finite,
-  /** DH offset d (m); q adds to it for a prismatic joint. */
-  d: finite,
-  /** DH angle θ (rad); q adds to it for a revolute joint. */
-  theta: finite,
   /** Lower bound of q (rad or m). */
   min: finite,
   /** Upper bound of q (rad or m). */
@@ -33,8 +26,72 @@ export const jointSchema = z.object({
   com: vec3.optional(),
   /** Collision radius of the link (m). */
   radius: nonNegative.optional(),
+};
+
+/** A joint of a `dh` or `mdh` arm: one row of the DH table. */
+const { type: jointType, ...jointLimitsAndMass } = jointCommonShape;
+
+export const jointSchema = z.object({
+  type: jointType,
+  /** DH link length a (m). In `mdh` this is a₍ᵢ₋₁₎. */
+  a: finite,
+  /** DH twist α (rad). In `mdh` this is α₍ᵢ₋₁₎. */
+  alpha: finite,
+  /** DH offset d (m); q adds to it for a prismatic joint. */
+  d: finite,
+  /** DH angle θ (rad); q adds to it for a revolute joint. */
+  theta: finite,
+  ...jointLimitsAndMass,
 });
 export type JointSpec = z.infer<typeof jointSchema>;
+
+/** Shortest joint axis accepted before normalisation (a zero axis has no direction). */
+export const MIN_AXIS_LENGTH = 1e-9;
+
+/**
+ * Origin of a chain joint (URDF semantics): the fixed transform from the previous link's frame to
+ * the joint frame, T(origin) = Trans(xyz) · Rz(yaw) · Ry(pitch) · Rx(roll), rpy = [roll, pitch, yaw].
+ */
+export const originSchema = z.object({
+  /** Translation (m) in the previous link's frame. */
+  xyz: vec3,
+  /** Roll, pitch, yaw (rad) about the fixed axes x, y, z. */
+  rpy: vec3,
+});
+export type JointOrigin = z.infer<typeof originSchema>;
+
+/**
+ * A joint of a `chain` arm (general joint chain, as in the open URDF format): its transform is
+ * T(origin) · Rot(axis, q) for a revolute joint and T(origin) · Trans(axis · q) for a prismatic
+ * one; the link frame after the joint (the frame `com` is given in) is that result.
+ */
+export const chainJointSchema = z.object({
+  type: jointType,
+  origin: originSchema,
+  /** Joint axis in the joint frame (any length > 0; normalised by the kinematics). */
+  axis: vec3.refine((v) => Math.hypot(v[0], v[1], v[2]) >= MIN_AXIS_LENGTH, "must not be zero: the axis needs a direction"),
+  ...jointLimitsAndMass,
+  /**
+   * Inertia tensor of the link about its centre of mass, axes of the link frame (kg·m²):
+   * [ixx, iyy, izz, ixy, ixz, iyz]. Kept from imported files for later use; not used by the
+   * analysis yet.
+   */
+  inertia: z.tuple([finite, finite, finite, finite, finite, finite]).optional(),
+});
+export type ChainJointSpec = z.infer<typeof chainJointSchema>;
+
+/** Where an arm description came from when it was imported from a file. */
+export const armSourceSchema = z.object({
+  format: z.enum(["urdf"], { error: "must be urdf" }),
+  /** File name as given when importing (no directories). */
+  file: z.string().trim().min(1, "must not be empty").max(255, "must be at most 255 characters"),
+  /** SHA-256 of the file's bytes, lowercase hex. */
+  sha256: z.string().regex(/^[0-9a-f]{64}$/, "must be 64 lowercase hex digits (SHA-256)"),
+  /** Base and tip links of the chain taken from the file. */
+  baseLink: z.string().max(255).optional(),
+  tipLink: z.string().max(255).optional(),
+});
+export type ArmSource = z.infer<typeof armSourceSchema>;
 
 export const MOUNTINGS = ["floor", "ceiling", "wall", "angled"] as const;
 export type Mounting = (typeof MOUNTINGS)[number];
@@ -78,22 +135,48 @@ export const armSpecsSchema = z.object({
 });
 export type ArmSpecs = z.infer<typeof armSpecsSchema>;
 
-const armObject = z.object({
-  name: z.string().trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
-  maker: z.string().trim().max(120).optional(),
-  modelCode: z.string().trim().max(60).optional(),
+/** Identity fields (first in a stored document, as before the kinematics). */
+const armIdentityShape = {
+  name: nameText(120),
+  maker: labelText(120).optional(),
+  modelCode: labelText(60).optional(),
   description: z.string().max(4000).optional(),
-  convention: z.enum(["dh", "mdh"], { error: "must be dh or mdh" }),
-  joints: z
-    .array(jointSchema)
-    .min(1, "an arm needs at least 1 joint")
-    .max(MAX_JOINTS, `an arm has at most ${MAX_JOINTS} joints`),
-  /** Cell-independent base transform: arm base → first DH frame (row-major 4×4). */
+};
+
+/** Fields after the joints. */
+const armCommonShape = {
+  /** Cell-independent base transform: arm base → first joint frame (row-major 4×4). */
   base: mat4.optional(),
   /** Flange → tool point (row-major 4×4). */
   tool: mat4.optional(),
   specs: armSpecsSchema.optional(),
+  /** The file the arm was imported from, if any. */
+  source: armSourceSchema.optional(),
+};
+
+const jointList = <J extends z.ZodType>(joint: J) =>
+  z
+    .array(joint)
+    .min(1, "an arm needs at least 1 joint")
+    .max(MAX_JOINTS, `an arm has at most ${MAX_JOINTS} joints`);
+
+/** An arm described by a DH table (standard `dh` or modified `mdh`). */
+const dhArmObject = z.object({
+  ...armIdentityShape,
+  convention: z.enum(["dh", "mdh"]),
+  joints: jointList(jointSchema),
+  ...armCommonShape,
 });
+
+/** An arm described as a general joint chain (origin + axis per joint). */
+const chainArmObject = z.object({
+  ...armIdentityShape,
+  convention: z.literal("chain"),
+  joints: jointList(chainJointSchema),
+  ...armCommonShape,
+});
+
+const armObject = z.discriminatedUnion("convention", [dhArmObject, chainArmObject], { error: "must be dh, mdh or chain" });
 
 /** Cross-field checks; messages name the joint, the value and the reason in display units. */
 export const armSchema = armObject.superRefine((arm, ctx) => {
@@ -125,6 +208,18 @@ export const armSchema = armObject.superRefine((arm, ctx) => {
   });
 });
 export type ArmDocument = z.infer<typeof armSchema>;
+export type DhArmDocument = Extract<ArmDocument, { convention: "dh" | "mdh" }>;
+export type ChainArmDocument = Extract<ArmDocument, { convention: "chain" }>;
+export type Convention = ArmDocument["convention"];
+export const CONVENTIONS: readonly Convention[] = ["dh", "mdh", "chain"];
 
-/** The kinematic part the analysis and the command line need. */
-export type ArmKinematics = Pick<ArmDocument, "name" | "convention" | "joints" | "base" | "tool">;
+type KinematicKeys = "name" | "convention" | "joints" | "base" | "tool";
+/** The kinematic part the analysis and the command line need (either kind of arm). */
+export type ArmKinematics = DhArmKinematics | ChainArmKinematics;
+export type DhArmKinematics = Pick<DhArmDocument, KinematicKeys>;
+export type ChainArmKinematics = Pick<ChainArmDocument, KinematicKeys>;
+
+/** The kinematic part of an arm document (name, convention, joints, base, tool), as one object. */
+export function kinematicsOf(arm: ArmDocument): ArmKinematics {
+  return { name: arm.name, convention: arm.convention, joints: arm.joints, base: arm.base, tool: arm.tool } as ArmKinematics;
+}

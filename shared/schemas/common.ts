@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { cleanName } from "../text";
 
 /** A finite number (rejects NaN, ±Infinity and numeric strings). */
 export const finite = z.number({ error: "must be a number" }).finite("must be a finite number");
@@ -30,6 +31,20 @@ export const mat4 = z
       r[0] * (r[4] * r[8] - r[5] * r[7]) - r[1] * (r[3] * r[8] - r[5] * r[6]) + r[2] * (r[3] * r[7] - r[4] * r[6]);
     if (det < 0) ctx.addIssue({ code: "custom", message: "rotation part is a reflection (determinant −1)" });
   });
+
+/**
+ * A name shown to others, cleaned by cleanName (no control or bidirectional-override
+ * characters), then 1 to `max` characters.
+ */
+export const nameText = (max: number) =>
+  z
+    .string({ error: "must be text" })
+    .transform(cleanName)
+    .pipe(z.string().min(1, "must not be empty").max(max, `must be at most ${max} characters`));
+
+/** Like nameText, but may be empty (optional labels and maker names). */
+export const labelText = (max: number) =>
+  z.string({ error: "must be text" }).transform(cleanName).pipe(z.string().max(max, `must be at most ${max} characters`));
 
 export const IDENTITY4: readonly number[] = Object.freeze([1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1]);
 

@@ -1,3 +1,4 @@
 export * from "./common";
 export * from "./arm";
 export * from "./requirements";
+export * from "./roles";

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { finite, nonNegative, positive, vec3, mat4 } from "./common";
+import { finite, nameText, nonNegative, positive, vec3, mat4 } from "./common";
 
 /**
  * Requirement set: one cell scenario, SI units (m, rad, kg, N, N·m, m/s).
@@ -17,7 +17,7 @@ export const CONSTRAINT_MODES = ["pose", "axis", "point"] as const;
 export type ConstraintMode = (typeof CONSTRAINT_MODES)[number];
 
 export const targetSchema = z.object({
-  name: z.string().trim().min(1, "must not be empty").max(80),
+  name: nameText(80),
   /** Position of the TCP in the cell frame (m). */
   position: vec3,
   /** Roll, pitch, yaw (rad) about fixed X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll). */
@@ -41,7 +41,7 @@ export const waypointSchema = z.object({
 });
 
 export const pathSchema = z.object({
-  name: z.string().trim().min(1, "must not be empty").max(80),
+  name: nameText(80),
   /** Ordered waypoints, linearly interpolated (position linear, orientation by slerp). */
   waypoints: z.array(waypointSchema).min(2, "a path needs at least 2 waypoints").max(200),
   mode: z.enum(CONSTRAINT_MODES, { error: "must be pose, axis or point" }).default("axis"),
@@ -120,7 +120,7 @@ export const obstacleSchema = z.discriminatedUnion("shape", [
 
 export const requirementSetSchema = z
   .object({
-    name: z.string().trim().min(1, "must not be empty").max(120),
+    name: nameText(120),
     description: z.string().max(4000).optional(),
     /** Arm base pose in the cell frame, T_C_B (row-major 4×4). */
     base: mat4,
@@ -152,6 +152,12 @@ export const requirementSetSchema = z
     rs.targets.forEach((t, i) => {
       if (seen.has(t.name)) ctx.addIssue({ code: "custom", path: ["targets", i, "name"], message: `target name "${t.name}" is used twice (rows ${seen.get(t.name)! + 1} and ${i + 1})` });
       seen.set(t.name, i);
+    });
+    // Path names are unique too: comments are anchored to a path by its name.
+    const paths = new Map<string, number>();
+    rs.paths.forEach((p, i) => {
+      if (paths.has(p.name)) ctx.addIssue({ code: "custom", path: ["paths", i, "name"], message: `path name "${p.name}" is used twice (paths ${paths.get(p.name)! + 1} and ${i + 1})` });
+      paths.set(p.name, i);
     });
   });
 export type RequirementSet = z.infer<typeof requirementSetSchema>;

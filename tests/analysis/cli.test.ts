@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { REF } from "./fixtures";
@@ -56,5 +56,16 @@ describe("command line: statics and analyze (DESIGN.md)", () => {
     expect(lines[1]).toMatch(/^spec,Number of axes,must,≥ 2,2R vertical,2,,meets,/);
     expect(lines[3]).toMatch(/^spec,Reach,want,≥ 1000,2R vertical,–,mm,unknown,/);
     expect(lines[5]).toMatch(/^target,front,,reached \(point\),2R vertical,/);
+  });
+  it("analyze --format csv writes names through the exports' CSV writer (quoted, formula-guarded)", () => {
+    const hostileArm = path.join(dir, "hostile.json");
+    writeFileSync(hostileArm, JSON.stringify({ ...JSON.parse(readFileSync(armFile, "utf8")), name: '=HYPERLINK("http://evil.test"),x' }));
+    const hostileReq = path.join(dir, "hostile-req.json");
+    writeFileSync(hostileReq, JSON.stringify({ ...JSON.parse(readFileSync(reqFile, "utf8")), targets: [{ name: "+front", position: [1.2, 0, 0.6], rpy: [0, 0, 0], mode: "point" }] }));
+    const r = cli("analyze", "--arms", hostileArm, "--requirements", hostileReq, "--format", "csv");
+    expect(r.code).toBe(0);
+    const lines = r.out.trim().split("\n");
+    expect(lines[1]).toMatch(/^spec,Number of axes,must,≥ 2,"'=HYPERLINK\(""http:\/\/evil\.test""\),x",2,,meets,/);
+    expect(lines[3]).toMatch(/^target,'\+front,,reached \(point\),"'=HYPERLINK/);
   });
 });

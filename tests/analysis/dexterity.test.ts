@@ -4,7 +4,7 @@ import {
   dexterityMargin, structuralRanksFromJacobians, DEXTERITY_MARGINAL_THRESHOLD,
 } from "@/lib/analysis/dexterity";
 import { computeJacobian, createData, createModel } from "@/lib/kinematics";
-import { REF } from "./fixtures";
+import { AXIS_REF, poseOf, REF } from "./fixtures";
 
 /** A 6×2 geometric Jacobian of a planar 2R arm in the x-y plane (REFERENCES.md §7 convention). */
 function jac2r(l1: number, l2: number, q1: number, q2: number): Float64Array {
@@ -12,7 +12,7 @@ function jac2r(l1: number, l2: number, q1: number, q2: number): Float64Array {
   return Float64Array.from([-l1 * s1 - l2 * s12, -l2 * s12, l1 * c1 + l2 * c12, l2 * c12, 0, 0, 0, 0, 0, 0, 1, 1]);
 }
 const limits2 = { n: 2, lower: [-Math.PI, -Math.PI], upper: [Math.PI, Math.PI] };
-const planarRanks = { translation: 2, orientation: 0, rotation: 1 };
+const planarRanks = { translation: 2, orientation: 0, rotation: 1, axisOrientation: 0 };
 
 describe("translational block measures on the 2R arm", () => {
   // Source: REFERENCES.md §2.2 check values, recomputed with numpy in analysis_reference.py;
@@ -131,7 +131,7 @@ describe("joint-limit margin and the dexterity margin", () => {
     const jac = new Float64Array(6 * model.n);
     const jacs = [[0.1, -0.4, 0.5, 0.3, 0.8, -0.2], [0.7, 0.2, -0.3, -1.0, 0.5, 0.4], [-0.5, 0.9, 0.6, 0.2, -1.2, 1.0]].map((q) => Float64Array.from(computeJacobian(model, data, q, jac)));
     const ranks = structuralRanksFromJacobians(jacs, 6);
-    expect(ranks).toEqual({ translation: 3, orientation: 3, rotation: 3 });
+    expect(ranks).toEqual({ translation: 3, orientation: 3, rotation: 3, axisOrientation: 2 });
     const q = [0.2, -0.3, 0.4, 0.5, 0, 0.1]; // joint 5 at 0: axes 4 and 6 aligned
     computeJacobian(model, data, q, jac);
     const d = dexterityAt(jac, 6, model, q, "pose", ranks);
@@ -142,5 +142,75 @@ describe("joint-limit margin and the dexterity margin", () => {
     expect(d.marginal).toBe(true);
     // Point targets do not care about the wrist.
     expect(dexterityAt(jac, 6, model, q, "point", ranks).marginal).toBe(false);
+  });
+});
+
+describe("axis targets: the orientation factor counts only the constrained rotations", () => {
+  // Source: numpy.linalg.svd of A = [xᵀ·J_o; yᵀ·J_o] with J_o = J_r·P (P the projector onto the
+  // null space of J_t), in tests/reference/axis_dexterity_reference.py; the spin about the tool z
+  // axis is free for an axis target, so it must not enter the factor.
+  const free = (n: number) => ({ n, lower: new Array(n).fill(-10), upper: new Array(n).fill(10) });
+  const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(1e-300, Math.abs(b));
+
+  it("random Jacobians and tool frames: σ of the 2-direction block and of the full block agree with numpy", () => {
+    let compared = 0;
+    for (const c of AXIS_REF.random) {
+      const d = dexterityAt(c.jacobian, c.n, free(c.n), new Array(c.n).fill(0), "axis", undefined, poseOf(c.toolRotation));
+      const a = d.axisOrientation!;
+      expect(a.singularValues).toHaveLength(2);
+      // Absolute tolerance on the scale of the block (rank-deficient cases have σ ≈ 1e-16 on both sides).
+      const tol = 1e-12 * Math.max(1, c.sigmaOrientation[0]);
+      for (let k = 0; k < 2; k++) expect(Math.abs(a.singularValues[k] - c.sigmaAxis[k])).toBeLessThan(tol);
+      for (let k = 0; k < 3; k++) expect(Math.abs(d.orientation.singularValues[k] - c.sigmaOrientation[k])).toBeLessThan(tol);
+      if (c.sigmaAxis[0] < 1e-12 * c.sigmaOrientation[0]) {
+        // Zero in exact arithmetic (the only motion keeping the point still is the free spin): no constrained rotation, neutral.
+        expect(a.rank).toBe(0);
+        expect(a.inverseCondition).toBe(1);
+      } else if (c.sigmaAxis[1] > 1e-6 * c.sigmaAxis[0]) {
+        expect(a.rank).toBe(2);
+        expect(rel(a.inverseCondition, c.inverseConditionAxis)).toBeLessThan(1e-10);
+        compared++;
+      }
+      // The principal directions lie in the tool's x-y plane (cell frame, unit length).
+      const z = [c.toolRotation[2], c.toolRotation[5], c.toolRotation[8]];
+      for (const u of a.directions) {
+        expect(Math.hypot(u[0], u[1], u[2])).toBeCloseTo(1, 12);
+        expect(u[0] * z[0] + u[1] * z[1] + u[2] * z[2]).toBeCloseTo(0, 12);
+      }
+    }
+    expect(compared).toBeGreaterThanOrEqual(20);
+  });
+
+  it("a joint that only spins the tool about its z axis changes nothing in the axis factor", () => {
+    for (const c of AXIS_REF.random.filter((x: { spinJoint: boolean }) => x.spinJoint)) {
+      const d = dexterityAt(c.jacobian, c.n, free(c.n), new Array(c.n).fill(0), "axis", undefined, poseOf(c.toolRotation));
+      const without = Float64Array.from(c.jacobian);
+      for (let r = 0; r < 6; r++) without[r * c.n + c.n - 1] = 0;
+      const d0 = dexterityAt(without, c.n, free(c.n), new Array(c.n).fill(0), "axis", undefined, poseOf(c.toolRotation));
+      for (let k = 0; k < 2; k++) expect(d.axisOrientation!.singularValues[k]).toBeCloseTo(d0.axisOrientation!.singularValues[k], 12);
+    }
+  });
+
+  it("six-axis arm (own numpy kinematics): the margin uses σ₂/σ₁ of the constrained block, the full block is reported beside it", () => {
+    const model = createModel(AXIS_REF.arm.arm);
+    const data = createData(model);
+    const jac = new Float64Array(6 * model.n);
+    for (const c of AXIS_REF.arm.cases) {
+      computeJacobian(model, data, c.q, jac);
+      for (let k = 0; k < 36; k++) expect(jac[k]).toBeCloseTo(c.jacobian[k], 12);
+      const d = dexterityAt(jac, 6, model, c.q, "axis", undefined, data.toolPose);
+      expect(rel(d.axisOrientation!.inverseCondition, c.inverseConditionAxis)).toBeLessThan(1e-10);
+      expect(rel(d.orientation.inverseCondition, c.sigmaOrientation[2] / c.sigmaOrientation[0])).toBeLessThan(1e-10);
+      expect(d.margin).toBeCloseTo(dexterityMargin(d.translation.inverseCondition, c.inverseConditionAxis, d.jointLimitFactor, "axis"), 12);
+      // Pose targets keep the full three-direction block.
+      const p = dexterityAt(jac, 6, model, c.q, "pose", undefined, data.toolPose);
+      expect(p.axisOrientation).toBeNull();
+      expect(p.margin).toBeCloseTo(dexterityMargin(p.translation.inverseCondition, c.sigmaOrientation[2] / c.sigmaOrientation[0], p.jointLimitFactor, "pose"), 12);
+    }
+  });
+
+  it("axis mode needs the tool pose", () => {
+    const c = AXIS_REF.random[0];
+    expect(() => dexterityAt(c.jacobian, c.n, free(c.n), new Array(c.n).fill(0), "axis")).toThrow(/toolPose/);
   });
 });

@@ -10,6 +10,7 @@ import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
+import { buildIsStale } from "../helpers/build-freshness";
 
 const ROOT = path.resolve(__dirname, "..", "..");
 const CHROMIUM = "/usr/bin/chromium";
@@ -41,10 +42,10 @@ function freePort(): Promise<number> {
   });
 }
 
-/** Builds the production server once if no build exists (npm test builds before this project). */
+/** Builds the production server when it is missing or older than the sources (`npm test` builds first). */
 export function ensureBuild(): void {
   run(process.execPath, [path.join(ROOT, "scripts", "build-jobs.mjs")], process.env, "build the analysis programs");
-  if (existsSync(path.join(ROOT, ".next", "BUILD_ID"))) return;
+  if (!buildIsStale(ROOT)) return;
   run(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, "next build");
 }
 

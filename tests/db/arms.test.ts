@@ -123,7 +123,7 @@ describe("concurrent edits", () => {
     const tsx = path.resolve(__dirname, "..", "..", "node_modules", ".bin", "tsx");
     const outputs = await Promise.all(
       ["Process A", "Process B"].map((name) =>
-        run(tsx, [script, id, name], { env: { ...process.env, DATABASE_URL: t.url }, cwd: path.resolve(__dirname, "..", "..") }).then((r) => JSON.parse(r.stdout.trim())),
+        run(tsx, ["--conditions=react-server", script, id, name], { env: { ...process.env, DATABASE_URL: t.url }, cwd: path.resolve(__dirname, "..", "..") }).then((r) => JSON.parse(r.stdout.trim())),
       ),
     );
     expect(outputs.map((o) => o.outcome).sort()).toEqual(["conflict", "saved"]);

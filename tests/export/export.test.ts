@@ -4,7 +4,8 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { analyzeShortlist, rankArms, type ShortlistAnalysis } from "@/lib/analysis";
 import { complianceTable, csvField, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
-import { readCsvExport, readXlsx, sheetRecords } from "./parse";
+import { parseCsvRows, readCsvExport, readXlsx, sheetRecords } from "./parse";
+import type { ArmDocument } from "@/shared/schemas";
 
 let analysis: ShortlistAnalysis;
 let meta: ExportMeta;
@@ -32,6 +33,27 @@ describe("CSV", () => {
     expect(csvField("-12.5")).toBe("-12.5");
     expect(csvField(-3)).toBe("-3");
     expect(csvField(null)).toBe("");
+  });
+
+  it("metadata lines go through the same writer as the cells: names are quoted and formula-guarded", () => {
+    const hostile: ExportMeta = {
+      ...meta,
+      shortlist: { id: "sl-1", name: "=1+2" },
+      requirement: { ...meta.requirement, name: 'cell,=HYPERLINK("http://evil.test","x")' },
+      arms: [{ id: "arm-1", name: "@SUM(A1:A9)", revision: 1 }, { id: "arm-2", name: "+1,-2\r\n=3", revision: 2 }],
+    };
+    const text = toCsv(complianceTable(analysis), hostile);
+    // What a spreadsheet would see: no cell of any line starts a formula (numbers aside).
+    const cells = parseCsvRows(text).flat();
+    const formulas = cells.filter((c) => /^[=+\-@\t\r]/.test(c) && !/^-?\d+(\.\d+)?$/.test(c));
+    expect(formulas).toEqual([]);
+    // Every line starts a record whose first cell is "# …" or a header/row cell; the values survive.
+    const { meta: lines } = readCsvExport(text);
+    expect(lines).toContain("Shortlist: '=1+2 (sl-1)");
+    expect(lines).toContain(`Requirement set: cell,=HYPERLINK("http://evil.test","x") (req-1) revision 3`);
+    expect(lines).toContain("Arm: '@SUM(A1:A9) (arm-1) revision 1");
+    expect(lines).toContain("Arm: '+1,-2 =3 (arm-2) revision 2");
+    expect(text.split("\r\n").filter((l) => l.startsWith("# ")).length).toBe(lines.length);
   });
 
   it("compliance: one row per requirement and arm with the display value, unit and verdict word", () => {
@@ -139,7 +161,7 @@ describe("XLSX task matrix", () => {
   it("paths carry their smallest dexterity margin; an arm that was not analysed says so", async () => {
     const req = loadSeedRequirementSets().find((r) => r.name.startsWith("Deburring"))!;
     const arms = loadSeedArms();
-    const broken = { ...arms[0], name: "Broken model", joints: arms[0].joints.map((j, i) => (i === 0 ? { ...j, type: "bogus" as never } : j)) };
+    const broken = { ...arms[0], name: "Broken model", joints: arms[0].joints.map((j, i) => (i === 0 ? { ...j, type: "bogus" as never } : j)) } as ArmDocument;
     const small = { ...analysis.budget, workspace: { ...analysis.budget.workspace, samples: 300 } };
     const deburr = analyzeShortlist([{ id: "a", revision: 1, arm: arms[1] }, { id: "b", revision: 2, arm: broken }], req, { budget: small });
     const rows = sheetRecords((await readXlsx(await toXlsx([taskMatrixTable(deburr)], meta)))["Task matrix"]);

@@ -24,12 +24,16 @@ export function parseCsvRows(text: string): string[][] {
   return rows;
 }
 
-/** A CSV export split into its `#` metadata lines, header and rows (as objects by column name). */
+/**
+ * A CSV export split into its metadata, header and rows (as objects by column name). Metadata are
+ * the records whose first cell starts with "# ": the title alone, then `# key` and the value,
+ * returned as "key: value".
+ */
 export function readCsvExport(text: string): { meta: string[]; columns: string[]; records: Record<string, string>[] } {
-  const lines = text.replace(/^\uFEFF/, "").split(/\r\n/);
-  const meta = lines.filter((l) => l.startsWith("# ")).map((l) => l.slice(2));
-  const body = lines.filter((l) => !l.startsWith("# ")).join("\r\n");
-  const [columns, ...rows] = parseCsvRows(body);
+  const all = parseCsvRows(text.replace(/^\uFEFF/, ""));
+  const isMeta = (r: string[]) => r[0].startsWith("# ");
+  const meta = all.filter(isMeta).map((r) => (r.length > 1 ? `${r[0].slice(2)}: ${r.slice(1).join(",")}` : r[0].slice(2)));
+  const [columns, ...rows] = all.filter((r) => !isMeta(r));
   return { meta, columns, records: rows.map((r) => Object.fromEntries(columns.map((c, i) => [c, r[i]]))) };
 }
 

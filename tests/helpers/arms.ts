@@ -2,11 +2,11 @@
  * Invented arms for tests and benchmarks: a seeded random-arm generator and a few hand-checkable
  * arms. All values are invented; none describes a real product.
  */
-import type { ArmKinematics } from "@/lib/kinematics";
+import type { DhArmKinematics } from "@/lib/kinematics";
 import { mat4FromPositionRpy } from "@/lib/kinematics";
 import { pick, uniform, type Rng } from "./rng";
 
-type Joint = ArmKinematics["joints"][number];
+type Joint = DhArmKinematics["joints"][number];
 const DEG = Math.PI / 180;
 
 export interface RandomArmOptions {
@@ -33,7 +33,7 @@ export function randomTransform(rng: Rng, reach: number): number[] {
  * {0, ±90°, 180°} with some arbitrary ones, revolute limits ±(90..180)°, prismatic ranges 0 to
  * 0.1–0.3 m.
  */
-export function randomArm(rng: Rng, options: RandomArmOptions): ArmKinematics {
+export function randomArm(rng: Rng, options: RandomArmOptions): DhArmKinematics {
   const pp = options.prismaticProbability ?? 0.15;
   const joints: Joint[] = [];
   for (let i = 0; i < options.n; i++) {
@@ -50,7 +50,7 @@ export function randomArm(rng: Rng, options: RandomArmOptions): ArmKinematics {
       joints.push({ type: "revolute", a, alpha, d, theta, min: lo, max: hi });
     }
   }
-  const arm: ArmKinematics = { name: `random-${options.convention}-${options.n}`, convention: options.convention, joints };
+  const arm: DhArmKinematics = { name: `random-${options.convention}-${options.n}`, convention: options.convention, joints };
   if (options.baseAndTool ?? true) {
     arm.base = randomTransform(rng, 0.3);
     arm.tool = randomTransform(rng, 0.15);
@@ -59,7 +59,7 @@ export function randomArm(rng: Rng, options: RandomArmOptions): ArmKinematics {
 }
 
 /** Planar arm with revolute joints and link lengths `l` (m), standard DH, z out of the plane. */
-export function planarArm(l: readonly number[], limit = Math.PI): ArmKinematics {
+export function planarArm(l: readonly number[], limit = Math.PI): DhArmKinematics {
   return {
     name: `planar-${l.length}R`,
     convention: "dh",
@@ -71,7 +71,7 @@ export function planarArm(l: readonly number[], limit = Math.PI): ArmKinematics 
  * Invented 6R arm with a spherical wrist (axes 4, 5, 6 meet in one point), standard DH, limits of
  * a typical shoulder-elbow-wrist layout. Values invented for this project.
  */
-export const SPHERICAL_WRIST_6R: ArmKinematics = {
+export const SPHERICAL_WRIST_6R: DhArmKinematics = {
   name: "invented 6R spherical wrist",
   convention: "dh",
   joints: [

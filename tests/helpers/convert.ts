@@ -4,10 +4,10 @@
  * Tx(aₙ)Rx(αₙ) (Rx and Tx commute); the last factor joins the tool. Craig, "Introduction to
  * Robotics", §3.4 (the two conventions), common practice.
  */
-import type { ArmKinematics } from "@/lib/kinematics";
+import type { DhArmKinematics } from "@/lib/kinematics";
 import { mat4MulRigid } from "@/lib/kinematics";
 
-export function dhToMdh(arm: ArmKinematics): ArmKinematics {
+export function dhToMdh(arm: DhArmKinematics): DhArmKinematics {
   if (arm.convention !== "dh") throw new Error("expects a dh arm");
   const n = arm.joints.length;
   const joints = arm.joints.map((j, i) => ({

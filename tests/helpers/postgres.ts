@@ -61,8 +61,8 @@ export function migrationsHash(): string {
   return h.digest("hex").slice(0, 8);
 }
 
-/** Templates of this checkout share a prefix (several checkouts may share one server). */
-const templatePrefix = (): string => `armsift_tmpl_${short(root)}_`;
+/** Templates of this checkout and role share a prefix (several checkouts may share one server). */
+const templatePrefix = (): string => `armsift_tmpl_${short(`${root}\n${new URL(adminUrl()).username}`)}_`;
 export const templateName = (): string => templatePrefix() + migrationsHash();
 
 /** Runs SQL statements on the admin connection from a child process (keeps helpers synchronous). */

@@ -257,3 +257,55 @@ describe("solveIk: degenerate cases", () => {
     expect(() => solveIk(model, data, translation(NaN, 0, 0))).toThrow(/target\.3/);
   });
 });
+
+describe("solveIk: structured cause of the outcome", () => {
+  // Planar 2R (l1 = 0.4 m, l2 = 0.2 m): the reachable set is the annulus 0.2 m ≤ r ≤ 0.6 m
+  // (Craig ch. 4, planar 2R workspace), so its failures have closed-form causes.
+  const model = createModel(planarArm([0.4, 0.2], 3.5));
+  const data = createData(model);
+
+  it("reached targets say so", () => {
+    const r = solveIk(model, data, translation(0.45, 0.2, 0), { mode: "point" });
+    expect(r.status).toBe("reached");
+    expect(r.cause).toBe("reached");
+    expect(solveIkMulti(model, data, translation(0.45, 0.2, 0), { mode: "point" }).every((s) => s.cause === "reached")).toBe(true);
+  });
+
+  it("beyond the largest possible reach (r > l1 + l2): beyond-reach, from either search, without restarts", () => {
+    const target = translation(0.7, 0.1, 0);
+    const one = solveIk(model, data, target, { mode: "point" });
+    expect(one.cause).toBe("beyond-reach");
+    const multi = solveIkMulti(model, data, target, { mode: "point", maxRestarts: 50 });
+    expect(multi).toHaveLength(1);
+    expect(multi[0].cause).toBe("beyond-reach");
+    expect(multi[0].restarts).toBe(0);
+    // The nearest miss is the stretched arm: error = r − (l1 + l2).
+    expect(multi[0].positionError).toBeCloseTo(Math.hypot(0.7, 0.1) - 0.6, 5);
+  });
+
+  it("inside the inner hole (r < l1 − l2): the search stalls at the folded arm, a singularity", () => {
+    const r = solveIkMulti(model, data, translation(0.08, 0.03, 0), { mode: "point", maxRestarts: 20 })[0];
+    expect(r.status).toBe("not-reached");
+    expect(r.cause).toBe("singularity");
+    // Folded: |q2| = π and the nearest miss is (l1 − l2) − r.
+    expect(Math.abs(Math.abs(r.q[1]) - Math.PI)).toBeLessThan(1e-2);
+    expect(r.positionError).toBeCloseTo(0.2 - Math.hypot(0.08, 0.03), 4);
+  });
+
+  it("a pose excluded by a joint limit: joint-limit", () => {
+    // Joint 2 limited to [0, 0.5] rad; the target needs cos q2 = (r² − l1² − l2²)/(2 l1 l2) with q2 ≈ 1.6 rad.
+    const limited = createModel({ ...planarArm([0.4, 0.2], 3.5), joints: planarArm([0.4, 0.2], 3.5).joints.map((j, i) => (i === 1 ? { ...j, min: 0, max: 0.5 } : j)) });
+    const d = createData(limited);
+    const r = solveIkMulti(limited, d, translation(0.3, 0.3, 0), { mode: "point", maxRestarts: 20 })[0];
+    expect(r.status).toBe("not-reached");
+    expect(r.cause).toBe("joint-limit");
+    expect(r.q[1]).toBeGreaterThan(0.5 - 0.01 * 0.5); // at the upper limit, within 1 % of the range
+    expect(r.reason).toMatch(/joint 2 at a limit/);
+  });
+
+  it("a reachable target with too small a budget: budget", () => {
+    const r = solveIk(model, data, translation(-0.3, 0.35, 0), { mode: "point", maxRestarts: 0, maxIterations: 1 });
+    expect(r.status).toBe("not-reached");
+    expect(r.cause).toBe("budget");
+  });
+});

@@ -1,6 +1,4 @@
-export const dynamic = "force-dynamic";
+import { health } from "@/lib/http/handlers/health";
 
-/** Liveness check: the server answers. */
-export function GET(): Response {
-  return Response.json({ ok: true }, { headers: { "cache-control": "no-store" } });
-}
+export const dynamic = "force-dynamic";
+export const GET = health;

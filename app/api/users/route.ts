@@ -1,4 +1,4 @@
-import { usersList } from "@/lib/http/auth-routes";
+import { usersList } from "@/lib/http/handlers/auth";
 
 export const dynamic = "force-dynamic";
 export const GET = usersList;

@@ -3,10 +3,11 @@ import { headers } from "next/headers";
 import { notFound } from "next/navigation";
 import { can } from "@/lib/auth/permissions";
 import { clientAddress, shareTokenFailures, shareTokenRequests } from "@/lib/auth/rate-limit";
-import { resolveShareToken } from "@/lib/db/shares";
-import { shortlistForGuest } from "@/lib/db/share-view";
+import { resolveShareToken } from "@/lib/db";
+import { shortlistForGuest } from "@/lib/views/share-view";
 import { CAUTION } from "@/lib/analysis/shortlist";
-import { DiscussionPanel, type AnchorOption } from "@/components/discussion/DiscussionPanel";
+import { anchorOptions } from "@/lib/views/anchors";
+import { DiscussionPanel } from "@/components/discussion/DiscussionPanel";
 import { GuestResult } from "@/components/share/GuestResult";
 import "@/components/discussion/discussion.css";
 
@@ -32,15 +33,12 @@ export default async function SharePage({ params }: { params: Promise<{ token: s
   const view = await shortlistForGuest(guest);
   if (!view) notFound();
 
-  const anchors: AnchorOption[] = [
-    { type: "shortlist", id: null, label: "the whole shortlist" },
-    ...view.shortlist.arms.map((a): AnchorOption => ({ type: "arm", id: a.id, label: `arm: ${a.name}` })),
-    ...(view.analysis?.targets ?? []).map((t): AnchorOption => ({ type: "target", id: t.name, label: `target: ${t.name}` })),
-    ...(view.analysis?.paths ?? []).map((p): AnchorOption => ({ type: "path", id: p.name, label: `path: ${p.name}` })),
-    ...view.shortlist.arms.flatMap((a) =>
-      (view.analysis?.compliance ?? []).map((c): AnchorOption => ({ type: "compliance", id: `${a.id}#${c.index}`, label: `compliance: ${a.name} / ${c.label}` })),
-    ),
-  ];
+  const anchors = anchorOptions({
+    arms: view.shortlist.arms,
+    targets: (view.analysis?.targets ?? []).map((t) => t.name),
+    paths: (view.analysis?.paths ?? []).map((p) => p.name),
+    compliance: view.analysis?.compliance ?? [],
+  });
 
   return (
     <div className="share-view">

@@ -2,7 +2,9 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { CAUTION } from "@/lib/analysis/shortlist";
-import { getRunResult, getShortlist, listRuns, type Pins, type RunInfo } from "@/lib/db/shortlists";
+import { getShortlistPage, type Pins, type RunInfo } from "@/lib/db";
+import { anchorOptions } from "@/lib/views/anchors";
+import { SPEC_FIELDS } from "@/shared/schemas/requirements";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { ResultView } from "@/components/shortlist/ResultView";
 import { RunProgress } from "@/components/shortlist/RunProgress";
@@ -27,15 +29,13 @@ export default async function ShortlistPage({ params, searchParams }: { params: 
   const { id } = await params;
   const sp = await searchParams;
   const user = await requireUser(`/shortlists/${id}`);
-  const sl = await getShortlist(id);
-  if (!sl) notFound();
-  const runs = await listRuns(id);
+  const wanted = typeof sp.run === "string" ? sp.run : undefined;
+  const data = await getShortlistPage(id, { run: wanted });
+  if (!data) notFound();
+  const { shortlist: sl, runs, shown, analysis, pinned } = data;
   const canWrite = allowed(user, "shortlist:write");
   const canSaveWeights = allowed(user, "req:write");
-  const wanted = typeof sp.run === "string" ? sp.run : undefined;
   const latest = runs[0] ?? null;
-  const shown = wanted ? runs.find((r) => r.id === wanted) ?? null : runs.find((r) => r.status === "done") ?? null;
-  const analysis = shown && shown.status === "done" ? await getRunResult(shown.id) : null;
   const currentPins: Pins = { requirement: { setId: sl.requirement.setId, revision: sl.requirement.revision }, arms: sl.arms.map((a) => ({ armId: a.armId, revision: a.revision })) };
   const shownIsLatest = !!shown && shown.id === latest?.id;
   const shownFresh = shownIsLatest && samePins(shown.pins, currentPins) && sl.stale.length === 0;
@@ -159,7 +159,11 @@ export default async function ShortlistPage({ params, searchParams }: { params: 
           </ol>
         </section>
       )}
-      <ShortlistCollaboration shortlistId={id} user={user} />
+      <ShortlistCollaboration
+        shortlistId={id}
+        user={user}
+        anchors={anchorOptions({ ...pinned, compliance: pinned.specs.map((s, index) => ({ index, label: SPEC_FIELDS[s.field].label })) })}
+      />
       <p className="caution">{CAUTION}</p>
     </>
   );

@@ -1,4 +1,4 @@
-import { armRoutes as r } from "@/lib/http/api-stores";
+import { armRoutes as r } from "@/lib/http/handlers/stores";
 
 export const dynamic = "force-dynamic";
 export const GET = r.get;

@@ -1,4 +1,4 @@
-import { me } from "@/lib/http/auth-routes";
+import { me } from "@/lib/http/handlers/auth";
 
 export const dynamic = "force-dynamic";
 export const GET = me;

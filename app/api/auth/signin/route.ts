@@ -1,4 +1,4 @@
-import { signIn } from "@/lib/http/auth-routes";
+import { signIn } from "@/lib/http/handlers/auth";
 
 export const dynamic = "force-dynamic";
 export const POST = signIn;

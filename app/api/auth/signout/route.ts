@@ -1,4 +1,4 @@
-import { signOut } from "@/lib/http/auth-routes";
+import { signOut } from "@/lib/http/handlers/auth";
 
 export const dynamic = "force-dynamic";
 export const POST = signOut;

@@ -1,4 +1,4 @@
-import { signUp } from "@/lib/http/auth-routes";
+import { signUp } from "@/lib/http/handlers/auth";
 
 export const dynamic = "force-dynamic";
 export const POST = signUp;

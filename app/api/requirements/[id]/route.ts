@@ -1,4 +1,4 @@
-import { requirementRoutes as r } from "@/lib/http/api-stores";
+import { requirementRoutes as r } from "@/lib/http/handlers/stores";
 
 export const dynamic = "force-dynamic";
 export const GET = r.get;

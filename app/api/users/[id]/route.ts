@@ -1,4 +1,4 @@
-import { userUpdate } from "@/lib/http/auth-routes";
+import { userUpdate } from "@/lib/http/handlers/auth";
 
 export const dynamic = "force-dynamic";
 export const PATCH = userUpdate;

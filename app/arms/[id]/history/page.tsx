@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { getArm, listArmRevisions } from "@/lib/db";
+import { getArmHistory } from "@/lib/db";
 import { requireUser } from "@/app/_lib/session";
 import { RevisionList } from "@/components/RevisionList";
 
@@ -11,8 +11,9 @@ export const metadata: Metadata = { title: "Arm history" };
 export default async function ArmHistoryPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   await requireUser(`/arms/${id}/history`);
-  const [rec, revisions] = await Promise.all([getArm(id), listArmRevisions(id)]);
-  if (!rec || !revisions) notFound();
+  const history = await getArmHistory(id);
+  if (!history) notFound();
+  const { record: rec, revisions } = history;
   return (
     <>
       <div className="page-head">

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { getRequirementSet, listRequirementRevisions } from "@/lib/db";
+import { getRequirementHistory } from "@/lib/db";
 import { requireUser } from "@/app/_lib/session";
 import { RevisionList } from "@/components/RevisionList";
 
@@ -11,8 +11,9 @@ export const metadata: Metadata = { title: "Requirement-set history" };
 export default async function RequirementHistoryPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   await requireUser(`/requirements/${id}/history`);
-  const [rec, revisions] = await Promise.all([getRequirementSet(id), listRequirementRevisions(id)]);
-  if (!rec || !revisions) notFound();
+  const history = await getRequirementHistory(id);
+  if (!history) notFound();
+  const { record: rec, revisions } = history;
   return (
     <>
       <div className="page-head">

@@ -1,4 +1,4 @@
-import * as r from "@/app/api/share/_lib/routes";
+import * as r from "@/lib/http/handlers/discussion";
 
 export const dynamic = "force-dynamic";
 export const POST = r.resolveThread;

@@ -7,10 +7,10 @@ import { clientAddress, commentPosts, shareTokenFailures, shareTokenRequests } f
 import {
   createComment, deleteComment, editComment, getCommentOwner, listCommentRevisions, listCommentThreads, markDiscussionRead,
   mentionableMembers, setCommentResolved, threadForGuest, unreadCounts, type CommentOwner,
-} from "@/lib/db/comments";
-import { createShareLink, getShareLink, listShareLinks, resolveShareToken, revokeShareLink } from "@/lib/db/shares";
-import { shortlistForGuest } from "@/lib/db/share-view";
-import { getShortlist } from "@/lib/db/shortlists";
+} from "@/lib/db";
+import { createShareLink, getShareLink, listShareLinks, resolveShareToken, revokeShareLink } from "@/lib/db";
+import { shortlistForGuest } from "@/lib/views/share-view";
+import { getShortlist } from "@/lib/db";
 import { ApiError, forbidden, notFound } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { json, parseWith, requireUser, route } from "@/lib/http/route";

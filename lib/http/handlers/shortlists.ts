@@ -2,7 +2,7 @@ import { z } from "zod";
 import { weightsSchema, type Weights } from "@/shared/schemas/requirements";
 import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
-import { getRun, getRunResult, getShortlist, listRuns, listShortlists, type RunInfo } from "@/lib/db/shortlists";
+import { getRun, getRunResult, getShortlist, listRuns, listShortlists, type RunInfo } from "@/lib/db";
 import { cancelRun, createShortlistWithRun, repinAndRun, requestRun } from "@/lib/jobs/runs";
 import { complianceTable, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
 import { badRequest, notFound } from "@/lib/http/errors";

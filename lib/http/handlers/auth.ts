@@ -3,16 +3,17 @@ import { dummyPasswordHash, hashPassword, verifyPassword } from "@/lib/auth/pass
 import { clientAddress, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
 import { clearedSessionCookie, createSession, endRequestSession, getRequestUser, isHttps, sessionCookie } from "@/lib/auth/session";
 import type { SessionUser } from "@/lib/auth/permissions";
-import { createUser, findUserForSignIn, listUsers, normalizeEmail, ROLES, setUserRole } from "@/lib/db/users";
-import { ApiError, unauthenticated } from "./errors";
-import { readJsonObject } from "./body";
-import { json, parseWith, requireUser, route, type RouteContext } from "./route";
+import { createUser, findUserForSignIn, listUsers, normalizeEmail, setUserRole } from "@/lib/db";
+import { nameText, ROLES } from "@/shared/schemas";
+import { ApiError, unauthenticated } from "@/lib/http/errors";
+import { readJsonObject } from "@/lib/http/body";
+import { json, parseWith, requireUser, route, type RouteContext } from "@/lib/http/route";
 
 const publicUser = (u: SessionUser) => ({ id: u.id, email: u.email, name: u.name, role: u.role });
 
 const signUpBody = z.object({
   email: z.email({ error: "must be an email address" }).max(254, "must be at most 254 characters"),
-  name: z.string({ error: "must be text" }).trim().min(1, "must not be empty").max(80, "must be at most 80 characters"),
+  name: nameText(80),
   password: z.string({ error: "must be text" }).min(10, "must be at least 10 characters").max(1024, "must be at most 1024 characters"),
 });
 

@@ -1,9 +1,9 @@
 import { z } from "zod";
 import type { Action } from "@/lib/auth/permissions";
-import type { DeletedFilter } from "@/lib/db/documents";
-import { notFound } from "./errors";
-import { readJsonObject } from "./body";
-import { json, parseWith, requireUser, route } from "./route";
+import type { DeletedFilter } from "@/lib/db";
+import { notFound } from "@/lib/http/errors";
+import { readJsonObject } from "@/lib/http/body";
+import { json, parseWith, requireUser, route } from "@/lib/http/route";
 
 /** What the generic document endpoints need from one kind of revisioned document. */
 export interface DocumentStore<D> {

@@ -6,10 +6,11 @@
  * left out, and the ranking is recomputed without the price weight, so no figure or order derived
  * from a price reaches the guest.
  */
+import "server-only";
 import { can, type LinkGuest } from "@/lib/auth/permissions";
 import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { Verdict } from "@/lib/analysis/types";
-import { getPins, getRunResult, getShortlist, listRuns, loadPinnedInputs } from "./shortlists";
+import { getSharedShortlist } from "@/lib/db";
 
 const COMPARATOR: Record<string, string> = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" };
 
@@ -51,9 +52,10 @@ export function guestVisibility(guest: LinkGuest): GuestVisibility {
 
 /** The guest's view of the link's shortlist, or null when it is gone. */
 export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlistView | null> {
-  const s = await getShortlist(guest.shortlistId);
-  if (!s) return null;
-  const prices = can(guest, "price:read", { shortlistId: s.id });
+  const prices = can(guest, "price:read", { shortlistId: guest.shortlistId });
+  const data = await getSharedShortlist(guest.shortlistId, { prices });
+  if (!data) return null;
+  const { shortlist: s, run, result } = data;
   const view: GuestShortlistView = {
     shortlist: {
       name: s.name,
@@ -65,15 +67,11 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
     analysis: null,
   };
   if (prices) {
-    const pins = await getPins(s.id);
-    const docs = pins ? (await loadPinnedInputs(pins)).arms : [];
     for (const a of view.shortlist.arms) {
-      const sp = docs.find((d) => d.id === a.id)?.arm.specs;
+      const sp = data.specs.get(a.id);
       if (sp?.price !== undefined && sp.price !== null) a.price = `${sp.price.toLocaleString("en-GB")}${sp.currency ? ` ${sp.currency}` : ""}`;
     }
   }
-  const run = (await listRuns(s.id)).find((r) => r.status === "done");
-  const result = run ? await getRunResult(run.id) : null;
   if (!run || !result) return view;
   view.caution = result.caution;
   const names = new Map(result.arms.map((a) => [a.id, a.name]));

@@ -1,7 +1,6 @@
 import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
-import * as arms from "@/lib/db/arms";
-import * as reqs from "@/lib/db/requirements";
-import { documentRoutes, type DocumentStore } from "./document-routes";
+import * as data from "@/lib/db";
+import { documentRoutes, type DocumentStore } from "./documents";
 
 type StoreRecord<D> = NonNullable<Awaited<ReturnType<DocumentStore<D>["get"]>>>;
 type StoreRevision<D> = NonNullable<Awaited<ReturnType<DocumentStore<D>["revision"]>>>;
@@ -56,14 +55,14 @@ export const armRoutes = documentRoutes<ArmDocument>(
   keyedStore<ArmDocument, "arm">(
     { key: "arm", noun: "arm", read: "arm:read", write: "arm:write", schema: armSchema },
     {
-      list: (opts) => arms.listArms(opts),
-      get: arms.getArm,
-      create: arms.createArm,
-      update: arms.updateArm,
-      softDelete: arms.softDeleteArm,
-      restore: arms.restoreArm,
-      revisions: arms.listArmRevisions,
-      revision: arms.getArmRevision,
+      list: (opts) => data.listArms(opts),
+      get: data.getArm,
+      create: data.createArm,
+      update: data.updateArm,
+      softDelete: data.softDeleteArm,
+      restore: data.restoreArm,
+      revisions: data.listArmRevisions,
+      revision: data.getArmRevision,
     },
   ),
 );
@@ -73,14 +72,14 @@ export const requirementRoutes = documentRoutes<RequirementSet>(
   keyedStore<RequirementSet, "requirementSet">(
     { key: "requirementSet", noun: "requirement set", read: "req:read", write: "req:write", schema: requirementSetSchema },
     {
-      list: (opts) => reqs.listRequirementSets(opts),
-      get: reqs.getRequirementSet,
-      create: reqs.createRequirementSet,
-      update: reqs.updateRequirementSet,
-      softDelete: reqs.softDeleteRequirementSet,
-      restore: reqs.restoreRequirementSet,
-      revisions: reqs.listRequirementRevisions,
-      revision: reqs.getRequirementRevision,
+      list: (opts) => data.listRequirementSets(opts),
+      get: data.getRequirementSet,
+      create: data.createRequirementSet,
+      update: data.updateRequirementSet,
+      softDelete: data.softDeleteRequirementSet,
+      restore: data.restoreRequirementSet,
+      revisions: data.listRequirementRevisions,
+      revision: data.getRequirementRevision,
     },
   ),
 );

@@ -1,0 +1,104 @@
+// Golden output of the analysis. Finished runs are reused by their content key, which holds
+// ANALYSIS_VERSION (lib/analysis/key.ts): when the output changes and the version does not, stored
+// results go stale without anyone noticing. This test fixes one input, hashes the whole analysis
+// output (sha-256 of its canonical JSON) and compares the hash with the one recorded for the
+// current version.
+//
+// When this fails because you changed the analysis on purpose: bump ANALYSIS_VERSION in
+// lib/analysis/shortlist.ts and add a line for the new version below with the new hash (keep the
+// old lines).
+import { createHash } from "node:crypto";
+import { describe, expect, it } from "vitest";
+import { analyzeShortlist, ANALYSIS_VERSION, canonicalJson, DEFAULT_BUDGET, type ShortlistArm } from "@/lib/analysis";
+import { armSchema } from "@/shared/schemas/arm";
+import { requirementSetSchema } from "@/shared/schemas/requirements";
+
+/** sha-256 of the canonical analysis output of the fixed input, per analysis version. */
+const GOLDEN: Record<string, string> = {
+  "analysis-1.2.0": "828391cba09cbdd3adcb8b332a2dccbece2d4e02573fda67d55e64f96fac9e99",
+  // 1.3.0: workspace reach measured at the arm's own tool point (these arms have none: only the version differs).
+  "analysis-1.3.0": "e749a50e8aef53352ade3f415d84e659f6cf1f698949c5a7b56d292a2c2ce7d8",
+  // 1.4.0: axis targets' orientation factor over the constrained rotations; copies 2π apart; exact path speed.
+  "analysis-1.4.0": "e591875b762a4a6831e0be49f721508e01f81602b2a29eac4be63b271a479e17",
+};
+
+const DEG = Math.PI / 180;
+const I4 = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+// Invented arms and cell (no real product): a 6-axis arm with a spherical wrist and torque limits,
+// a 7-axis redundant arm with a prismatic-free chain, and a 4-axis SCARA-like arm with a quill.
+const arms: ShortlistArm[] = [
+  {
+    id: "golden-six", revision: 2, arm: armSchema.parse({
+      name: "Golden Six", convention: "dh",
+      joints: [
+        { type: "revolute", a: 0.12, alpha: -90 * DEG, d: 0.38, theta: 0, min: -170 * DEG, max: 170 * DEG, maxSpeed: 3.0, maxTorque: 320, mass: 9, com: [0, 0.05, 0] },
+        { type: "revolute", a: 0.42, alpha: 0, d: 0, theta: -90 * DEG, min: -120 * DEG, max: 140 * DEG, maxSpeed: 3.0, maxTorque: 320, mass: 7, com: [-0.2, 0, 0.05] },
+        { type: "revolute", a: 0.06, alpha: -90 * DEG, d: 0, theta: 0, min: -150 * DEG, max: 160 * DEG, maxSpeed: 3.4, maxTorque: 150, mass: 4, com: [0, 0, 0.04] },
+        { type: "revolute", a: 0, alpha: 90 * DEG, d: 0.44, theta: 0, min: -180 * DEG, max: 180 * DEG, maxSpeed: 5.0, maxTorque: 40, mass: 2, com: [0, -0.08, 0] },
+        { type: "revolute", a: 0, alpha: -90 * DEG, d: 0, theta: 0, min: -125 * DEG, max: 125 * DEG, maxSpeed: 5.0, maxTorque: 40, mass: 1, com: [0, 0, 0] },
+        { type: "revolute", a: 0, alpha: 0, d: 0.09, theta: 0, min: -350 * DEG, max: 350 * DEG, maxSpeed: 7.0, maxTorque: 20, mass: 0.3, com: [0, 0, -0.02] },
+      ],
+      specs: { ratedPayload: 6, reach: 0.95, price: 24000, currency: "EUR", wristAllowables: [{ joint: 5, moment: 12, inertia: 0.3 }, { joint: 6, moment: 7 }] },
+    }),
+  },
+  {
+    id: "golden-seven", revision: 1, arm: armSchema.parse({
+      name: "Golden Seven", convention: "dh",
+      joints: [
+        { type: "revolute", a: 0, alpha: -90 * DEG, d: 0.34, theta: 0, min: -170 * DEG, max: 170 * DEG, maxSpeed: 2.0 },
+        { type: "revolute", a: 0, alpha: 90 * DEG, d: 0, theta: 0, min: -120 * DEG, max: 120 * DEG, maxSpeed: 2.0 },
+        { type: "revolute", a: 0, alpha: 90 * DEG, d: 0.4, theta: 0, min: -170 * DEG, max: 170 * DEG, maxSpeed: 2.3 },
+        { type: "revolute", a: 0, alpha: -90 * DEG, d: 0, theta: 0, min: -120 * DEG, max: 120 * DEG, maxSpeed: 2.3 },
+        { type: "revolute", a: 0, alpha: -90 * DEG, d: 0.4, theta: 0, min: -170 * DEG, max: 170 * DEG, maxSpeed: 2.6 },
+        { type: "revolute", a: 0, alpha: 90 * DEG, d: 0, theta: 0, min: -120 * DEG, max: 120 * DEG, maxSpeed: 3.1 },
+        { type: "revolute", a: 0, alpha: 0, d: 0.126, theta: 0, min: -350 * DEG, max: 350 * DEG, maxSpeed: 3.1 },
+      ],
+      specs: { ratedPayload: 7, price: 39000, currency: "EUR" },
+    }),
+  },
+  {
+    id: "golden-quill", revision: 1, arm: armSchema.parse({
+      name: "Golden Quill", convention: "dh",
+      joints: [
+        { type: "revolute", a: 0.3, alpha: 0, d: 0.4, theta: 0, min: -150 * DEG, max: 150 * DEG, maxSpeed: 6 },
+        { type: "revolute", a: 0.25, alpha: 180 * DEG, d: 0, theta: 0, min: -145 * DEG, max: 145 * DEG, maxSpeed: 6 },
+        { type: "prismatic", a: 0, alpha: 0, d: 0, theta: 0, min: 0, max: 0.2, maxSpeed: 1.1 },
+        { type: "revolute", a: 0, alpha: 0, d: 0, theta: 0, min: -360 * DEG, max: 360 * DEG, maxSpeed: 20 },
+      ],
+      specs: { ratedPayload: 3, price: 11000, currency: "EUR" },
+    }),
+  },
+];
+const req = requirementSetSchema.parse({
+  name: "golden cell", base: I4,
+  tool: { tcp: [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0.08, 0, 0, 0, 1], mass: 0.7, cog: [0.01, 0, 0.04], inertia: [0.001, 0.0012, 0.0006] },
+  payload: { mass: 1.1, cog: [0, 0.01, 0.03], inertia: [0.0008, 0.0008, 0.0004] },
+  targets: [
+    { name: "pick down", position: [0.45, 0.1, 0.12], rpy: [Math.PI, 0, 0.3], mode: "pose" },
+    { name: "screw axis", position: [0.35, -0.3, 0.2], rpy: [Math.PI, 0, 0], mode: "axis", force: [0, 0, -40] },
+    { name: "tilted", position: [0.5, -0.1, 0.35], rpy: [2.5, -0.5, 0.9], mode: "pose", moment: [0, 0, 1.5] },
+    { name: "high point", position: [0.2, 0.3, 0.75], rpy: [0, 0, 0], mode: "point" },
+    { name: "far away", position: [2.5, 0, 0.4], rpy: [0, 0, 0], mode: "point" },
+  ],
+  paths: [
+    { name: "seam", mode: "axis", step: 0.02, speed: 0.3, waypoints: [{ position: [0.4, -0.2, 0.15], rpy: [Math.PI, 0, 0] }, { position: [0.45, 0.15, 0.15], rpy: [Math.PI, 0, 0] }, { position: [0.45, 0.15, 0.15], rpy: [Math.PI, 0, 1.2] }] },
+    { name: "lift", mode: "point", step: 0.03, speed: 0.5, waypoints: [{ position: [0.3, 0.2, 0.1], rpy: [0, 0, 0] }, { position: [0.3, 0.2, 0.5], rpy: [0, 0, 0] }] },
+  ],
+  specs: [
+    { field: "ratedPayload", comparator: "atLeast", value: 4, priority: "must" },
+    { field: "reach", comparator: "atLeast", value: 0.8, priority: "want" },
+  ],
+});
+const budget = { ...DEFAULT_BUDGET, workspace: { ...DEFAULT_BUDGET.workspace, samples: 400 } };
+
+describe("golden analysis output", () => {
+  it("matches the hash recorded for the current ANALYSIS_VERSION", () => {
+    const out = analyzeShortlist(arms, req, { budget });
+    const hash = createHash("sha256").update(canonicalJson(out), "utf8").digest("hex");
+    const recorded = GOLDEN[ANALYSIS_VERSION];
+    expect(recorded, `no golden hash recorded for ${ANALYSIS_VERSION}: add "${ANALYSIS_VERSION}": "${hash}" to GOLDEN in tests/analysis/golden.test.ts`).toBeTruthy();
+    expect(hash, `The analysis output changed but ANALYSIS_VERSION (${ANALYSIS_VERSION}) did not: stored results would be served stale. ` +
+      `If the change is on purpose, bump ANALYSIS_VERSION in lib/analysis/shortlist.ts and record "<new version>": "${hash}" in GOLDEN here; ` +
+      "if it is not, the change altered results by accident.").toBe(recorded);
+  });
+});
