@@ -39,8 +39,9 @@ const steps = [
   ["unit tests", bin("vitest"), vitest("unit")],
   ["database and API tests", bin("vitest"), vitest("db")],
   ["database and API tests on PostgreSQL", bin("vitest"), vitest("db-pg")],
-  ["queue tests on PostgreSQL (worker processes)", bin("vitest"), vitest("queue")],
   ["next build", "npm", ["run", "build"]],
+  // After the build: the queue project also restarts the built server during a run.
+  ["queue tests on PostgreSQL (worker processes)", bin("vitest"), vitest("queue")],
   ["browser tests", bin("vitest"), vitest("browser")],
 ];
 

@@ -60,16 +60,15 @@ export function RunProgress({ shortlistId, runId, initial, canCancel = false }: 
   return (
     <div className="panel run-progress" data-testid="run-progress" aria-live="polite">
       <h2>Analysis {run.status}</h2>
-      {run.status === "queued" ? (
+      {run.status === "queued" && (
         <p className="queue-place" data-testid="run-queue">
           Queued: {queueText(run.queuePosition)}. Analyses run a few at a time; this one starts when a place is free.
         </p>
-      ) : (
-        <div className="progress-row">
-          <progress max={1} value={run.progress} aria-label="Analysis progress" />
-          <span className="num">{pct} %</span>
-        </div>
       )}
+      <div className="progress-row">
+        <progress max={1} value={run.progress} aria-label="Analysis progress" />
+        <span className="num">{pct} %</span>
+      </div>
       <p className="sub" data-testid="run-stage">
         {run.stage ?? "waiting to start"}
       </p>

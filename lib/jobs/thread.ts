@@ -22,7 +22,7 @@ export function threadMemoryMb(env: NodeJS.ProcessEnv = process.env): number {
  */
 export function threadScript(env: NodeJS.ProcessEnv = process.env): string {
   if (env.ARMSIFT_ANALYSIS_THREAD) return env.ARMSIFT_ANALYSIS_THREAD;
-  return path.join(env.ARMSIFT_ROOT ?? process.cwd(), "dist", "jobs", "analysis-thread.mjs");
+  return path.join(/* turbopackIgnore: true */ env.ARMSIFT_ROOT ?? process.cwd(), "dist", "jobs", "analysis-thread.mjs");
 }
 
 export class AnalysisStopped extends Error {
@@ -45,14 +45,16 @@ export function analyseInThread(
   opts: { script?: string; memoryMb?: number } = {},
 ): ThreadRun {
   const script = opts.script ?? threadScript();
-  if (!existsSync(script)) {
+  if (!existsSync(/* turbopackIgnore: true */ script)) {
     return {
       result: Promise.reject(new Error(`the analysis program ${script} is missing (build it with npm run build)`)),
       stop() {},
     };
   }
   const memoryMb = opts.memoryMb ?? threadMemoryMb();
-  const worker = new Worker(script, { workerData: inputs, resourceLimits: { maxOldGenerationSizeMb: memoryMb }, stdout: false, stderr: false });
+  // Constructed through Reflect: the bundler of the web server would otherwise take the run-time
+  // path for a module to bundle (and try every file of the project).
+  const worker: Worker = Reflect.construct(Worker, [script, { workerData: inputs, resourceLimits: { maxOldGenerationSizeMb: memoryMb }, stdout: false, stderr: false }]);
   let stopped: string | null = null;
   const result = new Promise<ShortlistAnalysis>((resolve, reject) => {
     let settled = false;
