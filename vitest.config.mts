@@ -23,6 +23,8 @@ export default defineConfig({
           include: ["tests/**/*.test.ts"],
           exclude: ["tests/db/**", "tests/browser/**", "tests/api/**", "tests/security/**", "tests/load/**", "tests/queue/**"],
           environment: "node",
+          // The command-line tests start a process each; a loaded machine needs more than 5 s.
+          testTimeout: 30_000,
         },
       },
       {

@@ -3,8 +3,8 @@ import { useRouter } from "next/navigation";
 import { useId, useMemo, useState } from "react";
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Weights } from "@/shared/schemas/requirements";
-import { rankArms, SUB_SCORE_KEYS, type ArmScoreInput, type SubScore, type SubScoreKey } from "@/lib/analysis/ranking";
-import { SUB_SCORE_LABELS } from "@/lib/export/tables";
+import { rankArms, subScoreOf, type ArmScoreInput, type SubScore } from "@/lib/analysis/ranking";
+import { SUB_SCORES } from "@/shared/sub-scores";
 import { api } from "../api";
 import { fmtNum } from "./verdict";
 import { useMounted } from "./useMounted";
@@ -16,15 +16,9 @@ export interface RankingArm extends ArmScoreInput {
   summary: string;
 }
 
-/** Sub-score colours (a muted palette; every bar segment is also labelled in the table and legend). */
-export const SUB_SCORE_COLOURS: Record<SubScoreKey, string> = {
-  coverage: "#2f5d8a",
-  dexterity: "#6b8fb3",
-  payload: "#8a6d2f",
-  force: "#c2a36b",
-  pathSpeed: "#4f7a5a",
-  price: "#9aa5b1",
-};
+// Labels and colours of the sub-scores come from their table (shared/sub-scores.ts).
+const { keys: SUB_SCORE_KEYS, label: SUB_SCORE_LABELS, colour: SUB_SCORE_COLOURS } = SUB_SCORES;
+type SubScoreKey = (typeof SUB_SCORE_KEYS)[number];
 
 const WEIGHT_MAX = 10;
 
@@ -55,7 +49,7 @@ export function RankingPanel(props: {
   const changed = SUB_SCORE_KEYS.some((k) => weights[k] !== props.weights[k]);
   const byId = useMemo(() => new Map(props.arms.map((a) => [a.id, a])), [props.arms]);
   const ranking = useMemo(() => rankArms(props.arms, weights), [props.arms, weights]);
-  const applicable = (k: SubScoreKey) => props.arms.some((a) => a.subScores[k].applicable);
+  const applicable = (k: SubScoreKey) => props.arms.some((a) => subScoreOf(a.subScores, k).applicable);
   const qualified = ranking.filter((r) => !r.disqualified);
   const disqualified = ranking.filter((r) => r.disqualified);
   const chartData = qualified.map((r) => ({ name: `${r.rank}. ${byId.get(r.armId)!.name}`, ...Object.fromEntries(SUB_SCORE_KEYS.map((k) => [k, Number(r.contributions[k].toFixed(4))])) }));
@@ -175,8 +169,8 @@ export function RankingPanel(props: {
                     <strong>{fmtNum(r.score, 3)}</strong>
                   </td>
                   {SUB_SCORE_KEYS.map((k) => (
-                    <td className="num" key={k} title={a.subScores[k].note}>
-                      {subCell(a.subScores[k], r.contributions[k])}
+                    <td className="num" key={k} title={subScoreOf(a.subScores, k).note}>
+                      {subCell(subScoreOf(a.subScores, k), r.contributions[k])}
                     </td>
                   ))}
                 </tr>

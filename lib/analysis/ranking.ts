@@ -4,10 +4,11 @@
  * kinematics is recomputed).
  */
 import type { Weights } from "@/shared/schemas/requirements";
+import { SUB_SCORES, type SubScoreKey } from "@/shared/sub-scores";
 
-/** The sub-scores, in display order. */
-export const SUB_SCORE_KEYS = ["coverage", "dexterity", "payload", "force", "pathSpeed", "price"] as const;
-export type SubScoreKey = (typeof SUB_SCORE_KEYS)[number];
+export type { SubScoreKey };
+/** The sub-scores, in display order (the keys of the table in shared/sub-scores.ts). */
+export const SUB_SCORE_KEYS: readonly SubScoreKey[] = SUB_SCORES.keys;
 
 /** One bounded sub-score. */
 export interface SubScore {
@@ -17,6 +18,14 @@ export interface SubScore {
   applicable: boolean;
   /** How the value was obtained, in words (e.g. "price unknown: scored 0"). */
   note: string;
+}
+
+/**
+ * An arm's sub-score `k`. A result stored before the sub-score existed has none: it counts as
+ * not applicable (its weight is dropped) and says why, instead of failing the page or the export.
+ */
+export function subScoreOf(subScores: Partial<Record<SubScoreKey, SubScore>>, k: SubScoreKey): SubScore {
+  return subScores[k] ?? { value: 0, applicable: false, note: "not in this result (computed before this sub-score existed; run the analysis again)" };
 }
 
 /** What {@link rankArms} needs per arm. */
@@ -52,14 +61,15 @@ export interface RankedArm {
  * deterministic. Does not modify its inputs.
  */
 export function rankArms(arms: readonly ArmScoreInput[], weights: Weights): RankedArm[] {
+  const keys = SUB_SCORES.keys;
   const scored = arms.map((a) => {
     let total = 0;
-    for (const k of SUB_SCORE_KEYS) if (a.subScores[k].applicable) total += Math.max(0, weights[k] ?? 0);
+    for (const k of keys) if (subScoreOf(a.subScores, k).applicable) total += Math.max(0, weights[k] ?? 0);
     const contributions = {} as Record<SubScoreKey, number>;
     const used = {} as Record<SubScoreKey, number>;
     let score = 0;
-    for (const k of SUB_SCORE_KEYS) {
-      const s = a.subScores[k];
+    for (const k of keys) {
+      const s = subScoreOf(a.subScores, k);
       const w = s.applicable && total > 0 ? Math.max(0, weights[k] ?? 0) / total : 0;
       const v = Math.min(1, Math.max(0, Number.isFinite(s.value) ? s.value : 0));
       used[k] = w;

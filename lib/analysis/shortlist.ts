@@ -10,7 +10,9 @@ import { createArmContext, type ArmContext } from "./context";
 import type { StructuralRanks } from "./dexterity";
 import { DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
 import { analyzePath, DEFAULT_PATH_BUDGET, SPEED_MARGINAL_RATIO, type PathAnalysis, type PathBudget } from "./paths";
-import { rankArms, SUB_SCORE_KEYS, type ArmScoreInput, type RankedArm, type SubScore, type SubScoreKey } from "./ranking";
+import { SUB_SCORES } from "@/shared/sub-scores";
+import { rankArms, type ArmScoreInput, type RankedArm, type SubScore, type SubScoreKey } from "./ranking";
+import { SUB_SCORE_RULES, zeroScore } from "./sub-scores";
 import { checkSpec, IEC_60529_NOTE, type SpecResult } from "./spec";
 import { analyzeTarget, DEFAULT_TARGET_BUDGET, FORCE_MARGINAL_FRACTION, type TargetAnalysis, type TargetBudget } from "./targets";
 import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, type WorkspaceBudget } from "./workspace";
@@ -19,7 +21,7 @@ import type { Verdict } from "./types";
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
 export const ANALYSIS_VERSION = "analysis-1.4.0";
 
-/** Shown on every analysis page and export (RULES: the usual caution). */
+/** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
   "Armsift is a kinematic and static screening aid. It is not a substitute for the maker's data, a risk assessment (ISO 12100, ISO 10218-2), the collaborative-operation limits of ISO/TS 15066, or local codes and licensed engineering practice. Dynamics, deflection, collisions with the cell and cycle time are not analysed.";
 
@@ -91,7 +93,7 @@ export interface ShortlistAnalysis {
   version: string;
   caution: string;
   requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[] };
-  /** Weights the ranking used (from the requirement set); re-rank with rankArms(arms, weights). */
+  /** Weights the ranking used (from the requirement set); re-rank with rerank(result, weights). */
   weights: Weights;
   arms: ArmAnalysis[];
   /** Best first (qualified arms, then disqualified ones). */
@@ -139,6 +141,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     opts.onProgress?.(done === total ? 1 : done / total, stage);
   };
 
+  const candidates = arms.map((a) => a.arm);
   const results: ArmAnalysis[] = arms.map((entry, ai) => {
     const arm = entry.arm;
     const label = `arm ${ai + 1}/${arms.length} ${arm.name}`;
@@ -152,7 +155,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
       progress(`${label}: not analysed (invalid model)`, stepsPerArm);
-      return finishArm(ident, null, [], [], specs, null, req, `the arm model is invalid: ${message}`);
+      return finishArm(ident, arm, null, [], [], specs, null, req, candidates, `the arm model is invalid: ${message}`);
     }
     const targets = time("targets", () => req.targets.map((t, i) => {
       const r = analyzeTarget(ctx, arm, req, t, budget.target, contentSeed(seedText, "target", t.name), clock);
@@ -166,11 +169,10 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     }));
     const workspace = time("workspace", () => analyzeWorkspace(ctx, arm.specs?.reach, req.targets.map((t, i) => ({ name: t.name, position: t.position, reached: targets[i].reached })), budget.workspace, contentSeed(seedText, "workspace")));
     progress(`${label}: workspace and specs`);
-    return finishArm(ident, ctx, targets, paths, specs, workspace, req, null);
+    return finishArm(ident, arm, ctx, targets, paths, specs, workspace, req, candidates, null);
   });
 
-  addPriceScores(results, arms);
-  const ranking = rankArms(results.map((a): ArmScoreInput => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), req.weights);
+  const ranking = rerank({ arms: results }, req.weights);
   return {
     version: ANALYSIS_VERSION,
     caution: CAUTION,
@@ -185,12 +187,14 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
 
 function finishArm(
   ident: Pick<ArmAnalysis, "id" | "revision" | "name" | "maker" | "modelCode" | "axes">,
+  arm: ArmDocument,
   ctx: ArmContext | null,
   targets: TargetAnalysis[],
   paths: PathAnalysis[],
   specs: SpecResult[],
   workspace: WorkspaceAnalysis | null,
   req: RequirementSet,
+  candidates: readonly ArmDocument[],
   error: string | null,
 ): ArmAnalysis {
   const counts = { targets: emptyCounts(), paths: emptyCounts(), specs: emptyCounts() };
@@ -199,7 +203,7 @@ function finishArm(
   specs.forEach((s) => counts.specs[s.verdict]++);
   const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map(specLabel);
   const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map(specLabel);
-  const sub = subScores(ctx, targets, paths, req, error);
+  const sub = subScores(arm, error ? null : ctx, targets, paths, req, candidates);
   const reached = targets.filter((t) => t.reached).length;
   const summary = error
     ? `not analysed: ${error}`
@@ -208,96 +212,24 @@ function finishArm(
   return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, workspace, subScores: sub, failedMusts, unknownMusts, counts, summary };
 }
 
-const clamp01 = (x: number) => Math.min(1, Math.max(0, x));
-
 /**
- * Sub-scores in [0, 1] (documented for the page):
- * - coverage: reached targets / targets (not applicable without targets);
- * - dexterity: the worst dexterity margin over the reached targets' chosen branches and the
- *   reached path samples (0 when nothing is reached);
- * - payload: 1 − L/C with L = tool + payload mass and C the smallest holdable total at the payload
- *   CoG over the reached targets (0 at the limit, ½ with twice the load); falls back to the rated
- *   payload without torque limits; unknown → 0 with a note;
- * - force: min over targets with a required force/moment of 1 − 1/s, s the capacity ratio (0 when
- *   just met or failed, ½ with twice the requirement); unknown → 0; not applicable without such targets;
- * - pathSpeed: min over paths of the achievable fraction of the required speed (0 for a path not
- *   followed); unknown (no speed limits) → 0;
- * - price: set by addPriceScores (cheapest price / this price).
+ * The sub-scores in [0, 1], one per row of the sub-score table, each computed by its rule in
+ * ./sub-scores (definitions in docs/design.md#ranking).
  */
-function subScores(ctx: ArmContext | null, targets: TargetAnalysis[], paths: PathAnalysis[], req: RequirementSet, error: string | null): Record<SubScoreKey, SubScore> {
+function subScores(arm: ArmDocument, ctx: ArmContext | null, targets: TargetAnalysis[], paths: PathAnalysis[], req: RequirementSet, candidates: readonly ArmDocument[]): Record<SubScoreKey, SubScore> {
   const out = {} as Record<SubScoreKey, SubScore>;
-  const none = (note: string): SubScore => ({ value: 0, applicable: true, note });
-  if (error || !ctx) {
-    for (const k of SUB_SCORE_KEYS) out[k] = none("arm not analysed");
-    return out;
+  for (const k of SUB_SCORES.keys) {
+    const rule = SUB_SCORE_RULES[k];
+    if (!rule) throw new Error(`sub-score ${k} has no rule in lib/analysis/sub-scores.ts`);
+    out[k] = ctx ? rule.score({ arm, ctx, targets, paths, req, candidates }) : rule.unanalysed ? rule.unanalysed(arm, candidates) : zeroScore("arm not analysed");
   }
-  const reached = targets.filter((t) => t.reached);
-  out.coverage = targets.length === 0
-    ? { value: 0, applicable: false, note: "no targets" }
-    : { value: reached.length / targets.length, applicable: true, note: `${reached.length} of ${targets.length} targets reached` };
-
-  const margins = [...reached.map((t) => t.dexterity!.margin), ...paths.map((p) => p.minDexterityMargin).filter((m): m is number => m !== null)];
-  out.dexterity = targets.length + paths.length === 0
-    ? { value: 0, applicable: false, note: "no targets or paths" }
-    : margins.length === 0 ? none("nothing reached") : { value: clamp01(Math.min(...margins)), applicable: true, note: `worst dexterity margin ${Math.min(...margins).toFixed(2)}` };
-
-  const L = ctx.loadMass;
-  const caps = reached.map((t) => t.holding!).filter((h) => h.payloadCapacity !== null);
-  if (targets.length === 0) out.payload = { value: 0, applicable: false, note: "no targets" };
-  else if (reached.length === 0) out.payload = none("nothing reached");
-  else if (reached.some((t) => t.holding!.verdict === "fails")) out.payload = none("cannot hold the load at some target");
-  else if (caps.length === 0) out.payload = none(L === 0 ? "no load; no capacity figure" : "payload capacity unknown (no torque limits or rated payload): scored 0");
-  else {
-    const C = Math.min(...caps.map((h) => h.payloadCapacity!));
-    const basis = caps[0].basis === "rated-payload" ? "rated payload (datasheet)" : "joint torque limits";
-    out.payload = { value: C > 0 ? clamp01(1 - L / C) : 0, applicable: true, note: `load ${L.toFixed(2)} kg of ${C.toFixed(2)} kg holdable at the worst target (${basis})` };
-  }
-
-  const forceTargets = req.targets.map((t, i) => ({ t, a: targets[i] })).filter((x) => x.t.force || x.t.moment);
-  if (forceTargets.length === 0) out.force = { value: 0, applicable: false, note: "no required forces" };
-  else {
-    let worst = 1, note = "";
-    for (const { t, a } of forceTargets) {
-      let v: number, why: string;
-      if (!a.reached || !a.force) { v = 0; why = `${t.name} not reached`; }
-      else if (a.force.status === "no-limits") { v = 0; why = `${t.name}: capability unknown (no torque limits), scored 0`; }
-      else if (a.force.status === "unbounded") { v = 1; why = `${t.name}: carried by the structure`; }
-      else { v = clamp01(1 - 1 / Math.max(a.force.capacityRatio!, 1e-12)); why = `${t.name}: capability ${a.force.capacityRatio!.toFixed(2)}× the requirement`; }
-      if (v < worst || note === "") { worst = Math.min(worst, v); note = why; }
-    }
-    out.force = { value: worst, applicable: true, note };
-  }
-
-  if (paths.length === 0) out.pathSpeed = { value: 0, applicable: false, note: "no paths" };
-  else {
-    let worst = 1, note = "";
-    for (const p of paths) {
-      let v: number, why: string;
-      if (p.verdict === "fails" && (p.reached < p.samples || p.flips.some((f) => f.joint !== null))) { v = 0; why = `${p.name} not followed`; }
-      else if (p.speed.achievableFraction === null) { v = 0; why = `${p.name}: speed unknown (no joint speed limits), scored 0`; }
-      else { v = p.speed.achievableFraction; why = `${p.name}: ${(v * 100).toFixed(0)} % of the required speed`; }
-      if (v < worst || note === "") { worst = Math.min(worst, v); note = why; }
-    }
-    out.pathSpeed = { value: worst, applicable: true, note };
-  }
-  out.price = none("price unknown: scored 0");
   return out;
 }
 
-/** price sub-score = cheapest price / this price, among arms quoted in the cheapest arm's currency. */
-function addPriceScores(results: ArmAnalysis[], arms: readonly ShortlistArm[]): void {
-  const priced = arms.map((a, i) => ({ i, price: a.arm.specs?.price, currency: a.arm.specs?.currency ?? null }))
-    .filter((x): x is { i: number; price: number; currency: string | null } => typeof x.price === "number" && x.price > 0);
-  if (priced.length === 0) return;
-  // Ties on price are broken by currency code (content, not list order).
-  const cur = (x: { currency: string | null }) => x.currency ?? "\uffff";
-  const cheapest = priced.reduce((a, b) => (b.price < a.price || (b.price === a.price && cur(b) < cur(a)) ? b : a));
-  for (const p of priced) {
-    const r = results[p.i];
-    if (p.currency !== cheapest.currency) {
-      r.subScores.price = { value: 0, applicable: true, note: `price in ${p.currency ?? "an unstated currency"}, not comparable with the cheapest (${cheapest.currency ?? "unstated"}): scored 0` };
-    } else {
-      r.subScores.price = { value: cheapest.price / p.price, applicable: true, note: p.price === cheapest.price ? "cheapest candidate" : `${(p.price / cheapest.price).toFixed(2)}× the cheapest candidate` };
-    }
-  }
+/**
+ * The ranking of a result's arms with the given weights: the same rule the analysis ranks with,
+ * for the live weights of the page, exports with other weights and views that leave a weight out.
+ */
+export function rerank(result: { arms: readonly Pick<ArmAnalysis, "id" | "subScores" | "failedMusts" | "unknownMusts">[] }, weights: Weights): RankedArm[] {
+  return rankArms(result.arms.map((a): ArmScoreInput => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), weights);
 }

@@ -39,7 +39,8 @@ export type Action =
   | "share:manage"
   | "share:revoke"
   | "price:read"
-  | "audit:read";
+  | "audit:read"
+  | "comment:read-deleted";
 
 /** What an action is about, for the decisions that depend on it (owner, shortlist). */
 export interface Resource {
@@ -69,6 +70,8 @@ const GRANTS: Record<Action, readonly Role[]> = {
   "share:revoke": ["admin", "editor"],
   "price:read": ["admin", "editor", "viewer"],
   "audit:read": ["admin"],
+  // The text of a deleted comment (its revisions), like the audit trail: admins only.
+  "comment:read-deleted": ["admin"],
 };
 
 /** Actions on a thing that a member may do only to their own, unless the role is listed. */

@@ -3,18 +3,9 @@
  * and JSON exports, so every format carries the same values, units and verdict words.
  */
 import type { Weights } from "@/shared/schemas/requirements";
-import { SUB_SCORE_KEYS, type RankedArm, type SubScoreKey } from "@/lib/analysis/ranking";
+import { subScoreOf, type RankedArm } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
-
-/** Display names of the sub-scores (also used by the page). */
-export const SUB_SCORE_LABELS: Record<SubScoreKey, string> = {
-  coverage: "Target coverage",
-  dexterity: "Worst dexterity margin",
-  payload: "Payload margin",
-  force: "Force margin",
-  pathSpeed: "Path speed",
-  price: "Price",
-};
+import { SUB_SCORES } from "@/shared/sub-scores";
 
 /** What every export states about where its numbers come from. */
 export interface ExportMeta {
@@ -50,18 +41,18 @@ export function rankingTable(analysis: ShortlistAnalysis, ranking: readonly Rank
   const byId = new Map(analysis.arms.map((a) => [a.id, a]));
   const columns = [
     "Rank", "Arm", "Maker", "Model code", "Arm revision", "Status", "Score (0–1)",
-    ...SUB_SCORE_KEYS.map((k) => `${SUB_SCORE_LABELS[k]} contribution (0–1)`),
-    ...SUB_SCORE_KEYS.map((k) => `${SUB_SCORE_LABELS[k]} sub-score (0–1)`),
-    ...SUB_SCORE_KEYS.map((k) => `${SUB_SCORE_LABELS[k]} weight (share of 1)`),
+    ...SUB_SCORES.keys.map((k) => `${SUB_SCORES.label[k]} contribution (0–1)`),
+    ...SUB_SCORES.keys.map((k) => `${SUB_SCORES.label[k]} sub-score (0–1)`),
+    ...SUB_SCORES.keys.map((k) => `${SUB_SCORES.label[k]} weight (share of 1)`),
     "Targets reached (count)", "Targets (count)", "Failed must requirements", "Must requirements with missing data", "Summary",
   ];
   const rows = ranking.map((r): Cell[] => {
     const a = byId.get(r.armId)!;
     return [
       r.rank, a.name, a.maker, a.modelCode, a.revision, r.disqualified ? "disqualified" : "qualified", round(r.score),
-      ...SUB_SCORE_KEYS.map((k) => round(r.contributions[k])),
-      ...SUB_SCORE_KEYS.map((k) => (a.subScores[k].applicable ? round(a.subScores[k].value) : "not applicable")),
-      ...SUB_SCORE_KEYS.map((k) => round(r.weights[k])),
+      ...SUB_SCORES.keys.map((k) => round(r.contributions[k])),
+      ...SUB_SCORES.keys.map((k) => { const s = subScoreOf(a.subScores, k); return s.applicable ? round(s.value) : "not applicable"; }),
+      ...SUB_SCORES.keys.map((k) => round(r.weights[k])),
       a.targets.filter((t) => t.reached).length, a.targets.length,
       r.failedMusts.join("; "), r.unknownMusts.join("; "), a.summary,
     ];
@@ -128,7 +119,7 @@ export function metadataPairs(meta: ExportMeta): [string, string][] {
     ["Analysis run", `${meta.run.id}${meta.run.finishedAt ? `, finished ${meta.run.finishedAt}` : ""}`],
     ["Requirement set", `${meta.requirement.name} (${meta.requirement.id}) revision ${meta.requirement.revision}`],
     ...meta.arms.map((a): [string, string] => ["Arm", `${a.name} (${a.id}) revision ${a.revision}`]),
-    ["Weights", SUB_SCORE_KEYS.map((k) => `${k} ${meta.weights[k]}`).join(", ") + (meta.weightsAdjusted ? " (adjusted on the page, not saved)" : " (the requirement set's)")],
+    ["Weights", SUB_SCORES.keys.map((k) => `${k} ${meta.weights[k]}`).join(", ") + (meta.weightsAdjusted ? " (adjusted on the page, not saved)" : " (the requirement set's)")],
     ["Exported", meta.exportedAt],
     ["Caution", meta.caution],
   ];

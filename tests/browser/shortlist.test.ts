@@ -8,6 +8,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { analyzeShortlist, rankArms, SUB_SCORE_KEYS, type ShortlistAnalysis } from "@/lib/analysis";
+import { SUB_SCORES } from "@/shared/sub-scores";
 import type { Weights } from "@/shared/schemas/requirements";
 import { readCsvExport, readXlsx, sheetRecords } from "../export/parse";
 import { signUp, startHarness, type Browser, type Harness, type TrackedPage } from "./harness";
@@ -101,8 +102,7 @@ describe("shortlist page", () => {
     // Find a sub-score whose weight at the slider's maximum changes the order.
     const key = SUB_SCORE_KEYS.find((k) => rankArms(inputsOf(a), { ...a.weights, [k]: 10 } as Weights).map((r) => r.armId).join() !== base.join());
     expect(key).toBeDefined();
-    const labels = { coverage: "Target coverage", dexterity: "Worst dexterity margin", payload: "Payload margin", force: "Force margin", pathSpeed: "Path speed", price: "Price" };
-    const slider = p.getByLabel(`Weight: ${labels[key!]}`);
+    const slider = p.getByLabel(`Weight: ${SUB_SCORES.label[key!]}`);
     await slider.focus();
     await p.keyboard.press("End");
     const expected = rankArms(inputsOf(a), { ...a.weights, [key!]: 10 } as Weights).map((r) => r.armId);

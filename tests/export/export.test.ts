@@ -1,5 +1,8 @@
 // Exports of a shortlist result: the CSV and XLSX are parsed back and compared with the analysis
 // library's result for the demo bench-assembly scenario (values, units, verdict words, metadata).
+// CSV is read with papaparse, XLSX with exceljs (tests/export/parse.ts).
+import fc from "fast-check";
+import Papa from "papaparse";
 import { beforeAll, describe, expect, it } from "vitest";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { analyzeShortlist, rankArms, type ShortlistAnalysis } from "@/lib/analysis";
@@ -33,6 +36,22 @@ describe("CSV", () => {
     expect(csvField("-12.5")).toBe("-12.5");
     expect(csvField(-3)).toBe("-3");
     expect(csvField(null)).toBe("");
+  });
+
+  it("any row of text reads back cell by cell with papaparse (formula-like text with its guard)", () => {
+    // What a spreadsheet must show: the text itself, or the text behind an apostrophe when it
+    // starts like a formula (=, +, -, @, tab, CR) and is not a plain number.
+    const shown = (t: string) => (/^[=+\-@\t\r]/.test(t) && !/^-?\d+(\.\d+)?$/.test(t) ? `'${t}` : t);
+    const cell = fc.oneof(fc.string(), fc.constantFrom('"', '""', ",", "\r\n", "\n", "\r", "=1+1", "+A1", "-3", "@SUM(A1)", "\tx", "é ü 中", " a , \"b\" "));
+    fc.assert(
+      fc.property(fc.array(cell, { minLength: 1, maxLength: 6 }), (cells) => {
+        const line = cells.map(csvField).join(",");
+        const parsed = Papa.parse<string[]>(line + "\r\n", { header: false, delimiter: ",", newline: "\r\n", skipEmptyLines: false });
+        expect(parsed.errors).toEqual([]);
+        expect(parsed.data[0]).toEqual(cells.map(shown));
+      }),
+      { numRuns: 400, seed: 20260102 },
+    );
   });
 
   it("metadata lines go through the same writer as the cells: names are quoted and formula-guarded", () => {

@@ -1,39 +1,29 @@
 // Readers used by the export tests (kept independent of lib/export: the tests parse what a
-// spreadsheet or a CSV reader would see).
+// spreadsheet or a CSV reader would see, with exceljs and papaparse).
 import ExcelJS from "exceljs";
+import Papa from "papaparse";
 
-/** RFC 4180 reader: quoted fields, doubled quotes, CRLF or LF line ends. */
+/**
+ * Every record of a CSV text, read with papaparse (a general-purpose RFC 4180 parser), strictly:
+ * a parse error (unbalanced quote, stray quote) fails the test.
+ */
 export function parseCsvRows(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let field = "";
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { field += '"'; i++; }
-      else if (c === '"') quoted = false;
-      else field += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ",") { row.push(field); field = ""; }
-    else if (c === "\r" && text[i + 1] === "\n") { /* CRLF: the LF ends the row */ }
-    else if (c === "\n") { row.push(field); rows.push(row); row = []; field = ""; }
-    else field += c;
-  }
-  if (field !== "" || row.length) { row.push(field); rows.push(row); }
-  return rows;
+  const parsed = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: true, newline: "\r\n" });
+  if (parsed.errors.length > 0) throw new Error(`CSV does not parse: ${parsed.errors.map((e) => `row ${e.row}: ${e.message}`).join("; ")}`);
+  return parsed.data;
 }
 
 /**
  * A CSV export split into its metadata, header and rows (as objects by column name). Metadata are
  * the records whose first cell starts with "# ": the title alone, then `# key` and the value,
- * returned as "key: value".
+ * returned as "key: value". Every row must have as many fields as the header.
  */
 export function readCsvExport(text: string): { meta: string[]; columns: string[]; records: Record<string, string>[] } {
   const all = parseCsvRows(text.replace(/^\uFEFF/, ""));
   const isMeta = (r: string[]) => r[0].startsWith("# ");
   const meta = all.filter(isMeta).map((r) => (r.length > 1 ? `${r[0].slice(2)}: ${r.slice(1).join(",")}` : r[0].slice(2)));
   const [columns, ...rows] = all.filter((r) => !isMeta(r));
+  for (const [i, r] of rows.entries()) if (r.length !== columns.length) throw new Error(`CSV row ${i + 1} has ${r.length} fields, the header ${columns.length}`);
   return { meta, columns, records: rows.map((r) => Object.fromEntries(columns.map((c, i) => [c, r[i]]))) };
 }
 

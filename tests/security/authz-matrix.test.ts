@@ -9,6 +9,7 @@ import { call, type Body } from "../api/client";
 import { sampleArm, sampleRequirementSet } from "../db/helpers";
 import { createFixture, ROLES, type Fixture, type MemberRole, type Role } from "./fixtures";
 import { discoverRoutes, discoverServerActions, type Method } from "./routes";
+import { deleteComment } from "@/lib/db";
 import { commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
 
 type Expect = "ok" | 401 | 403 | 404;
@@ -70,6 +71,12 @@ const ROWS: Row[] = [
   { route: "users", method: "GET", expect: ADMIN },
   { route: "users/[id]", method: "PATCH", expect: ADMIN, request: async (f) => ({ params: { id: await f.freshUser() }, body: { role: "viewer" } }) },
   ...documentRows("arms"),
+  // URDF: reading a file into an arm is part of adding arms; exporting is reading.
+  {
+    route: "arms/urdf", method: "POST", expect: WRITE,
+    request: () => ({ body: { fileName: "two.urdf", text: '<robot name="two"><link name="a"/><link name="b"/><joint name="j" type="revolute"><parent link="a"/><child link="b"/><limit lower="-1" upper="1" effort="1" velocity="1"/></joint></robot>' } }),
+  },
+  { route: "arms/[id]/urdf", method: "GET", expect: READ, request: (f) => ({ params: { id: f.armId } }) },
   ...documentRows("requirements"),
   { route: "shortlists", method: "GET", expect: READ },
   { route: "shortlists", method: "POST", expect: WRITE, request: (f) => ({ body: { name: `Posted shortlist ${f.seq()}`, requirementSetId: f.setId, armIds: [f.armId] } }) },
@@ -107,6 +114,15 @@ const ROWS: Row[] = [
   {
     route: "shortlists/[id]/comments/[commentId]/revisions", method: "GET", expect: READ,
     request: async (f) => ({ params: { id: f.shortlistId, commentId: await f.freshComment(f.editor2) } }),
+  },
+  {
+    // Members get the versions; only admins get a deleted comment's bodies (deleted-comments.test.ts).
+    route: "shortlists/[id]/comments/[commentId]/revisions", method: "GET", variant: "a deleted comment", expect: READ,
+    request: async (f) => {
+      const commentId = await f.freshComment(f.editor2);
+      await deleteComment(f.editor2, commentId);
+      return { params: { id: f.shortlistId, commentId } };
+    },
   },
   // Share links: editors manage the links they made, admins all.
   { route: "shortlists/[id]/links", method: "GET", expect: WRITE, request: (f) => ({ params: sl(f) }) },

@@ -1,28 +1,15 @@
-import { z } from "zod";
 import { dummyPasswordHash, hashPassword, verifyPassword } from "@/lib/auth/password";
 import { clientAddress, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
 import { clearedSessionCookie, createSession, endRequestSession, getRequestUser, isHttps, sessionCookie } from "@/lib/auth/session";
 import type { SessionUser } from "@/lib/auth/permissions";
 import { createUser, findUserForSignIn, listUsers, normalizeEmail, setUserRole } from "@/lib/db";
-import { nameText, ROLES } from "@/shared/schemas";
+import { roleInput, signInInput, signUpInput } from "@/shared/schemas/accounts";
 import { ApiError, unauthenticated } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { json, parseWith, requireUser, route, type RouteContext } from "@/lib/http/route";
 
 const publicUser = (u: SessionUser) => ({ id: u.id, email: u.email, name: u.name, role: u.role });
 
-const signUpBody = z.object({
-  email: z.email({ error: "must be an email address" }).max(254, "must be at most 254 characters"),
-  name: nameText(80),
-  password: z.string({ error: "must be text" }).min(10, "must be at least 10 characters").max(1024, "must be at most 1024 characters"),
-});
-
-const signInBody = z.object({
-  email: z.string({ error: "must be text" }).min(1, "must not be empty").max(254),
-  password: z.string({ error: "must be text" }).min(1, "must not be empty").max(1024),
-});
-
-const roleBody = z.object({ role: z.enum(ROLES, { error: "must be admin, editor or viewer" }) });
 
 async function startSession(req: Request, user: SessionUser, status: number): Promise<Response> {
   const { token, expiresAt } = await createSession(user.id);
@@ -30,7 +17,7 @@ async function startSession(req: Request, user: SessionUser, status: number): Pr
 }
 
 export const signUp = route(async (req) => {
-  const body = parseWith(signUpBody, await readJsonObject(req));
+  const body = parseWith(signUpInput, await readJsonObject(req));
   const user = await createUser({ email: body.email, name: body.name, passwordHash: await hashPassword(body.password) });
   return startSession(req, user, 201);
 });
@@ -47,7 +34,7 @@ function rateLimited(ms: number): ApiError {
  * (in-memory, per server process). A success clears the email's failures.
  */
 export const signIn = route(async (req) => {
-  const body = parseWith(signInBody, await readJsonObject(req));
+  const body = parseWith(signInInput, await readJsonObject(req));
   const email = normalizeEmail(body.email);
   const ip = clientAddress(req);
   const wait = Math.max(signInFailuresByEmail.retryAfterMs(email), signInFailuresByIp.retryAfterMs(ip));
@@ -83,7 +70,7 @@ export const usersList = route(async (req) => {
 export const userUpdate = route<{ id: string }>(async (req, ctx: RouteContext<{ id: string }>) => {
   const admin = await requireUser(req, "user:admin");
   const { id } = await ctx.params;
-  const body = parseWith(roleBody, await readJsonObject(req));
+  const body = parseWith(roleInput, await readJsonObject(req));
   const user = await setUserRole(admin.id, id, body.role);
   return json({ user: publicUser(user) });
 });

@@ -2,6 +2,7 @@
 // view of link guests. Every handler asks lib/auth/permissions `can()` (directly or through
 // requireUser) before it touches data.
 import { z } from "zod";
+import { resolveCommentInput } from "@/shared/schemas/comments";
 import { can, type LinkGuest, type SessionUser } from "@/lib/auth/permissions";
 import { clientAddress, commentPosts, shareTokenFailures, shareTokenRequests } from "@/lib/auth/rate-limit";
 import {
@@ -93,21 +94,23 @@ export const deleteOwnComment = route<CommentParams>(async (req, ctx) => {
   return json(await deleteComment(user.id, commentId));
 });
 
-const resolveBody = z.object({ resolved: z.boolean({ error: "must be true (resolve) or false (reopen)" }) });
-
 export const resolveThread = route<CommentParams>(async (req, ctx) => {
   const user = await requireUser(req, "comment:resolve");
   const { id, commentId } = await ctx.params;
   await commentOf(id, commentId);
-  const body = parseWith(resolveBody, await readJsonObject(req));
+  const body = parseWith(resolveCommentInput, await readJsonObject(req));
   return json(await setCommentResolved(user.id, commentId, body.resolved));
 });
 
 export const commentRevisions = route<CommentParams>(async (req, ctx) => {
-  await requireUser(req, "comment:read");
+  const user = await requireUser(req, "comment:read");
   const { id, commentId } = await ctx.params;
-  await commentOf(id, commentId);
-  return json({ revisions: await listCommentRevisions(commentId) });
+  const c = await commentOf(id, commentId);
+  const revisions = (await listCommentRevisions(commentId)) ?? [];
+  if (c.deletedAt === null) return json({ revisions });
+  // A deleted comment's text stays readable to admins only; others see that versions existed.
+  if (can(user, "comment:read-deleted", { shortlistId: id })) return json({ revisions, deletedAt: c.deletedAt });
+  return json({ revisions: revisions.map((r) => ({ ...r, body: null })), deletedAt: c.deletedAt, bodiesHidden: true });
 });
 
 // ---- Share links (members) ----
