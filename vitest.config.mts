@@ -36,6 +36,8 @@ export default defineConfig({
           environment: "node",
           pool: "forks",
           testTimeout: 30_000,
+          // Each file migrates its own database first: allow for a busy machine.
+          hookTimeout: 60_000,
           globalSetup: ["tests/helpers/build-jobs-setup.ts"],
         },
       },
