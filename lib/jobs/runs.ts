@@ -11,6 +11,7 @@ import type PgBoss from "pg-boss";
 import {
   pingDatabase, databaseUrl, dbProvider, cancelRun as cancelRunRow, countRunsByStatus, createShortlist, repinShortlist, requestAnalysisRun, type EnqueueInTx, type Pins, type RunInfo, type RunStatus, listLiveWorkers, type WorkerInfo,
 } from "@/lib/db";
+import type { CreateShortlistInput } from "@/shared/schemas/shortlists";
 import { LocalRunner } from "./local-runner";
 import { createBoss, enqueueRun, queueDepth, queueSettings, startQueue, type QueueDepth } from "./queue";
 
@@ -74,8 +75,8 @@ export async function requestRun(shortlistId: string): Promise<{ run: RunInfo; c
 }
 
 /** Creates a shortlist and its first run in one transaction. */
-export async function createShortlistWithRun(userId: string | null, input: unknown): Promise<{ id: string; pins: Pins; run: RunInfo; cached: boolean }> {
-  const r = await createShortlist(userId, input, { enqueue: await enqueueHook() });
+export async function createShortlistWithRun(userId: string | null, body: CreateShortlistInput): Promise<{ id: string; pins: Pins; run: RunInfo; cached: boolean }> {
+  const r = await createShortlist(userId, body, { enqueue: await enqueueHook() });
   started(r);
   return { id: r.id, pins: r.pins, run: r.run, cached: r.cached };
 }

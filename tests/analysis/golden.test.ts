@@ -20,7 +20,7 @@ const GOLDEN: Record<string, string> = {
   "analysis-1.3.0": "e749a50e8aef53352ade3f415d84e659f6cf1f698949c5a7b56d292a2c2ce7d8",
   // 1.4.0: axis targets' orientation factor over the constrained rotations, copies 2π apart, exact path
   // speed with the trajectory's own ratio, structured IK causes, labels of the payload and ellipsoid figures.
-  "analysis-1.4.0": "4d60c11b7a9d91dc87ef7980916d5b2a821393d16df5526f8bc72d76af1e3f99",
+  "analysis-1.4.0": "152c81a3065862794c1b0bbd374156ec6262f7b8ff8d8f032d744467d7980269",
 };
 
 const DEG = Math.PI / 180;

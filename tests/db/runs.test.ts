@@ -6,7 +6,7 @@ import { spawn } from "node:child_process";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "./helpers";
+import { armDoc, createTestDb, requirementDoc, type TestDb } from "./helpers";
 import { createArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
 import { cancelRun, claimRun, createShortlist, finishRun, getRun, getRunResult, reportRunProgress, requestAnalysisRun } from "@/lib/db/shortlists";
@@ -22,13 +22,13 @@ let heavyArms: string[] = [];
 let heavySet: string;
 let n = 0;
 /** A requirement set of its own, so each run has its own key (no reuse of an earlier result). */
-const freshSet = async () => (await createRequirementSet(null, sampleRequirementSet({ name: `Cell ${++n}` }))).id;
+const freshSet = async () => (await createRequirementSet(null, requirementDoc({ name: `Cell ${++n}` }))).id;
 const freshShortlist = async (setId?: string, armIds?: string[]) =>
   createShortlist(null, { name: `Runs ${++n}`, requirementSetId: setId ?? (await freshSet()), armIds: armIds ?? [arm] });
 
 beforeAll(async () => {
   t = createTestDb();
-  arm = (await createArm(null, sampleArm())).id;
+  arm = (await createArm(null, armDoc())).id;
   for (const a of loadSeedArms()) heavyArms.push((await createArm(null, a)).id);
   heavyArms = [...heavyArms, ...heavyArms.slice(0, 3)].slice(0, 7);
   heavySet = (await createRequirementSet(null, loadSeedRequirementSets().find((s) => s.paths.length > 0)!)).id;

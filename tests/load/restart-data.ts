@@ -1,7 +1,7 @@
 // Shared by the restart tests: an admin with a session and analysis inputs written through lib/db
 // before the server starts, and a small API client for the built server.
 import { randomBytes } from "node:crypto";
-import { sampleArm } from "../db/helpers";
+import { armDoc } from "../db/helpers";
 import { createArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
 import { createUser } from "@/lib/db/users";
@@ -25,7 +25,7 @@ export async function prepare(): Promise<Inputs> {
   const heavyArms: string[] = [];
   for (const [i, arm] of [...loadSeedArms(), ...loadSeedArms()].entries()) heavyArms.push((await createArm(owner.id, { ...arm, name: `${arm.name} (${i})` })).id);
   const heavySet = (await createRequirementSet(owner.id, loadSeedRequirementSets().find((s) => s.paths.length > 0)!)).id;
-  const tinyArm = (await createArm(owner.id, sampleArm())).id;
+  const tinyArm = (await createArm(owner.id, armDoc())).id;
   return { cookie: `armsift_session=${token}`, heavyArms, heavySet, tinyArm };
 }
 

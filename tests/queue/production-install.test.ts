@@ -8,7 +8,7 @@ import { cpSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync } fro
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
+import { armDoc, createTestDb, requirementDoc, type TestDb } from "../db/helpers";
 import { createArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
 import { getRun, getRunResult } from "@/lib/db/shortlists";
@@ -64,8 +64,8 @@ describe("an install without development dependencies", () => {
   });
 
   it("runs an analysis: a worker started from it analyses a queued run", async () => {
-    const arm = (await createArm(null, sampleArm())).id;
-    const set = (await createRequirementSet(null, sampleRequirementSet({ name: "Production install cell" }))).id;
+    const arm = (await createArm(null, armDoc())).id;
+    const set = (await createRequirementSet(null, requirementDoc({ name: "Production install cell" }))).id;
     const { run } = await createShortlistWithRun(null, { name: "Production install", requirementSetId: set, armIds: [arm] });
     let out = "";
     const child = spawn(process.execPath, ["--preserve-symlinks", "--preserve-symlinks-main", path.join(dir, "dist", "jobs", "worker.mjs")], {

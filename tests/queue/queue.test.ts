@@ -5,7 +5,7 @@
 // a poison job that fails with its reason after its retries while the rest go on; cancellation
 // stopping a running job. Inputs are tiny arms and cells so the machine stays usable.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
+import { armDoc, createTestDb, requirementDoc, type TestDb } from "../db/helpers";
 import { createArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
 import { cancelRun, getRun, getRunResult, loadPinnedInputs } from "@/lib/db/shortlists";
@@ -20,8 +20,8 @@ const heavyArms: string[] = [];
 beforeAll(async () => {
   t = createTestDb();
   if (t.provider !== "postgres") throw new Error("the queue tests run on PostgreSQL (ARMSIFT_TEST_PROVIDER=postgres)");
-  tinyArm = (await createArm(null, sampleArm())).id;
-  tinySet = (await createRequirementSet(null, sampleRequirementSet({ targets: [{ name: "pick", position: [0.4, 0.1, 0.2], rpy: [Math.PI, 0, 0], mode: "point" }] }))).id;
+  tinyArm = (await createArm(null, armDoc())).id;
+  tinySet = (await createRequirementSet(null, requirementDoc({ targets: [{ name: "pick", position: [0.4, 0.1, 0.2], rpy: [Math.PI, 0, 0], mode: "point" }] }))).id;
   // A few seconds of analysis: the invented seed arms, each twice, against the deburring cell.
   for (const [i, arm] of [...loadSeedArms(), ...loadSeedArms()].entries()) heavyArms.push((await createArm(null, { ...arm, name: `${arm.name} (${i})` })).id);
   const deburring = loadSeedRequirementSets().find((s) => s.paths.length > 0)!;
@@ -147,7 +147,7 @@ describe("analysis jobs on the queue with worker processes", () => {
   }, 180_000);
 
   it("a poison job ends failed with its reason after its retries; the other jobs go on", async () => {
-    const set = (await createRequirementSet(null, sampleRequirementSet({ name: "Poison cell" }))).id;
+    const set = (await createRequirementSet(null, requirementDoc({ name: "Poison cell" }))).id;
     const runIds = await shortlists(4, set, [tinyArm], "Poison");
     const poison = runIds[1];
     // Pins that point at a revision that does not exist: every attempt throws.
@@ -170,7 +170,7 @@ describe("analysis jobs on the queue with worker processes", () => {
 
   it("cancelling a running job stops it at its next progress point; the worker takes the next job", async () => {
     const [heavy] = await shortlists(1, heavySet, heavyArms.slice(2), "Cancel");
-    const set = (await createRequirementSet(null, sampleRequirementSet({ name: "After the cancelled one" }))).id;
+    const set = (await createRequirementSet(null, requirementDoc({ name: "After the cancelled one" }))).id;
     const [after] = await shortlists(1, set, [tinyArm], "After cancel");
     const a = startWorkerProcess("A", t.url);
     await waitFor("the heavy run in progress", async () => {

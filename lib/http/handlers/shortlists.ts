@@ -1,6 +1,6 @@
-import { exportQuery, weightsParam } from "@/shared/schemas/shortlists";
+import { createShortlistInput, exportQuery, runViewQuery, weightsParam } from "@/shared/schemas/shortlists";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
-import { getRun, getRunResult, getShortlist, listRuns, listShortlists, type RunInfo } from "@/lib/db";
+import { getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, type RunInfo } from "@/lib/db";
 import { cancelRun, createShortlistWithRun, repinAndRun, requestRun } from "@/lib/jobs/runs";
 import { shortlistExport } from "@/lib/export";
 import { notFound } from "@/lib/http/errors";
@@ -14,7 +14,7 @@ export const list = route(async (req) => {
 
 export const create = route(async (req) => {
   const user = await requireUser(req, "shortlist:write");
-  const { id, pins, run, cached } = await createShortlistWithRun(user.id, await readJsonObject(req));
+  const { id, pins, run, cached } = await createShortlistWithRun(user.id, parseWith(createShortlistInput, await readJsonObject(req)));
   return json({ id, pins, run, cached }, 201);
 });
 
@@ -58,6 +58,14 @@ export const cancel = route<{ id: string; runId: string }>(async (req, ctx) => {
   const { id, runId } = await ctx.params;
   await runOf(id, runId);
   return json({ run: await cancelRun(user.id, runId) });
+});
+
+/** One arm of a finished run with the pinned documents: what the 3-D view of the shortlist page draws. */
+export const runArmView = route<{ id: string; runId: string }>(async (req, ctx) => {
+  await requireUser(req, "shortlist:read");
+  const { id, runId } = await ctx.params;
+  const q = parseWith(runViewQuery, Object.fromEntries(new URL(req.url).searchParams));
+  return json(await getRunArmView(id, runId, q.arm));
 });
 
 export const exportResult = route<{ id: string }>(async (req, ctx) => {
