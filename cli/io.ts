@@ -4,7 +4,7 @@
  * ends the program with exit status 2 and one stderr line naming the field and the reason.
  */
 import { readFileSync } from "node:fs";
-import { armSchema, mat4, type ArmDocument } from "@/shared/schemas";
+import { armSchema, mat4, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
 
 /** Bad input: `field` names the option, file or JSON path at fault. */
 export class CliError extends Error {
@@ -100,6 +100,17 @@ export function readJsonFile(path: string, field: string): unknown {
 /** Reads an arm file and validates it with the shared armSchema; the first problem names its JSON path. */
 export function readArm(path: string, field = "--arm"): ArmDocument {
   const parsed = armSchema.safeParse(readJsonFile(path, field));
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    const where = issue.path.length ? issue.path.map(String).join(".") : "(root)";
+    throw new CliError(`${field} ${path}: ${where}`, issue.message);
+  }
+  return parsed.data;
+}
+
+/** Reads a requirement-set file and validates it with the shared schema; the first problem names its JSON path. */
+export function readRequirements(path: string, field = "--requirements"): RequirementSet {
+  const parsed = requirementSetSchema.safeParse(readJsonFile(path, field));
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     const where = issue.path.length ? issue.path.map(String).join(".") : "(root)";

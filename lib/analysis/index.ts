@@ -14,4 +14,5 @@ export * from "./paths";
 export * from "./workspace";
 export * from "./shortlist";
 export { createArmContext, type ArmContext } from "./context";
+export { armClearance, type ArmClearance } from "./clearance";
 export * from "./copies";
