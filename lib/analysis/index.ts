@@ -16,3 +16,4 @@ export * from "./shortlist";
 export { createArmContext, type ArmContext } from "./context";
 export { armClearance, type ArmClearance } from "./clearance";
 export * from "./copies";
+export * from "./speed";

@@ -21,7 +21,7 @@ import type { Verdict } from "./types";
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
 export const ANALYSIS_VERSION = "analysis-1.5.0";
 
-/** Shown on every analysis page and export (RULES: the usual caution). */
+/** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
   "Armsift is a kinematic and static screening aid. It is not a substitute for the maker's data, a risk assessment (ISO 12100, ISO 10218-2), the collaborative-operation limits of ISO/TS 15066, or local codes and licensed engineering practice. Collisions are checked only between the rigid capsules and primitives entered (links, base, tool, payload, obstacles): no cable packs, dress packs or people unless modelled, and the check is not a safety function. Dynamics, deflection and cycle time are not analysed.";
 
@@ -123,7 +123,7 @@ export interface ShortlistAnalysis {
   requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[] };
   /** The cell the analysis used (absent in older results: made without the cell). */
   cell?: ShortlistCell;
-  /** Weights the ranking used (from the requirement set); re-rank with rankArms(arms, weights). */
+  /** Weights the ranking used (from the requirement set); re-rank with rerank(result, weights). */
   weights: Weights;
   arms: ArmAnalysis[];
   /** Best first (qualified arms, then disqualified ones). */
@@ -204,7 +204,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     return finishArm(ident, arm, ctx, targets, paths, specs, workspace, req, candidates, null);
   });
 
-  const ranking = rankArms(results.map((a): ArmScoreInput => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), req.weights);
+  const ranking = rerank({ arms: results }, req.weights);
   return {
     version: ANALYSIS_VERSION,
     caution: CAUTION,
@@ -260,4 +260,12 @@ function subScores(arm: ArmDocument, ctx: ArmContext | null, targets: TargetAnal
     out[k] = ctx ? rule.score({ arm, ctx, targets, paths, req, candidates }) : rule.unanalysed ? rule.unanalysed(arm, candidates) : zeroScore("arm not analysed");
   }
   return out;
+}
+
+/**
+ * The ranking of a result's arms with the given weights: the same rule the analysis ranks with,
+ * for the live weights of the page, exports with other weights and views that leave a weight out.
+ */
+export function rerank(result: { arms: readonly Pick<ArmAnalysis, "id" | "subScores" | "failedMusts" | "unknownMusts">[] }, weights: Weights): RankedArm[] {
+  return rankArms(result.arms.map((a): ArmScoreInput => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), weights);
 }

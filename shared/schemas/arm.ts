@@ -4,11 +4,14 @@ import { fmt, jointToDisplay, jointUnit } from "../units";
 import { armCapsuleSchema, MAX_BODY_SHAPES } from "./cell";
 
 /**
- * Arm model: the interchange format of DESIGN.md (SI units: m, rad, kg, N·m) plus identity and
+ * Arm model: the arm file of docs/formats.md#arm-file (SI units: m, rad, kg, N·m) plus identity and
  * datasheet specs. The kinematic part ({name, convention, joints, base, tool}) is exactly the
  * interchange arm JSON the command line reads; identity and specs are optional extras.
  */
 export const MAX_JOINTS = 12;
+
+/** A collision capsule of an arm body (the points within `radius` of the segment from → to). */
+export type Capsule = z.infer<typeof armCapsuleSchema>;
 
 /** Fields every joint has, whatever the convention. */
 const jointCommonShape = {

@@ -13,7 +13,7 @@ function cli(...args: string[]) {
 
 const dir = mkdtempSync(path.join(tmpdir(), "armsift-cli-"));
 const armFile = path.join(dir, "arm.json");
-// Vertical-plane 2R arm of REFERENCES.md §5 (base Rx(90°): the DH plane is the x-z plane).
+// Vertical-plane 2R arm of docs/references.md#2r-gravity-and-payload-check-values (base Rx(90°): the DH plane is the x-z plane).
 writeFileSync(armFile, JSON.stringify({
   name: "2R vertical", convention: "dh", base: [1, 0, 0, 0, 0, 0, -1, 0, 0, 1, 0, 0, 0, 0, 0, 1],
   joints: [50, 20].map((t) => ({ type: "revolute", a: 1, alpha: 0, d: 0, theta: 0, min: -3.1, max: 3.1, maxTorque: t, mass: 1, com: [-0.5, 0, 0] })),

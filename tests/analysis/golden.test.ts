@@ -18,8 +18,9 @@ const GOLDEN: Record<string, string> = {
   "analysis-1.2.0": "828391cba09cbdd3adcb8b332a2dccbece2d4e02573fda67d55e64f96fac9e99",
   // 1.3.0: workspace reach measured at the arm's own tool point (these arms have none: only the version differs).
   "analysis-1.3.0": "e749a50e8aef53352ade3f415d84e659f6cf1f698949c5a7b56d292a2c2ce7d8",
-  // 1.4.0: axis targets' orientation factor over the constrained rotations; copies 2π apart; exact path speed.
-  "analysis-1.4.0": "f737cd2f698986a200b4463a8f5a034a1ca6f7d302038dee4ab178fbb805f853",
+  // 1.4.0: axis targets' orientation factor over the constrained rotations, copies 2π apart, exact path
+  // speed with the trajectory's own ratio, structured IK causes, labels of the payload and ellipsoid figures.
+  "analysis-1.4.0": "4d60c11b7a9d91dc87ef7980916d5b2a821393d16df5526f8bc72d76af1e3f99",
 };
 
 const DEG = Math.PI / 180;
