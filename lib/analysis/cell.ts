@@ -454,7 +454,11 @@ export function checkPlaced(cell: CellModel, cd: CellData, exempt: Uint8Array | 
       out.collisionFree = false;
       if (cd.pairDepth[p] > out.collisionDepth || out.collisionPair < 0) { out.collisionDepth = cd.pairDepth[p]; out.collisionPair = p; }
     }
-    if (counts && d < out.clearance) { out.clearance = d; out.clearancePair = p; }
+    // the smallest distance; its pair, the first within 1 nm of it (so rounding does not pick among ties)
+    if (counts && d < out.clearance) {
+      if (out.clearancePair < 0 || d < out.clearance - 1e-9) out.clearancePair = p;
+      out.clearance = d;
+    }
   }
   return out;
 }

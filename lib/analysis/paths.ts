@@ -335,11 +335,14 @@ function pathCell(ctx: ArmContext, path: PathSpec, samples: Sample[], qs: (Float
   let closest: PathCell["closest"] = null;
   let firstCollision: PathCell["firstCollision"] = null;
   let evaluations = 0, unresolved = false;
+  // the smallest distance; where it is, the first place within 1 nm of it (ties along a path are common)
   const note = (d: number, p: number, sAt: number) => {
     if (p < 0 || !(d < clearance)) return;
+    if (closest === null || d < clearance - 1e-9) {
+      const [a, b] = pairNames(cell, p);
+      closest = { a, b, distance: d, s: sAt };
+    } else closest = { ...(closest as NonNullable<PathCell["closest"]>), distance: d };
     clearance = d;
-    const [a, b] = pairNames(cell, p);
-    closest = { a, b, distance: d, s: sAt };
   };
   for (let k = 0; k < samples.length; k++) {
     const q = qs[k];

@@ -21,6 +21,8 @@ const GOLDEN: Record<string, string> = {
   // 1.4.0: axis targets' orientation factor over the constrained rotations, copies 2π apart, exact path
   // speed with the trajectory's own ratio, structured IK causes, labels of the payload and ellipsoid figures.
   "analysis-1.4.0": "4d60c11b7a9d91dc87ef7980916d5b2a821393d16df5526f8bc72d76af1e3f99",
+  // 1.5.0: the cell: collisions and clearance at targets and along paths, a clearance sub-score (the input gained a cell).
+  "analysis-1.5.0": "5ef33e963b868cce1594ee9462ca9921f2ad68468b9ff5a866bdb1e0ec7836df",
 };
 
 const DEG = Math.PI / 180;
@@ -89,7 +91,20 @@ const req = requirementSetSchema.parse({
     { field: "ratedPayload", comparator: "atLeast", value: 4, priority: "must" },
     { field: "reach", comparator: "atLeast", value: 0.8, priority: "want" },
   ],
+  // since 1.5.0: a cell (a table, a post, a ball) and tool and payload shapes
+  cell: {
+    clearance: 0.01,
+    obstacles: [
+      { name: "table", shape: "box", pose: [1, 0, 0, 0.5, 0, 1, 0, 0, 0, 0, 1, -0.03, 0, 0, 0, 1], size: [0.8, 1.0, 0.06] },
+      { name: "post", shape: "cylinder", pose: [1, 0, 0, 0.55, 0, 1, 0, -0.35, 0, 0, 1, 0.3, 0, 0, 0, 1], radius: 0.03, length: 0.6 },
+      { name: "ball", shape: "sphere", center: [0.1, 0.45, 0.5], radius: 0.06 },
+    ],
+  },
 });
+req.tool.collision = [{ shape: "capsule", from: [0, 0, 0.02], to: [0, 0, 0.07], radius: 0.025 }];
+req.payload.collision = [{ shape: "box", pose: I4, size: [0.04, 0.04, 0.04] }];
+// since 1.5.0: the six-axis arm has capsules derived from its table and link radii
+(arms[0].arm.joints as { radius?: number }[]).forEach((j, i) => { j.radius = [0.06, 0.05, 0.045, 0.04, 0.035, 0.03][i]; });
 const budget = { ...DEFAULT_BUDGET, workspace: { ...DEFAULT_BUDGET.workspace, samples: 400 } };
 
 describe("golden analysis output", () => {
