@@ -43,19 +43,28 @@ import type { ArmDocument } from "@/shared/schemas/arm";
 import type { BodyShape, Obstacle } from "@/shared/schemas/cell";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { forwardKinematics, type ArmData, type ArmModel } from "@/lib/kinematics";
-import {
-  boundGap, createDistanceResult, distancePacked, packShape, placeShape, STRIDE, updateBound, type DistanceResult, type Shape,
-} from "@/lib/geometry";
+import { createDistanceResult, type DistanceResult, type Shape } from "@/lib/geometry";
+import { distancePacked as distancePackedImport } from "@/lib/geometry/distance";
+import { packShape, placeShape as placeShapeImport, updateBound as updateBoundImport } from "@/lib/geometry/packed";
 import { alwaysTouchingPairs, linkGeometry, type LinkGeometry } from "@/lib/geometry/arm";
 import { IDENTITY_4, mul4 } from "./geometry";
 
-// Packed-layout offsets (lib/geometry/packed.ts), local so the hot loops read literals.
+// Packed-layout constants (lib/geometry/packed.ts) and the hot functions as local bindings, so the
+// hot loops read literals and call functions directly (an imported binding is a property load, or
+// a getter through a re-export, on every use).
+const STRIDE = 24;
+const distancePacked = distancePackedImport;
+const placeShape = placeShapeImport;
+const updateBound = updateBoundImport;
 const O_RADIUS = 1;
 const O_A = 2;
 const O_B = 5;
 const O_BC = 20;
 const O_BR = 23;
+const O_R = 8;
+const O_H = 17;
 const KIND_CAPSULE = 1;
+const KIND_BOX = 2;
 
 /**
  * Tolerance of the motion check (m): a stretch of motion counts as keeping the threshold when its
@@ -107,6 +116,17 @@ export interface CellModel {
   /** Obstacles, packed in the cell frame. */
   readonly obstacles: Float64Array;
   readonly pairs: readonly CellPair[];
+  /**
+   * The pairs flattened for the hot loops: pair p's shape pairs are spA/spB[pairStart[p] …
+   * pairStart[p+1]), against an obstacle when pairObstacle[p] ≥ 0 (its index), fixed (the base
+   * against an obstacle) when pairFixed[p] = 1, liftable by a contact list when pairContact[p] = 1.
+   */
+  readonly pairStart: Int32Array;
+  readonly spA: Int32Array;
+  readonly spB: Int32Array;
+  readonly pairObstacle: Int32Array;
+  readonly pairFixed: Uint8Array;
+  readonly pairContact: Uint8Array;
   readonly skipped: readonly SkippedPair[];
   /** Bodies without collision geometry (their pairs are not checked). */
   readonly unmodelled: readonly string[];
@@ -306,7 +326,15 @@ export function createCellModel(arm: ArmDocument, req: RequirementSet, model: Ar
     }
   }
 
+  const pairStart = new Int32Array(pairs.length + 1);
+  pairs.forEach((pr, i) => { pairStart[i + 1] = pairStart[i] + pr.shapesA.length; });
+  const spA = new Int32Array(pairStart[pairs.length]), spB = new Int32Array(pairStart[pairs.length]);
+  pairs.forEach((pr, i) => { spA.set(pr.shapesA, pairStart[i]); spB.set(pr.shapesB, pairStart[i]); });
   return Object.freeze({
+    pairStart, spA, spB,
+    pairObstacle: Int32Array.from(pairs.map((pr) => (pr.b < 0 ? -1 - pr.b : -1))),
+    pairFixed: Uint8Array.from(pairs.map((pr) => (pr.fixed ? 1 : 0))),
+    pairContact: Uint8Array.from(pairs.map((pr) => (pr.contactable ? 1 : 0))),
     n, bodyNames: Object.freeze(bodyNames), obstacleNames: Object.freeze(obs.map((o) => o.name)), clearance: req.cell.clearance,
     shapeBody: Int32Array.from(bodyOf), shapeFrame: Int32Array.from(frameOf), shapeLocal, spanFrames, spanPoints, obstacles,
     pairs: Object.freeze(pairs), skipped: Object.freeze(skipped), unmodelled: Object.freeze(unmodelled), active: pairs.length > 0,
@@ -383,11 +411,11 @@ const poseScratch = new Float64Array(16);
  * cd.pairDistance / pairDepth / pairPoints; returns the distance.
  */
 function exactPair(cell: CellModel, cd: CellData, p: number): number {
-  const pair = cell.pairs[p];
-  const W = cd.world, B = pair.b >= 0 ? W : cell.obstacles, res = cd.result;
+  const W = cd.world, B = cell.pairObstacle[p] < 0 ? W : cell.obstacles, res = cd.result;
+  const A = cell.spA, S = cell.spB, end = cell.pairStart[p + 1];
   let best = Infinity, depth = 0;
-  for (let k = 0; k < pair.shapesA.length; k++) {
-    const d = distancePacked(W, STRIDE * pair.shapesA[k], B, STRIDE * pair.shapesB[k], res);
+  for (let k = cell.pairStart[p]; k < end; k++) {
+    const d = distancePacked(W, STRIDE * A[k], B, STRIDE * S[k], res);
     if (d < best || (d === 0 && res.depth > depth)) {
       if (d < best) best = d;
       if (d === 0) depth = Math.max(depth, res.depth);
@@ -402,23 +430,38 @@ function exactPair(cell: CellModel, cd: CellData, p: number): number {
   return best;
 }
 
-/** Lower bound of pair p's distance from the bounding spheres, and an upper bound (centre to centre). */
-function pairBounds(cell: CellModel, cd: CellData, p: number, out: { lower: number; upper: number }): void {
-  const pair = cell.pairs[p];
-  const W = cd.world, B = pair.b >= 0 ? W : cell.obstacles;
-  let lower = Infinity, upper = Infinity;
-  for (let k = 0; k < pair.shapesA.length; k++) {
-    const ao = STRIDE * pair.shapesA[k], bo = STRIDE * pair.shapesB[k];
-    const g = boundGap(W, ao, B, bo);
+/**
+ * Lower bound of pair p's distance (m; may be < 0): from the bounding spheres of its shapes, or,
+ * when one shape is a box, from the other's bounding sphere to the box itself (tight for the
+ * large flat boxes cells are made of: table tops, guards).
+ */
+function pairLowerBound(cell: CellModel, cd: CellData, p: number): number {
+  const W = cd.world, B = cell.pairObstacle[p] < 0 ? W : cell.obstacles, A = cell.spA, S = cell.spB, end = cell.pairStart[p + 1];
+  let lower = Infinity;
+  for (let k = cell.pairStart[p]; k < end; k++) {
+    const ao = STRIDE * A[k], bo = STRIDE * S[k];
+    let g: number;
+    if (B[bo] === KIND_BOX) g = sphereBoxGap(W, ao, B, bo);
+    else if (W[ao] === KIND_BOX) g = sphereBoxGap(B, bo, W, ao);
+    else {
+      const dx = W[ao + O_BC] - B[bo + O_BC], dy = W[ao + O_BC + 1] - B[bo + O_BC + 1], dz = W[ao + O_BC + 2] - B[bo + O_BC + 2];
+      g = Math.sqrt(dx * dx + dy * dy + dz * dz) - W[ao + O_BR] - B[bo + O_BR];
+    }
     if (g < lower) lower = g;
-    const dx = W[ao + O_BC] - B[bo + O_BC], dy = W[ao + O_BC + 1] - B[bo + O_BC + 1], dz = W[ao + O_BC + 2] - B[bo + O_BC + 2];
-    const u = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    if (u < upper) upper = u;
   }
-  out.lower = lower;
-  out.upper = upper;
+  return lower;
 }
-const bounds = { lower: 0, upper: 0 };
+
+/** Distance from the bounding sphere of the shape at S[so] to the box at X[xo] (a lower bound of their distance). */
+function sphereBoxGap(S: Float64Array, so: number, X: Float64Array, xo: number): number {
+  const dx = S[so + O_BC] - X[xo + O_A], dy = S[so + O_BC + 1] - X[xo + O_A + 1], dz = S[so + O_BC + 2] - X[xo + O_A + 2];
+  const r = xo + O_R;
+  // into the box frame (Rᵀ d), then the distance outside the half sides
+  const lx = X[r] * dx + X[r + 3] * dy + X[r + 6] * dz, ly = X[r + 1] * dx + X[r + 4] * dy + X[r + 7] * dz, lz = X[r + 2] * dx + X[r + 5] * dy + X[r + 8] * dz;
+  const gx = Math.abs(lx) - X[xo + O_H], gy = Math.abs(ly) - X[xo + O_H + 1], gz = Math.abs(lz) - X[xo + O_H + 2];
+  const ox = gx > 0 ? gx : 0, oy = gy > 0 ? gy : 0, oz = gz > 0 ? gz : 0;
+  return Math.sqrt(ox * ox + oy * oy + oz * oz) - S[so + O_BR];
+}
 
 /**
  * Checks the cell at q: every pair's distance (exact where it can decide the clearance or a
@@ -432,35 +475,41 @@ export function checkCell(cell: CellModel, cd: CellData, model: ArmModel, data: 
 
 /** {@link checkCell} on the configuration already placed. */
 export function checkPlaced(cell: CellModel, cd: CellData, exempt: Uint8Array | null, out: CellCheck): CellCheck {
-  const pairs = cell.pairs, np = pairs.length;
+  const np = cell.pairs.length, fixed = cell.pairFixed;
   out.collisionFree = true; out.clearance = Infinity; out.clearancePair = -1; out.collisionPair = -1; out.collisionDepth = 0;
-  // pass 1: bounds; the smallest upper bound limits which pairs need an exact answer
-  let minUpper = Infinity;
+  // pass 1: lower bounds; the counted pair with the smallest is likely the closest
+  let first = -1, firstLower = Infinity;
   for (let p = 0; p < np; p++) {
     cd.pairExact[p] = 0; cd.pairDepth[p] = 0;
-    if (isExempt(pairs[p], exempt)) { cd.pairDistance[p] = Infinity; continue; }
-    pairBounds(cell, cd, p, bounds);
-    cd.pairDistance[p] = bounds.lower;
-    if (!pairs[p].fixed && bounds.upper < minUpper) minUpper = bounds.upper;
+    if (exempt !== null && cell.pairContact[p] === 1 && exempt[cell.pairObstacle[p]] === 1) { cd.pairDistance[p] = Infinity; continue; }
+    const lower = pairLowerBound(cell, cd, p);
+    cd.pairDistance[p] = lower;
+    if (fixed[p] === 0 && lower < firstLower) { firstLower = lower; first = p; }
   }
-  // pass 2: exact distances where the bound does not decide
+  if (first >= 0) take(cell, cd, first, out);
+  // pass 2: exact distances where the bound does not decide (a possible overlap, or closer than the best so far)
   for (let p = 0; p < np; p++) {
+    if (p === first) continue;
     const lower = cd.pairDistance[p];
     if (lower === Infinity) continue;
-    const counts = !pairs[p].fixed;
-    if (lower > 0 && (!counts || lower > minUpper || lower > out.clearance)) continue;
-    const d = exactPair(cell, cd, p);
-    if (d === 0) {
-      out.collisionFree = false;
-      if (cd.pairDepth[p] > out.collisionDepth || out.collisionPair < 0) { out.collisionDepth = cd.pairDepth[p]; out.collisionPair = p; }
-    }
-    // the smallest distance; its pair, the first within 1 nm of it (so rounding does not pick among ties)
-    if (counts && d < out.clearance) {
-      if (out.clearancePair < 0 || d < out.clearance - 1e-9) out.clearancePair = p;
-      out.clearance = d;
-    }
+    if (lower > 0 && (fixed[p] === 1 || lower > out.clearance)) continue;
+    take(cell, cd, p, out);
   }
   return out;
+}
+
+/** Exact distance of pair p, entered into the check's collision and clearance. */
+function take(cell: CellModel, cd: CellData, p: number, out: CellCheck): void {
+  const d = exactPair(cell, cd, p);
+  if (d === 0) {
+    out.collisionFree = false;
+    if (cd.pairDepth[p] > out.collisionDepth || out.collisionPair < 0) { out.collisionDepth = cd.pairDepth[p]; out.collisionPair = p; }
+  }
+  // the smallest distance; its pair, the first within 1 nm of it in the pairs' order (so rounding does not pick among ties)
+  if (cell.pairFixed[p] === 0 && d < out.clearance + 1e-9) {
+    if (out.clearancePair < 0 || d < out.clearance - 1e-9 || (p < out.clearancePair)) out.clearancePair = p;
+    if (d < out.clearance) out.clearance = d;
+  }
 }
 
 function isExempt(pair: CellPair, exempt: Uint8Array | null): boolean {

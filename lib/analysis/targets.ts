@@ -203,7 +203,7 @@ export interface TargetAnalysis {
 }
 
 /** Extra random starts (IK descents) tried for a collision-free near miss when every branch collides. */
-export const FREE_MISS_ATTEMPTS = 24;
+export const FREE_MISS_ATTEMPTS = 16;
 
 /** The target's pose in the cell frame (row-major 4×4). */
 export function targetPose(t: Pick<Target, "position" | "rpy">): Float64Array {
@@ -262,7 +262,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
     // Every branch found collides: look wider for a free one before saying so.
     const more = solveIkMulti(model, data, pose, {
       mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
-      maxRestarts: budget.escalatedRestarts, maxSolutions: 2 * budget.maxSolutions, maxIterations: budget.maxIterations, seed: seed + 0x51ed2701,
+      maxRestarts: 2 * budget.restarts, maxSolutions: 2 * budget.maxSolutions, maxIterations: budget.maxIterations, seed: seed + 0x51ed2701,
     }).filter((r) => r.status === "reached");
     for (const r of more) {
       const c = centredCopy(model, r.q);
