@@ -6,7 +6,8 @@ import path from "node:path";
 import { analyzeShortlist, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis";
 import { analysisKey } from "@/lib/analysis/key";
 import { csvText } from "@/lib/export/csv";
-import { CliError, parseOptions, readArm, readRequirements, required, type CliCommand } from "../io";
+import { requirementSetSchema } from "@/shared/schemas/requirements";
+import { CliError, parseOptions, readArm, readDocument, required, type CliCommand } from "../io";
 
 /**
  * The compliance table: specs, then targets and paths, each against every arm. Written by the
@@ -48,9 +49,10 @@ export const command: CliCommand = {
     const files = required(options, "arms").split(",").map((s) => s.trim()).filter(Boolean);
     if (files.length === 0) throw new CliError("--arms", "needs at least one arm file");
     const arms: ShortlistArm[] = files.map((f, i) => ({ id: `${i + 1}:${path.basename(f)}`, revision: 1, arm: readArm(f, "--arms") }));
-    const req = readRequirements(required(options, "requirements"));
-    const result = analyzeShortlist(arms, req);
+    const reqFile = required(options, "requirements");
+    const requirementSet = readDocument(requirementSetSchema, reqFile, "--requirements");
+    const result = analyzeShortlist(arms, requirementSet);
     if (format === "csv") return complianceCsv(result);
-    return { key: analysisKey(arms, req), ...result } as unknown as Record<string, unknown>;
+    return { key: analysisKey(arms, requirementSet), ...result } as unknown as Record<string, unknown>;
   },
 };

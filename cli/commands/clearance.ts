@@ -8,14 +8,15 @@
  */
 import { allPairDistances, contactMask, pairNames } from "@/lib/analysis/cell";
 import { createArmContext } from "@/lib/analysis/context";
-import { CliError, parseNumberList, parseOptions, readArm, readRequirements, required, round, type CliCommand } from "../io";
+import { requirementSetSchema } from "@/shared/schemas/requirements";
+import { CliError, parseNumberList, parseOptions, readArm, readDocument, required, round, type CliCommand } from "../io";
 
 export const command: CliCommand = {
   usage: "clearance --arm A.json --requirements R.json --q q1,…,qn [--target NAME]  → {collisionFree, minDistance, closest, pairs}",
   run(argv) {
     const options = parseOptions(argv, ["arm", "requirements", "q", "target"]);
     const arm = readArm(required(options, "arm"));
-    const req = readRequirements(required(options, "requirements"));
+    const req = readDocument(requirementSetSchema, required(options, "requirements"), "--requirements");
     const q = parseNumberList(required(options, "q"), "--q", arm.joints.length);
     let contact: string[] | undefined;
     if (options.has("target")) {

@@ -70,6 +70,7 @@ function CellTable({ arm, required }: { arm: ArmAnalysis; required: number }) {
     </>
   );
 }
+import { SolutionViewPanel } from "../view3d/launchers";
 
 const norm = (v: readonly number[]) => Math.hypot(...v);
 const dirText = (v: readonly number[]) => {
@@ -173,7 +174,7 @@ function PayloadTable({ arm }: { arm: ArmAnalysis }) {
   );
 }
 
-function ArmSection({ arm, index, required }: { arm: ArmAnalysis; index: number; required: number }) {
+function ArmSection({ arm, index, shortlistId, runId, required }: { arm: ArmAnalysis; index: number; shortlistId: string; runId: string; required: number }) {
   const ws = workspaceData(arm);
   return (
     <section className="panel arm-section" aria-labelledby={`arm-${index}-h`} data-testid="arm-section">
@@ -185,6 +186,8 @@ function ArmSection({ arm, index, required }: { arm: ArmAnalysis; index: number;
         <p className="notice bad">Not analysed: {arm.error}</p>
       ) : (
         <>
+          <h4>3-D view</h4>
+          <SolutionViewPanel shortlistId={shortlistId} runId={runId} armId={arm.id} armName={arm.name} />
           <h4>Force capability</h4>
           <ForceTable arm={arm} />
           <h4>Payload</h4>
@@ -349,7 +352,7 @@ export function ResultView(props: {
       <ComplianceTable analysis={analysis} />
       <h2 className="print-break">Per arm</h2>
       {analysis.arms.map((a, i) => (
-        <ArmSection key={a.id} arm={a} index={i} required={analysis.cell?.clearance ?? 0} />
+        <ArmSection key={a.id} arm={a} index={i} shortlistId={props.shortlistId} runId={props.runId} required={analysis.cell?.clearance ?? 0} />
       ))}
     </>
   );

@@ -13,7 +13,7 @@ export * from "./targets";
 export * from "./paths";
 export * from "./workspace";
 export * from "./shortlist";
-export { createArmContext, type ArmContext } from "./context";
+export { createArmContext, placedArmKinematics, type ArmContext } from "./context";
 export { armClearance, type ArmClearance } from "./clearance";
 export * from "./copies";
 export * from "./speed";

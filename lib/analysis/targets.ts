@@ -354,7 +354,12 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
       } else parts.push(`clearance ${mm(c.clearance)} (${c.closest.a} to ${quoteBody(c.closest.b)})`);
     }
   }
-  for (const c of centred[chosen].copies) parts.push(`joint ${c.joint} at ${deg(c.chosen)} (its copy${c.others.length > 1 ? "s" : ""} at ${c.others.map(deg).join(", ")} ${c.others.length > 1 ? "are" : "is"} nearer a limit)`);
+  for (const c of centred[chosen].copies) {
+    const room = (v: number) => Math.min(v - model.lower[c.joint - 1], model.upper[c.joint - 1] - v);
+    const tie = c.others.every((o) => room(o) >= room(c.chosen) - 1e-9);
+    const others = `${c.others.length > 1 ? "copies" : "copy"} at ${c.others.map(deg).join(", ")}`;
+    parts.push(`joint ${c.joint} at ${deg(c.chosen)} (${tie ? `as far from its limits as its ${others}` : `its ${others} ${c.others.length > 1 ? "are" : "is"} nearer a limit`})`);
+  }
   if (holding.verdict !== "meets") { verdict = worseVerdict(verdict, holding.verdict); parts.push(holding.reason); }
   if (force) { verdict = worseVerdict(verdict, force.verdict); parts.push(force.reason); }
   if (wrist.verdict === "fails" || wrist.verdict === "marginal") { verdict = worseVerdict(verdict, wrist.verdict); parts.push(wrist.reason); }

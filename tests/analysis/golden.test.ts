@@ -20,9 +20,9 @@ const GOLDEN: Record<string, string> = {
   "analysis-1.3.0": "e749a50e8aef53352ade3f415d84e659f6cf1f698949c5a7b56d292a2c2ce7d8",
   // 1.4.0: axis targets' orientation factor over the constrained rotations, copies 2π apart, exact path
   // speed with the trajectory's own ratio, structured IK causes, labels of the payload and ellipsoid figures.
-  "analysis-1.4.0": "4d60c11b7a9d91dc87ef7980916d5b2a821393d16df5526f8bc72d76af1e3f99",
+  "analysis-1.4.0": "152c81a3065862794c1b0bbd374156ec6262f7b8ff8d8f032d744467d7980269",
   // 1.5.0: the cell: collisions and clearance at targets and along paths, a clearance sub-score (the input gained a cell).
-  "analysis-1.5.0": "5ef33e963b868cce1594ee9462ca9921f2ad68468b9ff5a866bdb1e0ec7836df",
+  "analysis-1.5.0": "f0a3cf5199f44f173ea3ab9a5bfb3e0fe8c17c89150c8b35ff5ccb1a925ae5b4",
 };
 
 const DEG = Math.PI / 180;

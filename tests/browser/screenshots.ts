@@ -26,6 +26,19 @@ async function main(): Promise<void> {
       }
       await p.setViewportSize({ width: 1280, height: 900 });
     };
+    // A 3-D view: the viewport at the view (not the whole page), desktop and narrow.
+    const snapView = async (name: string) => {
+      for (const width of [1280, 390]) {
+        await p.setViewportSize({ width, height: 900 });
+        await p.waitForTimeout(400);
+        await p.getByTestId("view3d-open").first().scrollIntoViewIfNeeded();
+        const section = p.locator("[data-testid$='view3d'][data-state='open']").first();
+        const file = path.join(out, `${name}-${width}.png`);
+        await section.screenshot({ path: file });
+        shots.push([name, file]);
+      }
+      await p.setViewportSize({ width: 1280, height: 900 });
+    };
     await snap("signin");
     await p.goto("/signup");
     await snap("signup");
@@ -41,6 +54,13 @@ async function main(): Promise<void> {
     await p.getByLabel("joint 1 max (°)", { exact: true }).fill("-400");
     await p.getByRole("button", { name: "Save new revision" }).click();
     await snap("arm-edit-errors");
+    // 3-D views: the arm editor's live view, the cell view, the shortlist's solution view.
+    await p.goto(firstArm!);
+    await p.getByTestId("arm-view3d").getByRole("button", { name: "Show 3-D view" }).click();
+    await p.getByTestId("view3d-canvas").waitFor();
+    await p.getByTestId("arm-view3d").scrollIntoViewIfNeeded();
+    await p.waitForTimeout(400);
+    await snapView("arm-view3d");
     await p.goto(firstArm! + "/history");
     await snap("arm-history");
     await p.goto(firstArm! + "/history/1");
@@ -53,7 +73,24 @@ async function main(): Promise<void> {
     if (firstSet) {
       await p.goto(firstSet);
       await snap("requirement-edit");
+      await p.getByTestId("cell-view3d").getByRole("button", { name: "Show 3-D view of the cell" }).click();
+      await p.getByTestId("view3d-canvas").waitFor();
+      await p.waitForTimeout(400);
+      await snapView("cell-view3d");
     }
+    // A shortlist of two demo arms on the first demo requirement set, its first arm's 3-D view.
+    const armIds = ((await p.evaluate(async () => (await fetch("/api/arms")).json())) as { arms: { id: string }[] }).arms.map((a) => a.id);
+    const setId = ((await p.evaluate(async () => (await fetch("/api/requirements")).json())) as { requirementSets: { id: string }[] }).requirementSets[0].id;
+    const created = (await p.evaluate(
+      async (body) => (await fetch("/api/shortlists", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) })).json(),
+      { name: "Screenshot shortlist", requirementSetId: setId, armIds: armIds.slice(0, 2) },
+    )) as { id: string };
+    await p.goto(`/shortlists/${created.id}`);
+    await p.getByTestId("ranking").waitFor({ timeout: 120_000 });
+    await p.getByTestId("solution-view3d").first().getByRole("button", { name: "Show 3-D view" }).click();
+    await p.getByTestId("solution-view").first().waitFor();
+    await p.waitForTimeout(400);
+    await snapView("shortlist-view3d");
     await p.goto("/admin/users");
     await p.getByRole("table").waitFor();
     await snap("users");
