@@ -77,7 +77,8 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
   const [showBranches, setShowBranches] = useState(false);
   const [pi, setPi] = useState(0);
   const [sample, setSample] = useState(0);
-  const [allLabels, setAllLabels] = useState(a.targets.length <= 12);
+  // Every target named by default when there are few and the view is wide enough to read them.
+  const [allLabels, setAllLabels] = useState(() => a.targets.length <= 12 && window.innerWidth >= 640);
 
   const t = a.targets[ti];
   const chosen = t?.chosen ?? null;

@@ -4,6 +4,8 @@
  * the force ellipsoid at the payload point. The engine (engine.ts) turns this into meshes; tests
  * check this module against the library directly.
  *
+ * What is drawn and why: docs/design.md#3-d-view.
+ *
  * Frames and units: everything is in the view's world frame in metres, poses row-major 4×4 as in
  * the files. On the shortlist page and in the requirement-set editor the world is the cell frame;
  * in the arm editor it is the arm's own base frame (the frame the arm file's `base` is given in).

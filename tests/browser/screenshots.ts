@@ -45,25 +45,29 @@ async function main(): Promise<void> {
     await signUp(t, { email: "shots@example.test", name: "Sam Shots", password: "screenshots only 123" });
     await snap("arms");
     const firstArm = await p.getByTestId("arm-table").locator("tbody tr a").first().getAttribute("href");
+    // A DH arm for the table and paste screens (the catalog also holds chain arms imported from URDF).
+    const dhArm = await p.getByTestId("arm-table").locator("tbody tr a", { hasText: "Compact Six 3" }).first().getAttribute("href");
     await p.goto("/arms/new");
     await snap("arm-new");
-    await p.goto(firstArm!);
+    await p.goto(dhArm!);
     await snap("arm-edit");
     await p.getByRole("button", { name: "Paste from spreadsheet…" }).click();
     await p.getByLabel("Pasted table").fill("type\ta\talpha\td\ttheta\tmin\tmax\nR\t0\t90\t300\t0\t-170\t170\nR\t250\tabc\t0\t0\t-120\t120");
     await p.getByLabel("joint 1 max (°)", { exact: true }).fill("-400");
     await p.getByRole("button", { name: "Save new revision" }).click();
     await snap("arm-edit-errors");
-    // 3-D views: the arm editor's live view, the cell view, the shortlist's solution view.
-    await p.goto(firstArm!);
-    await p.getByTestId("arm-view3d").getByRole("button", { name: "Show 3-D view" }).click();
-    await p.getByTestId("view3d-canvas").waitFor();
-    await p.getByTestId("arm-view3d").scrollIntoViewIfNeeded();
-    await p.waitForTimeout(400);
-    await snapView("arm-view3d");
-    await p.goto(firstArm! + "/history");
+    // 3-D views: the arm editor's live view (a DH arm and the first arm of the catalog), the cell view, the shortlist's solution view.
+    for (const [name, href] of [["arm-view3d", dhArm], ["arm-view3d-first", firstArm]] as const) {
+      await p.goto(href!);
+      await p.getByTestId("arm-view3d").getByRole("button", { name: "Show 3-D view" }).click();
+      await p.getByTestId("view3d-canvas").waitFor();
+      await p.getByTestId("arm-view3d").scrollIntoViewIfNeeded();
+      await p.waitForTimeout(400);
+      await snapView(name);
+    }
+    await p.goto(dhArm! + "/history");
     await snap("arm-history");
-    await p.goto(firstArm! + "/history/1");
+    await p.goto(dhArm! + "/history/1");
     await snap("arm-revision");
     await p.goto("/requirements");
     await snap("requirements");

@@ -1,10 +1,13 @@
-// What the 3-D view draws (components/view3d/scene.ts), checked against sources outside the view:
-// - Orocos KDL fixtures (tests/reference/fixtures/kdl.json, PyKDL ChainFkSolverPos_recursive and
-//   ChainJntToJacSolver): the drawn tool frame is KDL's tool pose; each drawn joint axis is KDL's
-//   Jacobian column (angular part ω = axis for a revolute joint, linear part = axis for a
-//   prismatic one), and the drawn axis point satisfies v = ω × (p_tool − o) with KDL's linear part;
-// - the Denavit–Hartenberg definitions (Craig, Introduction to Robotics, §3.4; Spong, Hutchinson &
-//   Vidyasagar §3.2): the stick figure runs d along z and a along x between consecutive frames;
+// What the 3-D view draws (components/view3d/scene.ts; docs/design.md#3-d-view), checked against
+// sources outside the view:
+// - Orocos KDL fixtures (docs/references.md#orocos-kdl; tests/reference/fixtures/kdl.json, PyKDL
+//   ChainFkSolverPos_recursive and ChainJntToJacSolver): the drawn tool frame is KDL's tool pose;
+//   each drawn joint axis is KDL's Jacobian column (angular part ω = axis for a revolute joint,
+//   linear part = axis for a prismatic one), and the drawn axis point satisfies
+//   v = ω × (p_tool − o) with KDL's linear part;
+// - the Denavit–Hartenberg definitions (docs/references.md#denavit-and-hartenberg-1955,
+//   docs/references.md#craig-introduction-to-robotics): the stick figure runs d along z and a
+//   along x between consecutive frames;
 // - the analysis' own placement (createArmContext), which the shortlist view must draw.
 import { readFileSync } from "node:fs";
 import path from "node:path";
