@@ -73,7 +73,7 @@ export function createModel(spec: ArmKinematics): ArmModel {
   const origin = new Float64Array(16 * n), axis = new Float64Array(3 * n);
   const originCross = new Float64Array(9 * n), originOuter = new Float64Array(9 * n);
   const lower = new Float64Array(n), upper = new Float64Array(n);
-  const maxSpeed = new Float64Array(n).fill(NaN), maxTorque = new Float64Array(n).fill(NaN);
+  const maxSpeed = new Float64Array(n).fill(NaN), maxAcceleration = new Float64Array(n).fill(NaN), maxTorque = new Float64Array(n).fill(NaN);
   const mass = new Float64Array(n), com = new Float64Array(3 * n), radius = new Float64Array(n).fill(NaN);
   const prismatic = new Uint8Array(n);
   const types: JointType[] = [];
@@ -136,6 +136,7 @@ export function createModel(spec: ArmKinematics): ArmModel {
     }
     lower[i] = min; upper[i] = max;
     if (j.maxSpeed !== undefined) maxSpeed[i] = j.maxSpeed as number;
+    if (j.maxAcceleration !== undefined) maxAcceleration[i] = j.maxAcceleration as number;
     if (j.maxTorque !== undefined) maxTorque[i] = j.maxTorque as number;
     if (j.mass !== undefined) mass[i] = j.mass as number;
     if (j.com !== undefined) {
@@ -157,7 +158,7 @@ export function createModel(spec: ArmKinematics): ArmModel {
     prismatic,
     a, alpha, d, theta, cosAlpha, sinAlpha,
     origin, axis, originCross, originOuter,
-    lower, upper, maxSpeed, maxTorque, mass, com, radius,
+    lower, upper, maxSpeed, maxAcceleration, maxTorque, mass, com, radius,
     base, tool,
     axisFrameOffset: convention === "dh" ? 0 : 1,
     lengthScale: lengthScale > 0 ? lengthScale : 1,

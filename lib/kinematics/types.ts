@@ -53,6 +53,8 @@ export interface ArmModel {
   readonly upper: Float64Array;
   /** Max joint speed (rad/s or m/s), NaN where absent (length n). */
   readonly maxSpeed: Float64Array;
+  /** Max joint acceleration (rad/s² or m/s²), NaN where absent (length n). */
+  readonly maxAcceleration: Float64Array;
   /** Max joint torque (N·m) or force (N), NaN where absent (length n). */
   readonly maxTorque: Float64Array;
   /** Link mass (kg), 0 where absent (length n). */
