@@ -11,6 +11,7 @@ import { placedArmKinematics } from "@/lib/analysis/context";
 import { linkGeometry } from "@/lib/geometry/arm";
 import { invertRigid, mul4, poseFromRpy, transformPoint } from "@/lib/analysis/geometry";
 import type { ArmAnalysis } from "@/lib/analysis/shortlist";
+import type { TargetAnalysis } from "@/lib/analysis/targets";
 import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { api } from "../api";
@@ -38,19 +39,9 @@ interface RunArmView {
   analysis: ArmAnalysis;
 }
 
-/**
- * The clearance check at a target as the analysis stores it when the cell is checked (`cell` of a
- * target's result): the closest pair of the chosen branch, or the least overlap when every branch
- * collides. Read where present; results without a cell check have none.
- */
-interface CellCheck {
-  collisionFree: boolean;
-  required: number;
-  clearance: number | null;
-  closest: { a: string; b: string; distance: number; pointA: number[] | null; pointB: number[] | null } | null;
-  collision: { a: string; b: string; depth: number } | null;
-}
-const cellOf = (t: ArmAnalysis["targets"][number]): CellCheck | null => (t as { cell?: CellCheck | null }).cell ?? null;
+/** The clearance check at a target (`cell` of its result; null when the cell checks nothing for the arm). */
+type CellCheck = NonNullable<TargetAnalysis["cell"]>;
+const cellOf = (t: TargetAnalysis): CellCheck | null => t.cell;
 const quoted = (name: string) => (/^(base|link \d+|tool|payload)$/.test(name) ? name : `“${name}”`);
 
 function closestPair(c: NonNullable<CellCheck["closest"]>, required: number): PairMark {
@@ -201,7 +192,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
     const which = b === chosen ? `the chosen branch (${rule})` : "another branch";
     // The analysis reports the closest pair of the chosen branch only.
     const pair = b === chosen && cell?.closest ? closestPair(cell.closest, cell.required) : null;
-    const free = (sol as { collisionFree?: boolean | null }).collisionFree === false ? "; this branch collides in the cell" : "";
+    const free = sol.collisionFree === false ? "; this branch collides in the cell" : "";
     return {
       content: { ...base, arm, ghosts, force, bodies, pair },
       status: `Target ${t.name}: ${verdictText}; branch ${b + 1} of ${t.solutions.length}, ${which}, dexterity margin D = ${sol.margin.toFixed(2)}${free}.${pair ? ` ${pair.text[0].toUpperCase()}${pair.text.slice(1)}.` : ""}`,
@@ -245,7 +236,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
                 <select id={`v3-branch-${view.armId}`} value={b ?? 0} onChange={(e) => setBranch(Number(e.target.value))}>
                   {t.solutions.map((s, i) => (
                     <option key={i} value={i}>
-                      {i + 1}{i === chosen ? " (chosen)" : ""}: D = {s.margin.toFixed(2)}{(s as { collisionFree?: boolean | null }).collisionFree === false ? ", collides" : ""}
+                      {i + 1}{i === chosen ? " (chosen)" : ""}: D = {s.margin.toFixed(2)}{s.collisionFree === false ? ", collides" : ""}
                     </option>
                   ))}
                 </select>
