@@ -316,7 +316,7 @@ describe("3-D views", () => {
     const req = seedSets.get(BENCH)!;
     await expect.poll(async () => (await frame.locator(".v3-label.target").allTextContents()).sort()).toEqual(req.targets.map((x) => x.name).sort());
     expect(req.cell.obstacles.length).toBeGreaterThan(0);
-    for (const o of req.cell.obstacles) await frame.locator(".v3-label.obstacle", { hasText: o.name }).waitFor();
+    await expect.poll(async () => (await frame.locator(".v3-label.obstacle").allTextContents()).sort()).toEqual(req.cell.obstacles.map((o) => o.name).sort());
     await frame.locator(".v3-label", { hasText: "arm base" }).waitFor();
     expect((await inspect(frame.getByTestId("view3d-canvas"), "coverage")) as number).toBeGreaterThan(0.01);
     expect(t.errors()).toEqual([]);
