@@ -17,13 +17,6 @@ export async function createSession(userId: string, now: Date = new Date()): Pro
   return { token, expiresAt };
 }
 
-/** True when the request came over HTTPS, directly or through a proxy that says so. */
-export function isHttps(req: Request): boolean {
-  const proto = req.headers.get("x-forwarded-proto")?.split(",")[0]?.trim().toLowerCase();
-  if (proto) return proto === "https";
-  return new URL(req.url).protocol === "https:";
-}
-
 export function sessionCookie(token: string, expiresAt: Date, secure: boolean): string {
   const maxAge = Math.max(0, Math.floor((expiresAt.getTime() - Date.now()) / 1000));
   return [`${SESSION_COOKIE}=${token}`, "Path=/", "HttpOnly", "SameSite=Lax", `Max-Age=${maxAge}`, `Expires=${expiresAt.toUTCString()}`, ...(secure ? ["Secure"] : [])].join("; ");

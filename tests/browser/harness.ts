@@ -81,9 +81,9 @@ export async function startHarness(): Promise<Harness> {
   const port = await freePort();
   const logPath = path.join(dir, "server.log");
   const logFd = openSync(logPath, "a");
-  const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
+  const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, "scripts", "serve.mjs")], {
     cwd: ROOT,
-    env: { ...env, PORT: String(port) },
+    env: { ...env, PORT: String(port), HOST: "127.0.0.1" },
     detached: true,
     stdio: ["ignore", logFd, logFd],
   });

@@ -10,7 +10,7 @@ import { sampleArm, sampleRequirementSet } from "../db/helpers";
 import { createFixture, ROLES, type Fixture, type MemberRole, type Role } from "./fixtures";
 import { discoverRoutes, discoverServerActions, type Method } from "./routes";
 import { deleteComment } from "@/lib/db";
-import { commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
+import { commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByAccount, signInFailuresByIp } from "@/lib/auth/rate-limit";
 
 type Expect = "ok" | 401 | 403 | 404;
 type Cells = Record<Role, Expect>;
@@ -150,7 +150,7 @@ beforeAll(async () => {
 afterAll(async () => f?.db.cleanup());
 
 function clearLimits() {
-  for (const l of [commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByEmail, signInFailuresByIp]) l.clear();
+  for (const l of [commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByAccount, signInFailuresByIp]) l.clear();
 }
 
 describe("authorisation matrix", () => {

@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { dummyPasswordHash, hashPassword, verifyPassword } from "@/lib/auth/password";
-import { clientAddress, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
-import { clearedSessionCookie, createSession, endRequestSession, getRequestUser, isHttps, sessionCookie } from "@/lib/auth/session";
+import { accountAddressKey, signInFailuresByAccount, signInFailuresByIp } from "@/lib/auth/rate-limit";
+import { clearedSessionCookie, createSession, endRequestSession, getRequestUser, sessionCookie } from "@/lib/auth/session";
+import { clientAddress, isHttps } from "@/lib/http/forwarded";
 import type { SessionUser } from "@/lib/auth/permissions";
 import { createUser, findUserForSignIn, listUsers, normalizeEmail, setUserRole } from "@/lib/db";
 import { nameText, ROLES } from "@/shared/schemas";
@@ -43,23 +44,25 @@ function rateLimited(ms: number): ApiError {
 }
 
 /**
- * Sign-in, limited to 5 failures per email and 20 per client address in 15 minutes
- * (in-memory, per server process). A success clears the email's failures.
+ * Sign-in. Failures are limited per (account, client address) with growing back-off, and to 20
+ * per client address in 15 minutes (in-memory, per server process), so a stranger's guesses
+ * never lock the owner out of their own address. A success clears that pair's failures.
  */
 export const signIn = route(async (req) => {
   const body = parseWith(signInBody, await readJsonObject(req));
   const email = normalizeEmail(body.email);
   const ip = clientAddress(req);
-  const wait = Math.max(signInFailuresByEmail.retryAfterMs(email), signInFailuresByIp.retryAfterMs(ip));
+  const key = accountAddressKey(email, ip);
+  const wait = Math.max(signInFailuresByAccount.retryAfterMs(key), signInFailuresByIp.retryAfterMs(ip));
   if (wait > 0) throw rateLimited(wait);
   const user = await findUserForSignIn(email);
   const ok = user ? await verifyPassword(body.password, user.passwordHash) : (await verifyPassword(body.password, await dummyPasswordHash()), false);
   if (!user || !ok) {
-    signInFailuresByEmail.record(email);
+    signInFailuresByAccount.record(key);
     signInFailuresByIp.record(ip);
     throw new ApiError(401, "unauthenticated", "email or password is wrong");
   }
-  signInFailuresByEmail.reset(email);
+  signInFailuresByAccount.reset(key);
   return startSession(req, user, 200);
 });
 
