@@ -2,6 +2,7 @@
 import Link from "next/link";
 import { useState } from "react";
 import { api, byPath } from "./api";
+import { safeNextUrl } from "./nextPath";
 import { ErrorSummary, TextField, errText } from "./fields";
 
 interface Props {
@@ -9,10 +10,6 @@ interface Props {
   next?: string;
 }
 
-/** Only same-site paths are followed after signing in. */
-function safeNext(next: string | undefined): string {
-  return next && next.startsWith("/") && !next.startsWith("//") ? next : "/arms";
-}
 
 export function AuthForm({ mode, next }: Props) {
   const [email, setEmail] = useState("");
@@ -43,7 +40,7 @@ export function AuthForm({ mode, next }: Props) {
       );
       return;
     }
-    window.location.assign(safeNext(next));
+    window.location.assign(safeNextUrl(next, window.location.origin));
   }
 
   const fieldMessages = Object.entries(errors).flatMap(([p, ms]) => ms.map((m) => `${p}: ${m}`));
