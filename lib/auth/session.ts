@@ -58,6 +58,12 @@ export async function getCurrentUser(): Promise<SessionUser | null> {
   return userForToken(value && /^[A-Za-z0-9_-]{16,128}$/.test(value) ? value : null);
 }
 
+/** The stored id (hash) of the session a request's cookie holds, or null. */
+export function requestSessionIdHash(req: Request): string | null {
+  const token = tokenFromCookieHeader(req.headers.get("cookie"));
+  return token ? hashToken(token) : null;
+}
+
 /** Ends the session of a request's cookie, if any. */
 export async function endRequestSession(req: Request): Promise<void> {
   const token = tokenFromCookieHeader(req.headers.get("cookie"));

@@ -11,6 +11,8 @@ export * from "./errors";
 export * from "./shortlists";
 export * from "./comments";
 export * from "./shares";
+export * from "./settings";
+export * from "./invitations";
 export { listAuditEvents, type AuditEventRecord } from "./audit-read";
 export { openProgressWriter } from "./analysis-progress";
 export { databaseUrl, disconnectDb } from "./client";

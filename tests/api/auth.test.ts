@@ -49,11 +49,11 @@ describe("accounts over the API", () => {
   it("marks the cookie Secure behind a trusted HTTPS proxy", async () => {
     process.env.ARMSIFT_TRUSTED_PROXIES = "10.0.0.1";
     try {
-      const r = await call(signup.POST, "/api/auth/signup", {
-        body: { email: "secure@example.test", name: "Sec", password: "a long enough password" },
+      const r = await call(signin.POST, "/api/auth/signin", {
+        body: { email: "owner@example.test", password: "a long enough password" },
         headers: { [PEER_HEADER]: "10.0.0.1", "x-forwarded-proto": "https" },
       });
-      expect(r.status).toBe(201);
+      expect(r.status).toBe(200);
       expect(r.res.headers.get("set-cookie")).toMatch(/; Secure$/);
     } finally {
       delete process.env.ARMSIFT_TRUSTED_PROXIES;
@@ -65,8 +65,18 @@ describe("accounts over the API", () => {
     expectFieldError(r, "email");
     expectFieldError(r, "name");
     expectFieldError(r, "password", /at least 10 characters/);
-    const dup = await call(signup.POST, "/api/auth/signup", { body: { email: "OWNER@example.test", name: "Dup", password: "a long enough password" } });
-    expectFieldError(dup, "email", /already exists/);
+  });
+
+  it("answers a sign-up for a taken email exactly as for a free one", async () => {
+    const taken = await call(signup.POST, "/api/auth/signup", { body: { email: "OWNER@example.test", name: "Dup", password: "another long passphrase" } });
+    const free = await call(signup.POST, "/api/auth/signup", { body: { email: "never.seen@example.test", name: "New", password: "another long passphrase" } });
+    expect(taken.status).toBe(202);
+    expect(free.status).toBe(202);
+    expect(taken.body).toEqual(free.body);
+    expect(taken.res.headers.get("set-cookie")).toBeNull();
+    expect(JSON.stringify(taken.body)).not.toMatch(/exists|taken|already/);
+    // The taken account is untouched: its own password still signs in, the other one does not.
+    expect((await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "another long passphrase" }, headers: { [PEER_HEADER]: "192.0.2.200" } })).status).toBe(401);
   });
 
   it("refuses a wrong password with 401 and rate-limits failures per account and address (429, Retry-After)", async () => {
@@ -111,7 +121,7 @@ describe("accounts over the API", () => {
     const list = await call(users.GET, "/api/users", { cookie: adminCookie });
     expect(list.status).toBe(200);
     expect(list.body.users.map((u: { email: string }) => u.email)).toContain("plain@example.test");
-    expect(Object.keys(list.body.users[0]).sort()).toEqual(["email", "id", "name", "role"]);
+    expect(Object.keys(list.body.users[0]).sort()).toEqual(["createdAt", "email", "id", "name", "role", "status"]);
 
     const patch = (cookie: string, id: string, body: unknown) => call(userById.PATCH, `/api/users/${id}`, { method: "PATCH", cookie, params: { id }, body });
     expect((await patch(viewer.cookie, viewer.id, { role: "admin" })).status).toBe(403);
@@ -134,6 +144,6 @@ describe("accounts over the API", () => {
       body: { email: "csrf@example.test", name: "C", password: "a long enough password" },
       headers: { origin: "http://localhost:3000" },
     });
-    expect(same.status).toBe(201);
+    expect(same.status).toBe(202);
   });
 });
