@@ -20,6 +20,8 @@ export default defineConfig({
           include: ["tests/**/*.test.ts"],
           exclude: ["tests/db/**", "tests/browser/**", "tests/api/**", "tests/security/**", "tests/load/**"],
           environment: "node",
+          // The command-line tests start a process each; a loaded machine needs more than 5 s.
+          testTimeout: 30_000,
         },
       },
       {

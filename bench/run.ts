@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: runs the kinematics and distance-query benchmarks, then the analysis benchmark when
- * bench/analysis.ts exists, then the shortlist page benchmark (each module exports `async function run()`).
+ * bench/analysis.ts exists, then the URDF import/export benchmark, then the shortlist page benchmark
+ * (each module exports `async function run()`).
  */
 import { existsSync } from "node:fs";
 import path from "node:path";
@@ -16,6 +17,7 @@ async function main(): Promise<void> {
     const mod = (await import(pathToFileURL(analysis).href)) as { run?: () => Promise<void> };
     if (typeof mod.run === "function") await mod.run();
   }
+  await (await import("./urdf")).run();
   await (await import("./page")).run();
 }
 

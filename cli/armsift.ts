@@ -1,5 +1,5 @@
 /**
- * Command-line entry (`npm run --silent cli -- <command> …`, DESIGN.md): a dispatch table from
+ * Command-line entry (`npm run --silent cli -- <command> …`, docs/cli.md): a dispatch table from
  * command names to modules in cli/commands. Every command runs the same library code as the
  * server. Bad input exits with status 2 and one line on stderr naming the field and the reason.
  * To add a command, add one line to `COMMANDS`.
@@ -12,6 +12,8 @@ const COMMANDS: Record<string, () => Promise<CliCommand>> = {
   ik: () => import("./commands/ik").then((m) => m.command),
   statics: () => import("./commands/statics").then((m) => m.command),
   analyze: () => import("./commands/analyze").then((m) => m.command),
+  "import-urdf": () => import("./commands/import-urdf").then((m) => m.command),
+  "export-urdf": () => import("./commands/export-urdf").then((m) => m.command),
 };
 
 async function main(argv: readonly string[]): Promise<number> {

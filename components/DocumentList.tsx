@@ -79,9 +79,9 @@ export function DocumentList<T extends ListedDocument>(props: DocumentListProps<
       setProblem([`${file.name} is not valid JSON.`]);
       return;
     }
-    const r = await api<{ id: string }>(`${props.api}/import`, "POST", text);
+    const r = await api<{ id: string; notices?: string[] }>(`${props.api}/import`, "POST", text);
     if (r.ok) {
-      router.push(`${props.page}/${r.data.id}`);
+      router.push(`${props.page}/${r.data.id}${r.data.notices?.length ? "?converted=1" : ""}`);
       return;
     }
     setProblem([`${file.name} was not imported: ${r.error.message}`, ...(r.error.fieldErrors ?? []).map((f) => `${f.path}: ${f.message}`)]);

@@ -17,7 +17,7 @@ export function EditorFrame<Doc, Form>(props: {
   /** The document's name as typed, for the title. */
   name: string;
   /** The editor's own props: which document, who, which revision. */
-  of: { id?: string; canWrite: boolean; viewingRevision?: number; deleted?: boolean };
+  of: { id?: string; canWrite: boolean; viewingRevision?: number; deleted?: boolean; notices?: string[] };
   children: ReactNode;
 }) {
   const uid = useId();
@@ -50,6 +50,11 @@ export function EditorFrame<Doc, Form>(props: {
           {id && canWrite && viewingRevision === undefined && !deleted && <DeleteControl url={`${api}/${id}`} what={what} afterHref={page} />}
         </div>
       </div>
+      {props.of.notices?.map((n, i) => (
+        <p key={i} className="notice warn" data-testid="document-notice">
+          {n}
+        </p>
+      ))}
       {viewingRevision !== undefined && (
         <p className="notice">
           A past revision, read-only. <Link href={`${page}/${id}`}>Open the latest revision</Link>.

@@ -1,6 +1,6 @@
 import type { FieldError } from "@/shared/schemas/common";
 
-/** Error body of the JSON API (CONTRACTS.md). */
+/** Error body of the JSON API (docs/design.md#application). */
 export interface ApiErrorBody {
   code: string;
   message: string;

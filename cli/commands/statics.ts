@@ -1,6 +1,6 @@
 /**
  * `statics`: gravity torque, force capability along a direction and payload capacity at a point
- * of the last link (DESIGN.md `statics` definitions; gravity along −z of the arm's base frame).
+ * of the last link (docs/cli.md#statics; gravity along −z of the arm's base frame).
  */
 import { computeJacobian, createData, createModel } from "@/lib/kinematics";
 import { capacityAlong, gravityTorque, payloadCapacity, transposeTimes } from "@/lib/analysis";

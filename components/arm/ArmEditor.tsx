@@ -10,6 +10,7 @@ import { armFormFromDoc, armPathLabel, emptyArmForm, validateArmForm, type ArmFo
 import { formatArmValue } from "./format";
 import { JointTable } from "./JointTable";
 import { DhPastePanel } from "./DhPastePanel";
+import { CollisionPanel } from "./CollisionPanel";
 import { RemoveRowCell } from "../RowControls";
 
 interface Props {
@@ -124,6 +125,8 @@ export function ArmEditor(props: Props) {
           readOnly={readOnly}
         />
       </div>
+
+      <CollisionPanel form={form} errors={errMap} readOnly={readOnly} onChange={update} />
 
       <fieldset className="panel">
         <legend>Datasheet specs</legend>

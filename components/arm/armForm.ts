@@ -7,6 +7,7 @@ import { armSchema, type ArmDocument, type ArmSource, type ChainJointSpec, type 
 import { degToRad, jointFromDisplay, jointToDisplay, jointUnit, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { checkFormDoc } from "../formDoc";
 import { parseNum, parsePose, poseMatrix, poseTextFromMatrix, rowKey, samePose, show, isZeroPose, type PoseText } from "../pose";
+import { applyCollisionForm, capsuleRowsFromDoc, ignoredPairsText, type CapsuleRow } from "./collisionForm";
 
 export type JointType = "revolute" | "prismatic";
 export const JOINT_NUM_FIELDS = [
@@ -78,6 +79,9 @@ export interface ArmForm {
   source?: ArmSource;
   base: PoseText;
   tool: PoseText;
+  /** Collision capsules of the base and the links (one table) and the ignored pairs ("1-3, 2-4"). */
+  capsules: CapsuleRow[];
+  ignoredPairs: string;
   baseOrig?: { text: PoseText; matrix: number[] };
   toolOrig?: { text: PoseText; matrix: number[] };
   specs: {
@@ -236,6 +240,8 @@ export function emptyArmForm(): ArmForm {
     joints: [newJointRow()],
     base: { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" },
     tool: { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" },
+    capsules: [],
+    ignoredPairs: "",
     specs: {
       ratedPayload: "",
       reach: "",
@@ -330,6 +336,8 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
     source: doc.source ? { ...doc.source } : undefined,
     base,
     tool,
+    capsules: capsuleRowsFromDoc(doc),
+    ignoredPairs: ignoredPairsText(doc),
     baseOrig: doc.base ? { text: { ...base }, matrix: doc.base.slice() } : undefined,
     toolOrig: doc.tool ? { text: { ...tool }, matrix: doc.tool.slice() } : undefined,
     specs: {
@@ -484,6 +492,7 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
   const tool = transform(form.tool, form.toolOrig, "tool");
   if (tool) doc.tool = tool;
   if (Object.keys(specs).length) doc.specs = specs;
+  applyCollisionForm(doc, form.capsules, form.ignoredPairs, errors);
   return { doc, errors };
 }
 
@@ -506,16 +515,30 @@ export function armPathLabel(path: string): string {
           ? "axis" + xyz(p[3])
           : p[2] === "origin"
             ? "origin" + (p[3] === "rpy" ? (p[4] !== undefined ? " " + (["roll", "pitch", "yaw"][Number(p[4])] ?? p[4]) : " rpy") : xyz(p[4]))
-            : (JOINT_LABEL as Record<string, string>)[p[2]] ?? p[2];
+            : p[2] === "collision"
+              ? `capsule${p[3] !== undefined ? ` ${Number(p[3]) + 1}` : "s"}${capsuleField(p.slice(4))}`
+              : (JOINT_LABEL as Record<string, string>)[p[2]] ?? p[2];
     return `joint ${n} ${f}`;
   }
   if (p[0] === "specs") {
     if (p[1] === "wristAllowables" && p.length >= 3) return `wrist row ${Number(p[2]) + 1}${p[3] ? " " + p[3] : ""}`;
     return SPEC_LABEL[p[1]] ?? p[1] ?? "specs";
   }
+  if (p[0] === "baseCollision") return `base capsule${p[1] !== undefined ? ` ${Number(p[1]) + 1}` : "s"}${capsuleField(p.slice(2))}`;
+  if (p[0] === "collision") return `capsule ${Number(p[1]) + 1}${p[2] ? " " + (CAPSULE_CELL_LABEL[p[2]] ?? p[2]) : ""}`;
+  if (p[0] === "ignoredPairs") return `ignored pair${p[1] !== undefined ? ` ${Number(p[1]) + 1}` : "s"}`;
   if (p[0] === "base") return "base transform";
   if (p[0] === "tool") return "tool transform";
   return p[0] === "modelCode" ? "model code" : p[0] || "arm";
+}
+
+const CAPSULE_CELL_LABEL: Record<string, string> = { link: "body", fx: "from x", fy: "from y", fz: "from z", tx: "to x", ty: "to y", tz: "to z", r: "radius" };
+
+/** " from x", " radius", … for the tail of a capsule's error path. */
+function capsuleField(rest: string[]): string {
+  if (rest.length === 0) return "";
+  const [f, k] = rest;
+  return ` ${f}${k !== undefined ? " " + ("xyz"[Number(k)] ?? k) : ""}`;
 }
 
 export { describeError } from "../formDoc";

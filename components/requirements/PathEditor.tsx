@@ -1,6 +1,6 @@
 "use client";
 import { CONSTRAINT_MODES } from "@/shared/schemas";
-import { CellNumber, NumberField, SelectField, TextField } from "../fields";
+import { CellNumber, NumberField, SelectField, TextField, wholeErrors } from "../fields";
 import { newPath, newWaypoint, type PathForm, type WaypointRow } from "./reqForm";
 import { RowActionsCell } from "../RowControls";
 
@@ -42,6 +42,15 @@ export function PathEditor(props: { paths: PathForm[]; onChange: (paths: PathFor
               />
               <NumberField label="Sample step" name={`${pre}.step`} unit="mm" value={p.step} onChange={(v) => setPath(i, { step: v })} error={e(`${pre}.step`)} readOnly={readOnly} />
               <NumberField label="Required tool speed" name={`${pre}.speed`} unit="mm/s" value={p.speed} onChange={(v) => setPath(i, { speed: v })} error={e(`${pre}.speed`)} readOnly={readOnly} />
+              <TextField
+                label="Contact along the path"
+                hint="obstacle names the tool and payload may touch, comma-separated"
+                name={`${pre}.contact`}
+                value={p.contact}
+                onChange={(v) => setPath(i, { contact: v })}
+                error={wholeErrors(errors, `${pre}.contact`)}
+                readOnly={readOnly}
+              />
             </div>
             <div className="table-wrap">
               <table className="cell-table">

@@ -9,6 +9,8 @@ import { WEIGHT_KEYS, WEIGHT_LABEL, emptyReqForm, formatReqValue, reqFormFromDoc
 import { TargetTable } from "./TargetTable";
 import { PathEditor } from "./PathEditor";
 import { SpecTable } from "./SpecTable";
+import { ShapeTable } from "./ShapeTable";
+import { CellCaution } from "../CellCaution";
 
 interface Props {
   id?: string;
@@ -19,6 +21,8 @@ interface Props {
   deleted?: boolean;
   /** Just created: say so once. */
   created?: boolean;
+  /** What the reader converted when the file was imported (shown once). */
+  notices?: string[];
 }
 
 /** A transform is shown as one pose, not as 16 matrix cells. */
@@ -113,12 +117,82 @@ export function RequirementEditor(props: Props) {
         </fieldset>
       </div>
 
+      <fieldset className="panel" data-testid="cell-panel">
+        <legend>Cell: obstacles and clearance</legend>
+        <p className="hint">
+          Obstacles are rigid shapes in the cell frame: a centre x y z in mm and an orientation as roll pitch yaw in ° (about the fixed cell axes), with sizes in mm. Box: full sides along its own
+          x, y, z. Sphere: radius. Cylinder: radius and full length along its own z. Capsule: radius and the length of its axis along its own z. Names must be unique; targets and paths name the
+          obstacles their tool or payload may touch.
+        </p>
+        <div className="grid">
+          <NumberField
+            label="Required clearance"
+            hint="between every checked pair of bodies"
+            name="cell.clearance"
+            unit="mm"
+            value={form.clearance}
+            readOnly={readOnly}
+            error={errText(errMap, "cell.clearance")}
+            onChange={(v) => update({ clearance: v })}
+          />
+        </div>
+        <ShapeTable
+          rows={form.obstacles}
+          errors={errMap}
+          readOnly={readOnly}
+          prefix="cell.obstacles"
+          noun="obstacle"
+          named
+          shapes={["box", "sphere", "cylinder", "capsule"]}
+          caption="Obstacles in the cell frame"
+          testId="obstacle-table"
+          onChange={(rows, s) => update({ obstacles: rows }, s)}
+        />
+        <CellCaution />
+      </fieldset>
+
+      <div className="two-col">
+        <fieldset className="panel" data-testid="tool-shapes-panel">
+          <legend>Tool collision shapes</legend>
+          <p className="hint">Capsules or boxes in the arm&apos;s tool-point frame (the frame of the tool CoG): the gripper, spindle or screwdriver as it is built.</p>
+          <ShapeTable
+            rows={form.toolShapes}
+            errors={errMap}
+            readOnly={readOnly}
+            prefix="tool.collision"
+            noun="tool shape"
+            named={false}
+            shapes={["capsule", "box"]}
+            caption="Tool collision shapes in the tool-point frame"
+            testId="tool-shape-table"
+            onChange={(rows, s) => update({ toolShapes: rows }, s)}
+          />
+        </fieldset>
+        <fieldset className="panel" data-testid="payload-shapes-panel">
+          <legend>Payload collision shapes</legend>
+          <p className="hint">Capsules or boxes in the TCP frame (the frame of the payload CoG): the part as it is held.</p>
+          <ShapeTable
+            rows={form.payloadShapes}
+            errors={errMap}
+            readOnly={readOnly}
+            prefix="payload.collision"
+            noun="payload shape"
+            named={false}
+            shapes={["capsule", "box"]}
+            caption="Payload collision shapes in the TCP frame"
+            testId="payload-shape-table"
+            onChange={(rows, s) => update({ payloadShapes: rows }, s)}
+          />
+        </fieldset>
+      </div>
+
       <fieldset className="panel">
         <legend>Targets</legend>
         <p className="hint">
           TCP poses in the cell frame, orientation as roll-pitch-yaw about the fixed cell axes X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll). Mode: <strong>pose</strong> = full position and orientation;{" "}
           <strong>axis</strong> = position and tool z-axis, free spin about it; <strong>point</strong> = position only. Force and moment (optional) are what the tool applies to the environment, in
-          the cell frame; leave all three empty for none, an empty cell next to a filled one counts as 0.
+          the cell frame; leave all three empty for none, an empty cell next to a filled one counts as 0. Contact: obstacle names (comma-separated) the tool and payload may touch at the
+          target, such as the fixture a part is placed in; the links may touch nothing.
         </p>
         <TargetTable rows={form.targets} errors={errMap} readOnly={readOnly} onChange={(rows, s) => update({ targets: rows }, s)} />
       </fieldset>

@@ -1,6 +1,6 @@
 "use client";
 import { CONSTRAINT_MODES } from "@/shared/schemas";
-import { CellNumber } from "../fields";
+import { CellNumber, wholeErrors } from "../fields";
 import { newTarget, type TargetRow } from "./reqForm";
 import { RowActionsCell } from "../RowControls";
 
@@ -30,6 +30,7 @@ export function TargetTable(props: { rows: TargetRow[]; onChange: (rows: TargetR
   const { rows, errors, readOnly } = props;
   const set = (i: number, patch: Partial<TargetRow>) => props.onChange(rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
   const err = (paths: string[]) => paths.flatMap((p) => errors[p] ?? []).join("; ") || undefined;
+  const contactErr = (i: number) => wholeErrors(errors, `targets.${i}.contact`);
   const cell = (r: TargetRow, i: number, c: (typeof COLS)[number]) => (
     <td key={c.key}>
       <CellNumber
@@ -66,6 +67,7 @@ export function TargetTable(props: { rows: TargetRow[]; onChange: (rows: TargetR
                     {c.label} ({c.unit})
                   </th>
                 ))}
+                <th scope="col">Contact (obstacles)</th>
                 {!readOnly && <th scope="col">Order</th>}
               </tr>
             </thead>
@@ -100,6 +102,19 @@ export function TargetTable(props: { rows: TargetRow[]; onChange: (rows: TargetR
                     </select>
                   </td>
                   {FORCE.map((c) => cell(r, i, c))}
+                  <td>
+                    <input
+                      className="name"
+                      aria-label={`target ${i + 1} contact: obstacle names, comma-separated`}
+                      name={`targets.${i}.contact`}
+                      value={r.contact}
+                      readOnly={readOnly}
+                      placeholder="none"
+                      aria-invalid={contactErr(i) ? true : undefined}
+                      onChange={(e) => set(i, { contact: e.target.value })}
+                    />
+                    {contactErr(i) && <span className="err">{contactErr(i)}</span>}
+                  </td>
                   {!readOnly && <RowActionsCell rows={rows} index={i} label={`target ${i + 1}`} onChange={(next) => props.onChange(next, true)} />}
                 </tr>
               ))}

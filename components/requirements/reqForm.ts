@@ -5,6 +5,7 @@
  */
 import {
   COMPARATORS,
+  DEFAULT_CLEARANCE,
   DEFAULT_WEIGHTS,
   SPEC_FIELDS,
   requirementSetSchema,
@@ -19,6 +20,7 @@ import { SUB_SCORES } from "@/shared/sub-scores";
 import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { checkFormDoc } from "../formDoc";
 import { matrixPose, parseNum, poseMatrix, rowKey, show, type PoseText } from "../pose";
+import { shapeRowFromDoc, shapeRowToDoc, type ShapeRow } from "./shapes";
 
 type Conv = "mm" | "deg" | "same";
 const toShown = (c: Conv, si: number) => (c === "mm" ? mToMm(si) : c === "deg" ? radToDeg(si) : si);
@@ -34,6 +36,8 @@ export interface TargetRow {
   rotTol: string;
   fx: string; fy: string; fz: string;
   mx: string; my: string; mz: string;
+  /** Obstacle names the tool and payload may touch here, comma-separated. */
+  contact: string;
 }
 export interface WaypointRow {
   key: string;
@@ -46,6 +50,8 @@ export interface PathForm {
   mode: ConstraintMode;
   step: string;
   speed: string;
+  /** Obstacle names the tool and payload may touch along the path, comma-separated. */
+  contact: string;
   waypoints: WaypointRow[];
 }
 export interface SpecRow {
@@ -70,12 +76,18 @@ export interface ReqForm {
   toolCog: [string, string, string];
   payloadMass: string;
   payloadCog: [string, string, string];
+  /** Tool shapes (tool-point frame) and payload shapes (TCP frame). */
+  toolShapes: ShapeRow[];
+  payloadShapes: ShapeRow[];
+  /** Cell obstacles (cell frame) and the required clearance (mm). */
+  obstacles: ShapeRow[];
+  clearance: string;
   targets: TargetRow[];
   paths: PathForm[];
   specs: SpecRow[];
   weights: Record<WeightKey, string>;
   /** Parts the form does not edit, carried through unchanged. */
-  keep: { toolInertia?: [number, number, number]; payloadInertia?: [number, number, number]; obstacles?: RequirementSet["obstacles"] };
+  keep: { toolInertia?: [number, number, number]; payloadInertia?: [number, number, number] };
   /** Loaded values: id → text shown and SI value. */
   orig: Record<string, { text: string; si: number }>;
   /** Loaded transforms: id → texts and matrix. */
@@ -101,14 +113,14 @@ export function specUnit(field: SpecField): string {
 }
 
 export function newTarget(n: number): TargetRow {
-  return { key: rowKey(), name: `T${n}`, x: "500", y: "0", z: "300", roll: "180", pitch: "0", yaw: "0", mode: "pose", posTol: "0.01", rotTol: "0.01", fx: "", fy: "", fz: "", mx: "", my: "", mz: "" };
+  return { key: rowKey(), name: `T${n}`, x: "500", y: "0", z: "300", roll: "180", pitch: "0", yaw: "0", mode: "pose", posTol: "0.01", rotTol: "0.01", fx: "", fy: "", fz: "", mx: "", my: "", mz: "", contact: "" };
 }
 export function newWaypoint(from?: WaypointRow): WaypointRow {
   return from ? { ...from, key: rowKey() } : { key: rowKey(), x: "500", y: "0", z: "300", roll: "180", pitch: "0", yaw: "0" };
 }
 export function newPath(n: number): PathForm {
   const a = newWaypoint();
-  return { key: rowKey(), name: `Path ${n}`, mode: "axis", step: "5", speed: "100", waypoints: [a, { ...newWaypoint(a), y: "200" }] };
+  return { key: rowKey(), name: `Path ${n}`, mode: "axis", step: "5", speed: "100", contact: "", waypoints: [a, { ...newWaypoint(a), y: "200" }] };
 }
 export function newSpec(): SpecRow {
   return { key: rowKey(), field: "ratedPayload", comparator: "atLeast", value: "", priority: "must", note: "" };
@@ -126,6 +138,10 @@ export function emptyReqForm(): ReqForm {
     toolCog: ["0", "0", "0"],
     payloadMass: "0",
     payloadCog: ["0", "0", "0"],
+    toolShapes: [],
+    payloadShapes: [],
+    obstacles: [],
+    clearance: show(DEFAULT_CLEARANCE * 1000),
     targets: [],
     paths: [],
     specs: [],
@@ -166,6 +182,7 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
       rotTol: t(`${key}.rotTol`, tg.rotationTolerance, "deg"),
       fx: t(`${key}.fx`, tg.force?.[0], "same"), fy: t(`${key}.fy`, tg.force?.[1], "same"), fz: t(`${key}.fz`, tg.force?.[2], "same"),
       mx: t(`${key}.mx`, tg.moment?.[0], "same"), my: t(`${key}.my`, tg.moment?.[1], "same"), mz: t(`${key}.mz`, tg.moment?.[2], "same"),
+      contact: (tg.contact ?? []).join(", "),
     };
   });
   const paths = doc.paths.map((p): PathForm => {
@@ -176,6 +193,7 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
       mode: p.mode,
       step: t(`${key}.step`, p.step, "mm"),
       speed: t(`${key}.speed`, p.speed, "mm"),
+      contact: (p.contact ?? []).join(", "),
       waypoints: p.waypoints.map((w) => {
         const k = rowKey();
         return {
@@ -206,11 +224,15 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
     toolCog: [t("toolCog.0", doc.tool.cog[0], "mm"), t("toolCog.1", doc.tool.cog[1], "mm"), t("toolCog.2", doc.tool.cog[2], "mm")],
     payloadMass: t("payloadMass", doc.payload.mass, "same"),
     payloadCog: [t("payloadCog.0", doc.payload.cog[0], "mm"), t("payloadCog.1", doc.payload.cog[1], "mm"), t("payloadCog.2", doc.payload.cog[2], "mm")],
+    toolShapes: (doc.tool.collision ?? []).map(shapeRowFromDoc),
+    payloadShapes: (doc.payload.collision ?? []).map(shapeRowFromDoc),
+    obstacles: (doc.cell?.obstacles ?? []).map(shapeRowFromDoc),
+    clearance: t("clearance", doc.cell?.clearance ?? DEFAULT_CLEARANCE, "mm"),
     targets,
     paths,
     specs,
     weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, t(`w.${k}`, w[k], "same")])) as Record<WeightKey, string>,
-    keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia, obstacles: doc.obstacles },
+    keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia },
     orig,
     origPose,
   };
@@ -261,12 +283,16 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     if (force) target.force = force;
     const moment = vec([`${k}.mx`, `${k}.my`, `${k}.mz`], [t.mx, t.my, t.mz], "same", `targets.${i}.moment`, `${w} moment`, true);
     if (moment) target.moment = moment;
+    const contact = nameList(t.contact);
+    if (contact.length) target.contact = contact;
     return target;
   });
 
   const paths = form.paths.map((p, i) => {
     const w = `path ${i + 1}${p.name.trim() ? ` (${p.name.trim()})` : ""}`;
+    const contact = nameList(p.contact);
     return {
+      ...(contact.length ? { contact } : {}),
       name: p.name,
       mode: p.mode,
       step: num(`${p.key}.step`, p.step, "mm", `paths.${i}.step`, `${w} sample step`) ?? 0,
@@ -302,11 +328,17 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     cog: vec(["toolCog.0", "toolCog.1", "toolCog.2"], form.toolCog, "mm", "tool.cog", "tool CoG", false)!,
   };
   if (form.keep.toolInertia) tool.inertia = form.keep.toolInertia;
+  if (form.toolShapes.length) tool.collision = form.toolShapes.map((r, i) => shapeRowToDoc(r, `tool.collision.${i}`, `tool shape ${i + 1}`, errors, { named: false }) as NonNullable<RequirementSet["tool"]["collision"]>[number]);
   const payload: RequirementSet["payload"] = {
     mass: num("payloadMass", form.payloadMass, "same", "payload.mass", "payload mass") ?? 0,
     cog: vec(["payloadCog.0", "payloadCog.1", "payloadCog.2"], form.payloadCog, "mm", "payload.cog", "payload CoG", false)!,
   };
   if (form.keep.payloadInertia) payload.inertia = form.keep.payloadInertia;
+  if (form.payloadShapes.length) payload.collision = form.payloadShapes.map((r, i) => shapeRowToDoc(r, `payload.collision.${i}`, `payload shape ${i + 1}`, errors, { named: false }) as NonNullable<RequirementSet["payload"]["collision"]>[number]);
+  const cell: RequirementSet["cell"] = {
+    obstacles: form.obstacles.map((r, i) => shapeRowToDoc(r, `cell.obstacles.${i}`, `obstacle ${i + 1}${r.name.trim() ? ` (${r.name.trim()})` : ""}`, errors, { named: true }) as RequirementSet["cell"]["obstacles"][number]),
+    clearance: num("clearance", form.clearance, "mm", "cell.clearance", "required clearance") ?? DEFAULT_CLEARANCE,
+  };
 
   const doc: RequirementSet = {
     name: form.name,
@@ -316,11 +348,16 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     targets,
     paths,
     specs,
+    cell,
     weights,
   };
   if (form.description.trim()) doc.description = form.description;
-  if (form.keep.obstacles) doc.obstacles = form.keep.obstacles;
   return { doc, errors };
+}
+
+/** Names typed as a comma-separated list (empty entries dropped). */
+export function nameList(text: string): string[] {
+  return text.split(",").map((x) => x.trim()).filter(Boolean);
 }
 
 export function validateReqForm(form: ReqForm): { doc: RequirementSet; errors: FieldError[] } {
@@ -339,6 +376,7 @@ export function reqPathLabel(path: string): string {
       if (p[2] === "position") return `${n} position${axis(p[3])}`;
       if (p[2] === "positionTolerance") return `${n} position tolerance`;
       if (p[2] === "rotationTolerance") return `${n} rotation tolerance`;
+      if (p[2] === "contact") return `${n} contact`;
       return p[2] ? `${n} ${p[2]}${axis(p[3])}` : n;
     }
     case "paths": {
@@ -352,14 +390,29 @@ export function reqPathLabel(path: string): string {
     case "weights":
       return p[1] ? `${WEIGHT_LABEL[p[1] as WeightKey] ?? p[1]} weight` : "weights";
     case "tool":
-      return p[1] === "tcp" ? "TCP offset" : `tool ${p[1] === "cog" ? "CoG" + axis(p[2]) : p[1] ?? ""}`.trim();
     case "payload":
-      return `payload ${p[1] === "cog" ? "CoG" + axis(p[2]) : p[1] ?? ""}`.trim();
+      if (p[1] === "collision" && p.length >= 3) return `${p[0]} shape ${Number(p[2]) + 1}${p[3] ? " " + shapeField(p.slice(3)) : ""}`;
+      if (p[0] === "tool" && p[1] === "tcp") return "TCP offset";
+      return `${p[0]} ${p[1] === "cog" ? "CoG" + axis(p[2]) : p[1] ?? ""}`.trim();
     case "base":
       return "base placement";
+    case "cell": {
+      if (p[1] === "clearance") return "required clearance";
+      if (p[1] !== "obstacles" || p.length < 3) return "cell obstacles";
+      return `obstacle ${Number(p[2]) + 1}${p[3] ? " " + shapeField(p.slice(3)) : ""}`;
+    }
     default:
       return p[0] || "requirement set";
   }
+}
+
+/** "size 2", "radius", "centre x", "x", … for the tail of a shape's error path. */
+function shapeField(rest: string[]): string {
+  const [f, k] = rest;
+  if (f === "size") return k === undefined ? "size" : `${["x", "y", "z"][Number(k)] ?? k} side`;
+  if (f === "center" || f === "from" || f === "to") return `${f === "center" ? "centre" : f}${k === undefined ? "" : " " + (["x", "y", "z"][Number(k)] ?? k)}`;
+  if (f === "pose") return "placement";
+  return f;
 }
 
 /** Readable values for the conflict list. */
@@ -375,6 +428,7 @@ export function formatReqValue(path: string, value: unknown): string {
     const parent = p[p.length - 2];
     if (parent === "rpy" || last === "rotationTolerance") return `${show(radToDeg(value))}°`;
     if (parent === "position" || parent === "cog" || last === "positionTolerance" || last === "step") return `${show(mToMm(value))} mm`;
+    if (last === "clearance" || last === "radius" || last === "length" || parent === "size" || parent === "center" || parent === "from" || parent === "to") return `${show(mToMm(value))} mm`;
     if (last === "speed") return `${show(mToMm(value))} mm/s`;
     if (parent === "force") return `${show(value)} N`;
     if (parent === "moment") return `${show(value)} N·m`;

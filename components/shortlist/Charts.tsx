@@ -5,8 +5,14 @@ import { useMounted } from "./useMounted";
 
 export interface PathProfileData {
   name: string;
-  /** Arc length (mm), σ_min of the translational block (mm/rad), joint speed use (% of the limiting joint's maximum). */
-  points: { s: number; sigma: number | null; speedUse: number | null }[];
+  /**
+   * Arc length (mm), σ_min of the translational block (mm/rad), joint speed use with the best
+   * joint speeds at each sample (% of the limiting joint's maximum: 100 / exact speed ratio) and
+   * the joint speed use of the joint trajectory found (%, from its own differences).
+   */
+  points: { s: number; sigma: number | null; speedUse: number | null; trajectoryUse: number | null }[];
+  /** Some segment only turns the tool: it has no speed requirement (no speed values there). */
+  rotationOnly: boolean;
 }
 
 const SIZE = { width: 420, height: 220 };
@@ -19,6 +25,8 @@ export function PathProfileChart({ data }: { data: PathProfileData }) {
     <figure className="chart">
       <figcaption>
         Path <strong>{data.name}</strong>: smallest singular value of the translational Jacobian and the joint speed used at the required tool speed
+        (dashed: with the best joint speeds at each sample; solid: by the joint trajectory found)
+        {data.rotationOnly ? ". Segments that only turn the tool have no speed requirement and no speed values." : ""}
       </figcaption>
       <div className="chart-pair">
         <ResponsiveContainer width="100%" height={200} initialDimension={SIZE}>
@@ -37,7 +45,8 @@ export function PathProfileChart({ data }: { data: PathProfileData }) {
             <YAxis tick={{ fontSize: 11 }} width={62} label={{ value: "joint speed use (%)", angle: -90, position: "insideLeft", offset: 4, fontSize: 11, style: { textAnchor: "middle" } }} />
             <ReferenceLine y={100} stroke="#a3231a" strokeDasharray="5 3" label={{ value: "joint limit", fontSize: 10, position: "insideTopRight" }} />
             <Tooltip formatter={(v) => `${fmtNum(Number(v), 0)} %`} labelFormatter={(s) => `s = ${fmtNum(Number(s), 0)} mm`} />
-            <Line type="linear" dataKey="speedUse" name="joint speed use (%)" stroke="#8a6d2f" strokeDasharray="6 2" dot={false} isAnimationActive={false} connectNulls={false} />
+            <Line type="linear" dataKey="speedUse" name="best joint speeds (%)" stroke="#8a6d2f" strokeDasharray="6 2" dot={false} isAnimationActive={false} connectNulls={false} />
+            <Line type="linear" dataKey="trajectoryUse" name="trajectory found (%)" stroke="#5b4a8a" dot={false} isAnimationActive={false} connectNulls={false} />
           </LineChart>
         </ResponsiveContainer>
       </div>

@@ -45,7 +45,7 @@ function pathCell(p: PathAnalysis): MatrixCell {
   if (p.limitHits.length) details.push(`${p.limitHits.length} sample${p.limitHits.length === 1 ? "" : "s"} at a joint limit`);
   const limiting = p.reached < p.samples ? "part of the path is not reached"
     : p.flips.length ? "configuration flip along the path"
-    : p.speed.limitingJoint !== null ? `joint ${p.speed.limitingJoint} speed (${p.speed.achievableFraction !== null ? `${fmtNum(p.speed.achievableFraction * 100, 0)} % of the required tool speed possible` : "unknown"})`
+    : p.speed.limitingJoint !== null ? `joint ${p.speed.limitingJoint} ${p.speed.limitingAtPositionLimit ? "at its position limit" : "speed"} (${p.speed.achievableFraction !== null ? `${fmtNum(p.speed.achievableFraction * 100, 0)} % of the required tool speed possible` : "unknown"})`
     : p.speed.note;
   return { kind: "path", name: p.name, verdict: p.verdict, margin: p.minDexterityMargin, limiting, reason: p.reason, details };
 }
@@ -75,13 +75,15 @@ export function pathProfile(p: PathAnalysis): PathProfileData {
   for (let i = 0; i < n; i += stride) {
     const sig = p.profile.sigmaMinTranslation[i];
     const ratio = p.profile.speedRatio[i];
+    const traj = p.profile.trajectorySpeedRatio?.[i] ?? null;
     points.push({
       s: Math.round(mm(p.profile.s[i]) * 10) / 10,
       sigma: sig === null ? null : Math.round(mm(sig) * 10) / 10,
       speedUse: ratio === null || !(ratio > 0) ? null : Math.round((100 / ratio) * 10) / 10,
+      trajectoryUse: traj === null || !(traj > 0) ? null : Math.round((100 / traj) * 10) / 10,
     });
   }
-  return { name: p.name, points };
+  return { name: p.name, points, rotationOnly: p.speed.rotationOnlySegments ?? false };
 }
 
 export function workspaceData(arm: ArmAnalysis): WorkspaceData | null {

@@ -4,7 +4,7 @@
  *
  * Translation (rows 0–2, m/rad) and rotation (rows 3–5, rad/rad) are always treated separately:
  * a condition number of the mixed 6×n matrix would depend on the length unit (Angeles; the
- * warning in REFERENCES.md §2.1). Measures offered per block:
+ * warning in docs/references.md#condition-number-and-isotropy). Measures offered per block:
  * - singular values σ₁ ≥ σ₂ ≥ σ₃ and principal directions (the velocity ellipsoid's axes);
  * - Yoshikawa manipulability w = σ₁σ₂…σ_r = sqrt(det(J Jᵀ)) over the block's rank r
  *   (Yoshikawa, "Manipulability of robotic mechanisms", IJRR 4(2), 1985);

@@ -14,3 +14,5 @@ export * from "./paths";
 export * from "./workspace";
 export * from "./shortlist";
 export { createArmContext, type ArmContext } from "./context";
+export * from "./copies";
+export * from "./speed";

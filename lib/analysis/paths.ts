@@ -1,24 +1,31 @@
 /**
  * Path analysis: samples along the waypoints (position linear, orientation by slerp), IK by
- * continuation from the previous sample, configuration flips and limit hits, the joint speeds the
- * required tool speed needs (q̇ = A⁺·ẋ for the task rows of the Jacobian), the achievable fraction
- * of the required speed, and profiles of the smallest singular value and the dexterity margin.
+ * continuation from the previous sample, configuration flips and limit hits, the exact achievable
+ * tool speed at every sample (the largest multiple of the required task velocity the joints can
+ * give under their speed limits and position limits, speed.ts), the speed the returned joint
+ * trajectory itself allows, and profiles of the smallest singular value and the dexterity margin.
  */
 import type { PathSpec } from "@/shared/schemas/requirements";
-import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount, taskVelocityInto, type IkResult } from "@/lib/kinematics";
+import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount, taskVelocityInto, type ArmModel, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
+import { centredCopy } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
 import { poseFromQuaternion, poseFromRpy, quaternionOf, relativeRotation, slerp } from "./geometry";
-import { determinant, pseudoInverseSolve, svdRows } from "./linalg";
+import { determinant } from "./linalg";
+import { AT_LIMIT_FRACTION, maxSpeedScale, speedBounds, type SpeedScale } from "./speed";
 import type { Verdict } from "./types";
 
 /** A joint jump between neighbouring samples larger than this (rad) is a configuration flip. */
 export const FLIP_JUMP = (30 * Math.PI) / 180;
 /** For prismatic joints: a jump larger than this fraction of the range is a flip. */
 export const FLIP_JUMP_PRISMATIC_FRACTION = 0.1;
-/** A joint within this normalised margin of a limit (0.5 % of its range from an end) is a limit hit. */
-export const LIMIT_HIT_MARGIN = 0.01;
+/**
+ * A joint within this normalised margin of a limit is a limit hit: 2·AT_LIMIT_FRACTION, i.e. within
+ * 0.5 % of its range from an end, the band in which the exact speed lets it move only away from
+ * that limit.
+ */
+export const LIMIT_HIT_MARGIN = 2 * AT_LIMIT_FRACTION;
 /** The speed ratio needed for `meets`; between 1 and this it is `marginal` (20 % headroom). */
 export const SPEED_MARGINAL_RATIO = 1.2;
 /** Sampling step for rotation-only segments (rad). */
@@ -75,14 +82,37 @@ export interface PathAnalysis {
   /** Samples with a joint at (within 0.5 % of range of) a limit. */
   limitHits: PathEvent[];
   speed: {
-    /** Required TCP speed (m/s). */
+    /** Required TCP speed (m/s); rotation-only segments carry no speed requirement. */
     required: number;
-    /** min over samples and joints of maxSpeed/|q̇|, uncapped; null when no joint has a speed limit. */
+    /**
+     * Exact: min over the samples of the largest s with A·q̇ = s·ẋ, |q̇ⱼ| ≤ maxSpeedⱼ and no joint
+     * moving past a limit it sits at (speed.ts); uncapped; null when no joint has a speed limit or
+     * nothing bounds it.
+     */
     ratio: number | null;
     /** min(1, ratio): the fraction of the required speed the joints allow. */
     achievableFraction: number | null;
+    /**
+     * 1-based joint whose limits, lifted alone, would raise the ratio most at the limiting sample
+     * (ties: the lowest), or null.
+     */
     limitingJoint: number | null;
+    /** True when that joint sits at a position limit there (it blocks by position, not by speed). */
+    limitingAtPositionLimit: boolean;
     limitingSample: number | null;
+    /**
+     * The ratio the returned joint trajectory itself allows: min over its segments of
+     * maxSpeedⱼ·Δt/|Δqⱼ| with Δt = Δs/required speed (from the trajectory's own differences);
+     * null when not computable. Below 1 the trajectory as returned needs more than the limits,
+     * even where the exact ratio says a better joint motion exists.
+     */
+    trajectoryRatio: number | null;
+    trajectoryLimitingJoint: number | null;
+    /**
+     * True when some segment only turns the tool (no position change): such segments carry no
+     * speed requirement (the required speed is a tool-point speed), so their samples have no ratio.
+     */
+    rotationOnlySegments: boolean;
     note: string;
   };
   /** Smallest dexterity margin over the reached samples (null when none). */
@@ -92,7 +122,10 @@ export interface PathAnalysis {
     s: number[];
     sigmaMinTranslation: (number | null)[];
     dexterityMargin: (number | null)[];
+    /** The exact speed ratio at each sample (null: not reached, no requirement, or unbounded). */
     speedRatio: (number | null)[];
+    /** The ratio the returned joint trajectory allows at each sample (its adjacent segments). */
+    trajectorySpeedRatio: (number | null)[];
   };
   /** Joint values at each sample (rad or m), for plotting; null where not reached. */
   q: (number[] | null)[];
@@ -148,7 +181,9 @@ export function analyzePath(ctx: ArmContext, path: PathSpec, budget: PathBudget,
   const starts = solveIkMulti(model, data, samples[0].pose, { ...opts, maxRestarts: 12, maxSolutions: Math.max(1, budget.startBranches), seed })
     .filter((r) => r.status === "reached");
   // Try start branches in order of their dexterity margin; keep the first that carries through.
-  const ranked = starts.map((r) => {
+  // Each start as its in-limit copy farthest from the joint limits (copies.ts): the most room to move.
+  const ranked = starts.map((r0) => {
+    const r = { ...r0, q: centredCopy(model, r0.q).q };
     computeJacobian(model, data, r.q, ctx.jac);
     return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks, data.toolPose).margin };
   }).sort((a, b) => b.m - a.m);
@@ -210,13 +245,11 @@ function traverse(ctx: ArmContext, path: PathSpec, samples: Sample[], start: IkR
     if (prev) {
       let worst = 0, wj = -1, wRatio = 0;
       for (let i = 0; i < n; i++) {
-        let d = q[i] - prev[i];
-        let limit = FLIP_JUMP;
-        if (model.prismatic[i] === 0) {
-          d = Math.atan2(Math.sin(d), Math.cos(d));
-        } else {
-          limit = FLIP_JUMP_PRISMATIC_FRACTION * (model.upper[i] - model.lower[i]);
-        }
+        // The plain difference, never modulo 2π: both values lie within the joint's limits, and a
+        // limited joint moves along its range (it cannot take the short way round through values
+        // outside it), so a 2π change is a full unwinding, not a small step.
+        const d = q[i] - prev[i];
+        const limit = model.prismatic[i] === 0 ? FLIP_JUMP : FLIP_JUMP_PRISMATIC_FRACTION * (model.upper[i] - model.lower[i]);
         const ratio = Math.abs(d) / limit;
         if (ratio > wRatio) { wRatio = ratio; worst = Math.abs(d); wj = i; }
       }
@@ -257,16 +290,17 @@ function taskJacobian(ctx: ArmContext, q: Float64Array, mode: PathSpec["mode"]):
 function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Traversal, length: number, step: number, coarsened: boolean): PathAnalysis {
   const { model } = ctx;
   const n = model.n;
-  const prof = { s: [] as number[], sigmaMinTranslation: [] as (number | null)[], dexterityMargin: [] as (number | null)[], speedRatio: [] as (number | null)[] };
+  const prof = { s: [] as number[], sigmaMinTranslation: [] as (number | null)[], dexterityMargin: [] as (number | null)[], speedRatio: [] as (number | null)[], trajectorySpeedRatio: [] as (number | null)[] };
   const limitHits: PathEvent[] = [];
-  let ratio: number | null = null, limJoint: number | null = null, limSample: number | null = null;
+  let ratio: number | null = null, limSample: number | null = null;
+  let limiting: { task: Float64Array; rows: number; b: Float64Array; q: Float64Array } | null = null;
   let minMargin: number | null = null;
   let rotationOnly = false;
   samples.forEach((smp, k) => {
     prof.s.push(smp.s);
     const q = tr.qs[k];
     if (!q) { prof.sigmaMinTranslation.push(null); prof.dexterityMargin.push(null); prof.speedRatio.push(null); return; }
-    const task = taskJacobian(ctx, q, path.mode); // also leaves the full Jacobian in ctx.jac
+    const task = taskJacobian(ctx, q, path.mode); // also leaves the full Jacobian in ctx.jac and FK at q
     const dex = dexterityAt(ctx.jac, n, model, q, path.mode, ctx.ranks, ctx.data.toolPose);
     prof.sigmaMinTranslation.push(dex.translation.minSingularValue);
     prof.dexterityMargin.push(dex.margin);
@@ -277,25 +311,23 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
       }
     }
     if (!smp.twist) { rotationOnly = true; prof.speedRatio.push(null); return; }
-    const tw = smp.twist;
+    if (!ctx.hasSpeedLimits) { prof.speedRatio.push(null); return; }
     const b = new Float64Array(task.rows);
-    taskVelocityInto(path.mode, tw, ctx.data.toolPose, b);
-    const qd = pseudoInverseSolve(svdRows(task.matrix, task.rows, n), b);
-    let r: number | null = null, rj: number | null = null;
-    for (let i = 0; i < n; i++) {
-      const vmax = model.maxSpeed[i];
-      if (!(vmax > 0)) continue;
-      const v = Math.abs(qd[i]);
-      const ri = v > 0 ? vmax / v : Infinity;
-      if (r === null || ri < r) { r = ri; rj = i + 1; }
-    }
-    prof.speedRatio.push(r === null || !Number.isFinite(r) ? null : r);
-    if (r !== null && (ratio === null || r < ratio)) { ratio = r; limJoint = rj; limSample = k; }
+    taskVelocityInto(path.mode, smp.twist, ctx.data.toolPose, b);
+    const r = exactSpeedRatio(model, task.matrix, task.rows, b, q).scale;
+    prof.speedRatio.push(Number.isFinite(r) ? r : null);
+    if (ratio === null || r < ratio) { ratio = r; limSample = k; limiting = { task: task.matrix, rows: task.rows, b, q }; }
   });
-  const finiteRatio = ratio !== null && Number.isFinite(ratio) ? (ratio as number) : ratio === null ? null : Infinity;
+  const traj = trajectoryRatios(ctx, path, samples, tr);
+  prof.trajectorySpeedRatio = traj.perSample;
+  const lim = limiting as { task: Float64Array; rows: number; b: Float64Array; q: Float64Array } | null;
+  const limJointInfo = lim && ratio !== null && Number.isFinite(ratio) ? limitingJointAt(model, lim.task, lim.rows, lim.b, lim.q, ratio) : { joint: null, atLimit: false };
+  const limJoint = limJointInfo.joint;
+  const finiteRatio = ratio;
   const fraction = finiteRatio === null ? null : Math.min(1, finiteRatio);
+  const limitWords = limJoint ? `, limited by joint ${limJoint}${limJointInfo.atLimit ? " at its position limit" : ""}` : "";
   const speedNote = !ctx.hasSpeedLimits ? "no joint speed limits on the datasheet: speed not checked"
-    : `${fraction !== null && fraction < 1 ? `${pct(fraction)} of` : "the full"} ${num(path.speed * 1000, 0)} mm/s${limJoint ? `, limited by joint ${limJoint}` : ""}` + (rotationOnly ? "; rotation-only segments have no speed requirement" : "");
+    : `${fraction !== null && fraction < 1 ? `${pct(fraction)} of` : "the full"} ${num(path.speed * 1000, 0)} mm/s${limitWords}` + (rotationOnly ? "; rotation-only segments have no speed requirement" : "");
 
   let verdict: Verdict = "meets";
   const parts: string[] = [];
@@ -320,11 +352,17 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
   if (!ctx.hasSpeedLimits) {
     if (verdict === "meets") verdict = "unknown";
     parts.push(speedNote);
-  } else if (finiteRatio !== null) {
+  } else if (finiteRatio !== null && Number.isFinite(finiteRatio)) {
     if (finiteRatio < 1) { verdict = "fails"; parts.push(`joint speeds allow ${speedNote}`); }
-    else if (finiteRatio < SPEED_MARGINAL_RATIO) { if (verdict === "meets") verdict = "marginal"; parts.push(`speed reached with less than ${pct(SPEED_MARGINAL_RATIO - 1)} headroom (joint ${limJoint})`); }
+    else if (finiteRatio < SPEED_MARGINAL_RATIO) { if (verdict === "meets") verdict = "marginal"; parts.push(`speed reached with less than ${pct(SPEED_MARGINAL_RATIO - 1)} headroom (joint ${limJoint}${limJointInfo.atLimit ? " at its position limit" : ""})`); }
     else parts.push(`speed ${num(path.speed * 1000, 0)} mm/s reached with ${num(finiteRatio, 2)}× headroom`);
+  } else if (finiteRatio !== null) {
+    parts.push(`speed ${num(path.speed * 1000, 0)} mm/s: no speed limit binds (joints without a limit can carry the motion)`);
   }
+  if (ctx.hasSpeedLimits && traj.min !== null && traj.min < 1) {
+    parts.push(`the joint trajectory found needs ${num(1 / traj.min, 2)}× joint ${traj.joint}'s speed limit at ${mm(samples[traj.sample!].s)}: as computed it would not keep the required speed (the achievable figure assumes the best joint speeds at every sample)`);
+  }
+  if (rotationOnly && !parts.some((x) => x.includes("rotation-only"))) parts.push("rotation-only segments have no speed requirement");
   if (minMargin !== null && minMargin < DEXTERITY_MARGINAL_THRESHOLD) {
     if (verdict === "meets") verdict = "marginal";
     parts.push(`dexterity margin drops to ${num(minMargin)}`);
@@ -334,7 +372,80 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
   return {
     name: path.name, mode: path.mode, verdict, reason: parts.join("; "), length, step, samples: samples.length, reached: reachedCount,
     firstUnreached: tr.firstUnreached, flips: tr.flips, restarts: tr.restarts, limitHits,
-    speed: { required: path.speed, ratio: finiteRatio === Infinity ? null : finiteRatio, achievableFraction: fraction, limitingJoint: limJoint, limitingSample: limSample, note: speedNote },
+    speed: {
+      required: path.speed, ratio: finiteRatio === null || !Number.isFinite(finiteRatio) ? null : finiteRatio, achievableFraction: fraction,
+      limitingJoint: limJoint, limitingAtPositionLimit: limJointInfo.atLimit, limitingSample: limSample,
+      trajectoryRatio: traj.min, trajectoryLimitingJoint: traj.joint, rotationOnlySegments: rotationOnly, note: speedNote,
+    },
     minDexterityMargin: minMargin, profile: prof, q: tr.qs.map((q) => (q ? Array.from(q) : null)),
   };
+}
+
+/**
+ * The exact speed ratio at one sample (speed.ts): the largest s with A·q̇ = s·b under the joints'
+ * speed limits, with joints at a position limit (within AT_LIMIT_FRACTION of the range) not moving
+ * beyond it. `task` is the m×n task Jacobian at q, `b` the required task velocity (m/s, rad/s).
+ */
+export function exactSpeedRatio(model: ArmModel, task: ArrayLike<number>, rows: number, b: ArrayLike<number>, q: ArrayLike<number>): SpeedScale {
+  const bounds = speedBounds(model.lower, model.upper, model.maxSpeed, q);
+  return maxSpeedScale(task, rows, model.n, b, bounds.lower, bounds.upper);
+}
+
+/**
+ * The exact speed ratio at configuration q for the required twist (v, ω) (cell frame, m/s and
+ * rad/s) of a path sample in `mode`: the figure analyzePath reports per sample. Uses ctx's buffers.
+ */
+export function speedRatioAt(ctx: ArmContext, q: ArrayLike<number>, twist: ArrayLike<number>, mode: PathSpec["mode"]): SpeedScale {
+  const task = taskJacobian(ctx, Float64Array.from(q), mode);
+  const b = new Float64Array(task.rows);
+  taskVelocityInto(mode, twist, ctx.data.toolPose, b);
+  return exactSpeedRatio(ctx.model, task.matrix, task.rows, b, q);
+}
+
+/**
+ * The joint that limits the ratio `base` at one sample: the one whose limits (speed and position),
+ * lifted alone, raise the ratio most (ties: the lowest index); null when lifting none helps.
+ */
+function limitingJointAt(model: ArmModel, task: Float64Array, rows: number, b: Float64Array, q: Float64Array, base: number): { joint: number | null; atLimit: boolean } {
+  const bounds = speedBounds(model.lower, model.upper, model.maxSpeed, q);
+  let best: number | null = null, bestScale = base * (1 + 1e-9);
+  for (let j = 0; j < model.n; j++) {
+    if (Number.isFinite(bounds.lower[j]) === false && Number.isFinite(bounds.upper[j]) === false) continue;
+    const lo = Float64Array.from(bounds.lower), hi = Float64Array.from(bounds.upper);
+    lo[j] = -Infinity; hi[j] = Infinity;
+    const s = maxSpeedScale(task, rows, model.n, b, lo, hi).scale;
+    if (s > bestScale) { bestScale = s; best = j; }
+  }
+  return { joint: best === null ? null : best + 1, atLimit: best !== null && bounds.atLimit[best] !== 0 };
+}
+
+/** Per-sample and minimum speed ratio of the returned joint trajectory (its own differences). */
+function trajectoryRatios(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Traversal): { perSample: (number | null)[]; min: number | null; joint: number | null; sample: number | null } {
+  const { model } = ctx;
+  const seg: (number | null)[] = [];
+  const segJoint: (number | null)[] = [];
+  for (let k = 0; k + 1 < samples.length; k++) {
+    const a = tr.qs[k], b = tr.qs[k + 1], ds = samples[k + 1].s - samples[k].s;
+    if (!a || !b || !ctx.hasSpeedLimits || !(ds > 1e-12)) { seg.push(null); segJoint.push(null); continue; }
+    const dt = ds / path.speed;
+    let r = Infinity, rj: number | null = null;
+    for (let j = 0; j < model.n; j++) {
+      const v = model.maxSpeed[j];
+      const dq = Math.abs(b[j] - a[j]);
+      if (!(v > 0) || !(dq > 0)) continue;
+      const rr = (v * dt) / dq;
+      if (rr < r) { r = rr; rj = j + 1; }
+    }
+    seg.push(Number.isFinite(r) ? r : null);
+    segJoint.push(rj);
+  }
+  const perSample: (number | null)[] = [];
+  let min: number | null = null, joint: number | null = null, sample: number | null = null;
+  for (let k = 0; k < samples.length; k++) {
+    const left = k > 0 ? seg[k - 1] : null, right = k < seg.length ? seg[k] : null;
+    const v = left === null ? right : right === null ? left : Math.min(left, right);
+    perSample.push(v);
+  }
+  seg.forEach((r, k) => { if (r !== null && (min === null || r < min)) { min = r; joint = segJoint[k]; sample = k + 1; } });
+  return { perSample, min, joint, sample };
 }

@@ -21,7 +21,7 @@ import type { Verdict } from "./types";
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
 export const ANALYSIS_VERSION = "analysis-1.4.0";
 
-/** Shown on every analysis page and export (RULES: the usual caution). */
+/** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
   "Armsift is a kinematic and static screening aid. It is not a substitute for the maker's data, a risk assessment (ISO 12100, ISO 10218-2), the collaborative-operation limits of ISO/TS 15066, or local codes and licensed engineering practice. Dynamics, deflection, collisions with the cell and cycle time are not analysed.";
 

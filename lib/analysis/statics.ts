@@ -5,7 +5,7 @@
  * Relations (Craig, "Introduction to Robotics", 3rd ed., ch. 5; Spong, Hutchinson & Vidyasagar,
  * "Robot Modeling and Control", ch. 4): the joint torques that balance a wrench W applied by the
  * tool to the environment at a point are τ = Jᵀ W (J the geometric Jacobian at that point). The
- * torque that holds masses mᵢ at points cᵢ still is τ_hold = Σ J_cᵢᵀ (0, 0, mᵢ g) (DESIGN.md).
+ * torque that holds masses mᵢ at points cᵢ still is τ_hold = Σ J_cᵢᵀ (0, 0, mᵢ g) (docs/design.md#statics).
  */
 import { STANDARD_GRAVITY } from "@/shared/units";
 import { computeJacobian, computeLinkPointJacobian, type ArmData, type ArmModel } from "@/lib/kinematics";
@@ -156,7 +156,7 @@ export interface PointLoad {
 
 /**
  * τ_hold(q) = Σ J_cᵢᵀ (0, 0, mᵢ g) over the model's links with a mass (at their `com`) and over
- * `loads` (DESIGN.md `statics`): the joint torques that hold the arm still against gravity along
+ * `loads` (docs/design.md#statics): the joint torques that hold the arm still against gravity along
  * −z of the model's world (the cell frame). Uses `jacBuf` (6n) as scratch; allocates the result.
  */
 export function gravityTorque(
@@ -195,7 +195,7 @@ export interface PayloadCapacity {
 
 /**
  * Largest mass m ≥ 0 at the point whose weight the joints can hold on top of `tauHold`: the ratio
- * test with b = J_pᵀ(0, 0, g) (REFERENCES.md §5: m_max = minᵢ headroomᵢ / (∂τᵢ/∂m), signs handled).
+ * test with b = J_pᵀ(0, 0, g) (docs/references.md#2r-gravity-and-payload-check-values: m_max = minᵢ headroomᵢ / (∂τᵢ/∂m), signs handled).
  * `jac` is the 6×n Jacobian at the point.
  */
 export function payloadCapacity(tauHold: ArrayLike<number>, jac: ArrayLike<number>, n: number, maxTorque: ArrayLike<number>): PayloadCapacity {

@@ -8,6 +8,7 @@ import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Target } from "@/shared/schemas/requirements";
 import { computeJacobian, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
+import { centredCopy, type JointCopyChoice } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
 import { deg, mm, num, pct } from "./format";
 import { poseFromRpy, rotationOf, transformPoint, mul4 } from "./geometry";
@@ -31,7 +32,7 @@ export interface TargetBudget {
   /**
    * Restarts of a second, single-branch search run only when the first found no solution and the
    * target is not beyond the arm's largest possible reach. A numerical search that gives up is not
-   * proof that a pose is unreachable (REFERENCES.md §1.1: single-seed solvers miss 2–79 % of
+   * proof that a pose is unreachable (docs/references.md#ik-solver-benchmarks: single-seed solvers miss 2–79 % of
    * reachable targets), so a "not reached" verdict is only given after this larger budget.
    */
   escalatedRestarts: number;
@@ -40,8 +41,13 @@ export const DEFAULT_TARGET_BUDGET: TargetBudget = { restarts: 12, maxSolutions:
 
 /** A compact summary of one IK branch. */
 export interface SolutionSummary {
-  /** Joint values (rad or m). */
+  /**
+   * Joint values (rad or m): for a revolute joint with several in-limit copies 2π apart, the copy
+   * farthest from its limits (see `copies`).
+   */
   q: number[];
+  /** Joints whose angle has more than one in-limit copy: the copy reported and the others (rad). */
+  copies: JointCopyChoice[];
   /** Dexterity margin D ∈ [0, 1]. */
   margin: number;
   limiting: DexterityReport["limiting"];
@@ -178,20 +184,22 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
       ikReason: best.reason, solutions: [], chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null,
     };
   }
-  const reports: DexterityReport[] = reached.map((r) => {
-    computeJacobian(model, data, r.q, ctx.jac);
-    return dexterityAt(ctx.jac, model.n, model, r.q, target.mode, ctx.ranks, data.toolPose);
+  // Each solution as its in-limit copy farthest from the joint limits (copies.ts): same pose, larger margin.
+  const centred = reached.map((r) => centredCopy(model, r.q));
+  const reports: DexterityReport[] = centred.map((c) => {
+    computeJacobian(model, data, c.q, ctx.jac);
+    return dexterityAt(ctx.jac, model.n, model, c.q, target.mode, ctx.ranks, data.toolPose);
   });
   let chosen = 0;
   for (let i = 1; i < reports.length; i++) if (reports[i].margin > reports[chosen].margin) chosen = i;
-  const solutions: SolutionSummary[] = reached.map((r, i) => ({
-    q: Array.from(r.q), margin: reports[i].margin, limiting: reports[i].limiting,
+  const solutions: SolutionSummary[] = reached.map((_, i) => ({
+    q: Array.from(centred[i].q), copies: centred[i].copies, margin: reports[i].margin, limiting: reports[i].limiting,
     translationInverseCondition: reports[i].translation.inverseCondition,
     orientationInverseCondition: reports[i].orientation.inverseCondition,
     axisOrientationInverseCondition: reports[i].axisOrientation?.inverseCondition ?? null,
     jointLimitMargin: reports[i].jointLimits.margin,
   }));
-  const q = reached[chosen].q;
+  const q = centred[chosen].q;
   const dex = reports[chosen];
   const n = model.n;
   lap("dexterity");
@@ -214,6 +222,7 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   if (dex.marginal || dex.limiting.value < 0.5) parts.push(`limiting: ${describeLimit(dex)}`);
   if (dex.marginal) parts.push(`below the ${num(DEXTERITY_MARGINAL_THRESHOLD, 1)} threshold`);
   if (reached.length > 1) parts.push(`${reached.length} branches found`);
+  for (const c of centred[chosen].copies) parts.push(`joint ${c.joint} at ${deg(c.chosen)} (its copy${c.others.length > 1 ? "s" : ""} at ${c.others.map(deg).join(", ")} ${c.others.length > 1 ? "are" : "is"} nearer a limit)`);
   if (holding.verdict !== "meets") { verdict = worseVerdict(verdict, holding.verdict); parts.push(holding.reason); }
   if (force) { verdict = worseVerdict(verdict, force.verdict); parts.push(force.reason); }
   if (wrist.verdict === "fails" || wrist.verdict === "marginal") { verdict = worseVerdict(verdict, wrist.verdict); parts.push(wrist.reason); }

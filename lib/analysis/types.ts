@@ -1,7 +1,7 @@
 /** Shared small types of the analysis results (JSON-serialisable). */
 
 /**
- * Verdict of one (arm, target), (arm, path) or (arm, requirement) pair (DESIGN.md):
+ * Verdict of one (arm, target), (arm, path) or (arm, requirement) pair (docs/design.md#verdicts):
  * `meets`, `marginal` (met, but close to a limit or with a caveat), `fails`, or `unknown` (data
  * missing: never a silent pass).
  */

@@ -5,10 +5,11 @@
  * a bundled list of common passwords, repetitive or sequential characters, and context-specific
  * words (the account's email and name, the product's name). Pure: no database, no I/O.
  */
+import { MAX_PASSWORD_LENGTH } from "@/shared/schemas/accounts";
 import { COMMON_PASSWORDS } from "./common-passwords";
 
 export const MIN_PASSWORD_LENGTH = 10;
-export const MAX_PASSWORD_LENGTH = 1024;
+export { MAX_PASSWORD_LENGTH };
 
 /** What the check knows about the account. */
 export interface PasswordContext {

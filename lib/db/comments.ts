@@ -10,57 +10,15 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { requirementSetSchema } from "@/shared/schemas";
-import { cleanDisplayName, handleOf, MAX_COMMENT_LENGTH, mentionedHandles, nestingProblem, renderComment } from "@/lib/markdown";
+import { handleOf, mentionedHandles, renderComment } from "@/lib/markdown";
+import { createCommentInput, displayNameSchema, editCommentInput, type Anchor, type AnchorType } from "@/shared/schemas/comments";
 import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { readStoredDocument } from "./documents";
 import { ConflictError, NotFoundError, ValidationError } from "./errors";
 
-export const ANCHOR_TYPES = ["shortlist", "arm", "target", "path", "compliance"] as const;
-export type AnchorType = (typeof ANCHOR_TYPES)[number];
-export interface Anchor {
-  type: AnchorType;
-  /** arm id, target or path name, or `armId#specIndex` for a compliance row; absent for the shortlist. */
-  id?: string | null;
-}
-
 /** Who writes: a member, or a guest on a comment link with the name they gave. */
 export type CommentAuthor = { kind: "member"; userId: string } | { kind: "guest"; linkId: string; name: string };
-
-export const MAX_DISPLAY_NAME = 60;
-
-const bodySchema = z
-  .string({ error: "must be text" })
-  .max(MAX_COMMENT_LENGTH, `must be at most ${MAX_COMMENT_LENGTH} characters`)
-  .refine((s) => s.trim().length > 0, "must not be empty")
-  .superRefine((s, ctx) => {
-    const problem = nestingProblem(s);
-    if (problem) ctx.addIssue({ code: "custom", message: problem });
-  });
-
-export const createCommentInput = z.object({
-  body: bodySchema,
-  anchor: z
-    .object({
-      type: z.enum(ANCHOR_TYPES, { error: `must be one of ${ANCHOR_TYPES.join(", ")}` }),
-      id: z.string({ error: "must be text" }).min(1, "must not be empty").max(200, "must be at most 200 characters").nullable().optional(),
-    })
-    .optional(),
-  parentId: z.string({ error: "must be a comment id" }).min(1).max(100).optional(),
-  /** Client-chosen key that makes a retried post idempotent. */
-  clientKey: z.string({ error: "must be text" }).regex(/^[A-Za-z0-9_-]{8,64}$/, "must be 8–64 letters, digits, - or _").optional(),
-});
-
-export const editCommentInput = z.object({
-  body: bodySchema,
-  /** The revision the edit is based on; a stale base is a conflict. */
-  baseRevision: z.number({ error: "must be the revision your edit is based on" }).int().min(1).optional(),
-});
-
-export const displayNameSchema = z
-  .string({ error: "must be text" })
-  .transform(cleanDisplayName)
-  .pipe(z.string().min(1, "give a display name").max(MAX_DISPLAY_NAME, `must be at most ${MAX_DISPLAY_NAME} characters`));
 
 function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
   const r = schema.safeParse(input);

@@ -1,15 +1,12 @@
 import "server-only";
 import { createHash, randomBytes, randomUUID } from "node:crypto";
-import { z } from "zod";
 import { ROLES, type Role } from "@/shared/schemas/roles";
+import { createInvitationInput, DEFAULT_INVITATION_DAYS } from "@/shared/schemas/accounts";
 import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
 import { userRef, type UserRef } from "./documents";
 
-/** Days an invitation works unless the administrator says otherwise, and at most. */
-export const DEFAULT_INVITATION_DAYS = 7;
-export const MAX_INVITATION_DAYS = 90;
 const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
 
 export const hashInvitationToken = (token: string): string => createHash("sha256").update(`invitation:${token}`).digest("hex");
@@ -26,12 +23,6 @@ export interface InvitationRecord {
   /** open | used | expired | revoked, at the time of reading. */
   state: "open" | "used" | "expired" | "revoked";
 }
-
-export const createInvitationInput = z.object({
-  email: z.email({ error: "must be an email address" }).max(254, "must be at most 254 characters").nullable().optional(),
-  role: z.enum(ROLES, { error: "must be admin, editor or viewer" }).default("viewer"),
-  expiresInDays: z.number({ error: "must be a number of days" }).int("must be a whole number of days").min(1, "must be at least 1 day").max(MAX_INVITATION_DAYS, `must be at most ${MAX_INVITATION_DAYS} days`).optional(),
-});
 
 type Row = {
   id: string; email: string | null; role: string; createdAt: Date; expiresAt: Date; usedAt: Date | null; revokedAt: Date | null;

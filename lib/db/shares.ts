@@ -6,9 +6,9 @@
  */
 import "server-only";
 import { createHash, randomBytes, randomUUID, timingSafeEqual } from "node:crypto";
-import { z } from "zod";
+import type { z } from "zod";
 import type { LinkAccess } from "@/shared/schemas/roles";
-import { labelText } from "@/shared/schemas/common";
+import { createLinkInput } from "@/shared/schemas/share";
 import { db } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
@@ -17,8 +17,6 @@ import { userRef, type UserRef } from "./documents";
 export const TOKEN_BYTES = 32;
 /** base64url of 32 bytes is 43 characters. */
 export const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
-/** Longest expiry a link may be given. */
-export const MAX_LINK_DAYS = 366;
 
 export const hashShareToken = (token: string): Buffer => createHash("sha256").update(token, "utf8").digest();
 
@@ -49,14 +47,6 @@ export interface ShareLinkRecord {
   state: "active" | "expired" | "revoked";
 }
 
-export const createLinkInput = z.object({
-  access: z.enum(["view", "comment"], { error: "must be view or comment" }),
-  label: labelText(80).optional(),
-  /** Days until the link stops working; omitted or null = no expiry. */
-  expiresInDays: z.number({ error: "must be a number of days" }).int("must be a whole number of days").min(1, "must be at least 1 day").max(MAX_LINK_DAYS, `must be at most ${MAX_LINK_DAYS} days`).nullable().optional(),
-  hidePrices: z.boolean({ error: "must be true or false" }).optional(),
-});
-export type CreateLinkInput = z.input<typeof createLinkInput>;
 
 function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
   const r = schema.safeParse(input);

@@ -1,7 +1,8 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
-import { armSchema, nameText, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
+import { armSchema, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
+import { createShortlistInput } from "@/shared/schemas/shortlists";
 import { analysisKey } from "@/lib/analysis/key";
 import { ANALYSIS_VERSION, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
 import { db } from "./client";
@@ -77,16 +78,6 @@ export interface ShortlistSummary {
   latestRun: { id: string; status: RunStatus; finishedAt: Date | null } | null;
 }
 
-const createInput = z.object({
-  name: nameText(120),
-  requirementSetId: z.string({ error: "choose a requirement set" }).min(1, "choose a requirement set"),
-  armIds: z
-    .array(z.string().min(1), { error: "must be a list of arm ids" })
-    .min(1, "choose at least one arm")
-    .max(40, "at most 40 arms per shortlist")
-    .refine((ids) => new Set(ids).size === ids.length, "an arm is listed twice"),
-});
-export type CreateShortlistInput = z.input<typeof createInput>;
 
 function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
   const r = schema.safeParse(input);
@@ -119,7 +110,7 @@ const runSelect = {
 
 /** Creates a shortlist pinned to the current revisions of the requirement set and the arms. */
 export async function createShortlist(userId: string | null, input: unknown): Promise<{ id: string; pins: Pins }> {
-  const body = parse(createInput, input);
+  const body = parse(createShortlistInput, input);
   const id = randomUUID();
   return db().$transaction(async (tx) => {
     const set = await tx.requirementSet.findUnique({ where: { id: body.requirementSetId } });

@@ -39,7 +39,7 @@ import { LIMIT_EPSILON, maxJointDistance, neutralConfiguration, projectJoint, ra
 import { createRng } from "./rng";
 import { taskJacobianInto, taskRowCount } from "./task";
 
-/** Default tolerances and budget (DESIGN.md: reached = 1e-5 m and 1e-4 rad). */
+/** Default tolerances and budget (docs/design.md#inverse-kinematics: reached = 1e-5 m and 1e-4 rad). */
 export const IK_DEFAULTS = Object.freeze({
   mode: "pose" as IkMode,
   positionTolerance: 1e-5,

@@ -132,7 +132,7 @@ export interface IkWorkspace {
   readonly frozen: Uint8Array;
 }
 
-/** Constraint mode of an IK target (DESIGN.md). */
+/** Constraint mode of an IK target (docs/design.md#inverse-kinematics). */
 export type IkMode = "pose" | "axis" | "point";
 
 export interface IkOptions {

@@ -9,61 +9,10 @@
  */
 import { Marked, type Tokens, type TokenizerAndRendererExtension } from "marked";
 import sanitizeHtml from "sanitize-html";
+import { MAX_COMMENT_LENGTH, MAX_NESTING, nestingDepth, nestingProblem } from "@/shared/schemas/comments";
 
-/** Longest comment body accepted (characters of Markdown source). */
-export const MAX_COMMENT_LENGTH = 5000;
-
-/**
- * Deepest nesting of quotes and lists written on one line that a comment may use. The parser
- * recurses once per level; a few thousand `> ` markers exhaust the stack, and no discussion needs
- * more than a handful of levels.
- */
-export const MAX_NESTING = 16;
-
-const LIST_MARKER = /^(?:[-*+]|\d{1,9}[.)])(?=[ \t]|$)/;
-
-/**
- * The deepest run of block-container markers (`>` quotes and `-`, `*`, `+`, `1.` list items)
- * opening any line of a Markdown source, outside fenced code. Stops counting past `stopAt`.
- */
-export function nestingDepth(source: string, stopAt = MAX_NESTING + 1): number {
-  let max = 0;
-  let fence: string | null = null;
-  for (const line of source.split(/\r\n|\r|\n/)) {
-    const fenceMark = /^ {0,3}(`{3,}|~{3,})/.exec(line)?.[1];
-    if (fence !== null) {
-      if (fenceMark && fenceMark[0] === fence[0] && fenceMark.length >= fence.length) fence = null;
-      continue;
-    }
-    if (fenceMark) {
-      fence = fenceMark;
-      continue;
-    }
-    let depth = 0;
-    let rest = line;
-    for (;;) {
-      rest = rest.replace(/^[ \t]+/, "");
-      if (rest.startsWith(">")) rest = rest.slice(1);
-      else {
-        const m = LIST_MARKER.exec(rest);
-        if (!m) break;
-        rest = rest.slice(m[0].length);
-      }
-      depth++;
-      if (depth >= stopAt) return depth;
-    }
-    if (depth > max) max = depth;
-  }
-  return max;
-}
-
-/** Why a body cannot be stored, or null: nesting deeper than MAX_NESTING. */
-export function nestingProblem(source: string): string | null {
-  const depth = nestingDepth(source);
-  return depth > MAX_NESTING
-    ? `quotes and lists are nested more than ${MAX_NESTING} levels deep on one line; use at most ${MAX_NESTING}`
-    : null;
-}
+// The rules a body must meet to be stored live with the comment schemas; re-exported for callers here.
+export { MAX_COMMENT_LENGTH, MAX_NESTING, nestingDepth, nestingProblem };
 
 const escapeHtml = (s: string): string =>
   s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");

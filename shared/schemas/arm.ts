@@ -1,13 +1,17 @@
 import { z } from "zod";
 import { finite, labelText, nameText, nonNegative, positive, vec3, mat4 } from "./common";
 import { fmt, jointToDisplay, jointUnit } from "../units";
+import { armCapsuleSchema, MAX_BODY_SHAPES } from "./cell";
 
 /**
- * Arm model: the interchange format of DESIGN.md (SI units: m, rad, kg, N·m) plus identity and
+ * Arm model: the arm file of docs/formats.md#arm-file (SI units: m, rad, kg, N·m) plus identity and
  * datasheet specs. The kinematic part ({name, convention, joints, base, tool}) is exactly the
  * interchange arm JSON the command line reads; identity and specs are optional extras.
  */
 export const MAX_JOINTS = 12;
+
+/** A collision capsule of an arm body (the points within `radius` of the segment from → to). */
+export type Capsule = z.infer<typeof armCapsuleSchema>;
 
 /** Fields every joint has, whatever the convention. */
 const jointCommonShape = {
@@ -24,8 +28,13 @@ const jointCommonShape = {
   mass: nonNegative.optional(),
   /** Centre of mass of that link in this joint's frame after its transform (m). */
   com: vec3.optional(),
-  /** Collision radius of the link (m). */
+  /**
+   * Collision radius of the link (m): without `collision`, the link's capsules are derived from
+   * its kinematic description with this radius (lib/geometry/derived.ts documents how).
+   */
   radius: nonNegative.optional(),
+  /** Collision capsules of the link in its frame (after this joint's transform, the frame of `com`). */
+  collision: z.array(armCapsuleSchema).max(MAX_BODY_SHAPES, `at most ${MAX_BODY_SHAPES} capsules per link`).optional(),
 };
 
 /** A joint of a `dh` or `mdh` arm: one row of the DH table. */
@@ -152,6 +161,13 @@ const armCommonShape = {
   specs: armSpecsSchema.optional(),
   /** The file the arm was imported from, if any. */
   source: armSourceSchema.optional(),
+  /**
+   * Collision capsules of the base (body "base", link number 0) in the arm's base frame: the frame
+   * the requirement set's `base` places, before this file's own `base` transform.
+   */
+  baseCollision: z.array(armCapsuleSchema).max(MAX_BODY_SHAPES, `at most ${MAX_BODY_SHAPES} capsules`).optional(),
+  /** Pairs of link numbers (0 = base, 1 … n) never checked against each other. */
+  ignoredPairs: z.array(z.tuple([z.number().int("must be a whole link number").min(0, "must be ≥ 0"), z.number().int("must be a whole link number").min(0, "must be ≥ 0")])).max(100, "at most 100 pairs").optional(),
 };
 
 const jointList = <J extends z.ZodType>(joint: J) =>
@@ -196,6 +212,13 @@ export const armSchema = armObject.superRefine((arm, ctx) => {
         message: `joint ${i + 1} range (${fmt(jointToDisplay(j.type, j.max - j.min), 0)}°) exceeds 720°`,
       });
     }
+  });
+  const n = arm.joints.length;
+  arm.ignoredPairs?.forEach(([a, b], i) => {
+    for (const [k, v] of [[0, a], [1, b]] as const) {
+      if (v > n) ctx.addIssue({ code: "custom", path: ["ignoredPairs", i, k], message: `ignored pair ${i + 1} names link ${v}, but the arm has links 0 (base) to ${n}` });
+    }
+    if (a === b) ctx.addIssue({ code: "custom", path: ["ignoredPairs", i, 1], message: `ignored pair ${i + 1} names link ${a} twice` });
   });
   arm.specs?.wristAllowables?.forEach((w, i) => {
     if (w.joint > arm.joints.length) {

@@ -2,3 +2,4 @@ export * from "./common";
 export * from "./arm";
 export * from "./requirements";
 export * from "./roles";
+export * from "./cell";

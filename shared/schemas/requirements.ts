@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { finite, nameText, nonNegative, positive, vec3, mat4 } from "./common";
 import { SUB_SCORES, type SubScoreKey } from "../sub-scores";
+import { bodyShapeSchema, cellSchema, convertLegacyObstacles, DEFAULT_CLEARANCE, legacyObstacleSchema, MAX_BODY_SHAPES, type Cell } from "./cell";
 
 /**
  * Requirement set: one cell scenario, SI units (m, rad, kg, N, N·m, m/s).
@@ -16,6 +17,9 @@ import { SUB_SCORES, type SubScoreKey } from "../sub-scores";
  */
 export const CONSTRAINT_MODES = ["pose", "axis", "point"] as const;
 export type ConstraintMode = (typeof CONSTRAINT_MODES)[number];
+
+/** A list of obstacle names (checked against `cell.obstacles` by the requirement-set schema). */
+const contactSchema = z.array(nameText(80)).max(50, "at most 50 names");
 
 export const targetSchema = z.object({
   name: nameText(80),
@@ -33,6 +37,8 @@ export const targetSchema = z.object({
   force: vec3.optional(),
   /** Moment the tool must apply, in the cell frame (N·m). */
   moment: vec3.optional(),
+  /** Obstacle names the tool and the payload (not the links) may touch at this target. */
+  contact: contactSchema.optional(),
 });
 export type Target = z.infer<typeof targetSchema>;
 
@@ -50,6 +56,8 @@ export const pathSchema = z.object({
   step: positive.min(1e-4, "must be at least 0.1 mm").max(1, "must be at most 1000 mm"),
   /** Required TCP speed along the path (m/s). */
   speed: positive.max(10, "must be at most 10 000 mm/s"),
+  /** Obstacle names the tool and the payload may touch all along this path (e.g. the part a seam runs on). */
+  contact: contactSchema.optional(),
 });
 export type PathSpec = z.infer<typeof pathSchema>;
 
@@ -109,40 +117,52 @@ export const weightsSchema = z.object(
 );
 export const DEFAULT_WEIGHTS: Weights = { ...SUB_SCORES.defaultWeights };
 
-export const obstacleSchema = z.discriminatedUnion("shape", [
-  z.object({ shape: z.literal("box"), name: z.string().max(80).optional(), center: vec3, size: z.tuple([positive, positive, positive]) }),
-  z.object({ shape: z.literal("sphere"), name: z.string().max(80).optional(), center: vec3, radius: positive }),
-]);
+const toolShapes = z.array(bodyShapeSchema).max(MAX_BODY_SHAPES, `at most ${MAX_BODY_SHAPES} shapes`);
 
-export const requirementSetSchema = z
-  .object({
-    name: nameText(120),
-    description: z.string().max(4000).optional(),
-    /** Arm base pose in the cell frame, T_C_B (row-major 4×4). */
-    base: mat4,
-    tool: z.object({
-      /** Arm tool point → TCP (row-major 4×4). */
-      tcp: mat4,
-      /** Tool mass (kg). */
-      mass: nonNegative,
-      /** Tool CoG in the arm tool-point (flange side) frame (m). */
-      cog: vec3,
-      /** Principal inertia about the CoG (kg·m²), optional. */
-      inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
-    }),
-    payload: z.object({
-      /** Payload mass (kg). */
-      mass: nonNegative,
-      /** Payload CoG in the TCP frame (m). */
-      cog: vec3,
-      inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
-    }),
-    targets: z.array(targetSchema).max(500, "at most 500 targets"),
-    paths: z.array(pathSchema).max(50, "at most 50 paths"),
-    specs: z.array(specRequirementSchema).max(100, "at most 100 spec requirements"),
-    obstacles: z.array(obstacleSchema).max(100).optional(),
-    weights: weightsSchema.default(DEFAULT_WEIGHTS),
-  })
+const requirementSetObject = z.object({
+  name: nameText(120),
+  description: z.string().max(4000).optional(),
+  /** Arm base pose in the cell frame, T_C_B (row-major 4×4). */
+  base: mat4,
+  tool: z.object({
+    /** Arm tool point → TCP (row-major 4×4). */
+    tcp: mat4,
+    /** Tool mass (kg). */
+    mass: nonNegative,
+    /** Tool CoG in the arm tool-point (flange side) frame (m). */
+    cog: vec3,
+    /** Principal inertia about the CoG (kg·m²), optional. */
+    inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
+    /** Collision shapes of the tool (capsules or boxes) in the arm tool-point frame, the frame of `cog`. */
+    collision: toolShapes.optional(),
+  }),
+  payload: z.object({
+    /** Payload mass (kg). */
+    mass: nonNegative,
+    /** Payload CoG in the TCP frame (m). */
+    cog: vec3,
+    inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
+    /** Collision shapes of the payload (capsules or boxes) in the TCP frame, the frame of `cog`. */
+    collision: toolShapes.optional(),
+  }),
+  targets: z.array(targetSchema).max(500, "at most 500 targets"),
+  paths: z.array(pathSchema).max(50, "at most 50 paths"),
+  specs: z.array(specRequirementSchema).max(100, "at most 100 spec requirements"),
+  /** The cell: obstacles and the required clearance. */
+  cell: cellSchema.default({ obstacles: [], clearance: DEFAULT_CLEARANCE }),
+  /** Obstacles in the earlier form (read and converted into `cell.obstacles`; never written). */
+  obstacles: z.array(legacyObstacleSchema).max(100, "at most 100 obstacles").optional(),
+  weights: weightsSchema.default(DEFAULT_WEIGHTS),
+});
+
+/** Every obstacle name, the converted earlier ones included (as {@link convertLegacyObstacles} names them). */
+function allObstacleNames(rs: z.output<typeof requirementSetObject>): string[] {
+  const names = rs.cell.obstacles.map((o) => o.name);
+  return [...names, ...convertLegacyObstacles(rs.obstacles ?? [], names).map((o) => o.name)];
+}
+
+/** The requirement set with the cross-field checks, earlier obstacles converted into `cell.obstacles`. */
+export const requirementSetSchema = requirementSetObject
   .superRefine((rs, ctx) => {
     const seen = new Map<string, number>();
     rs.targets.forEach((t, i) => {
@@ -155,6 +175,27 @@ export const requirementSetSchema = z
       if (paths.has(p.name)) ctx.addIssue({ code: "custom", path: ["paths", i, "name"], message: `path name "${p.name}" is used twice (paths ${paths.get(p.name)! + 1} and ${i + 1})` });
       paths.set(p.name, i);
     });
+    const obstacles = new Map<string, number>();
+    rs.cell.obstacles.forEach((o, i) => {
+      if (obstacles.has(o.name)) ctx.addIssue({ code: "custom", path: ["cell", "obstacles", i, "name"], message: `obstacle name "${o.name}" is used twice (rows ${obstacles.get(o.name)! + 1} and ${i + 1})` });
+      else obstacles.set(o.name, i);
+    });
+    const known = new Set(allObstacleNames(rs));
+    const checkContact = (list: string[] | undefined, path: (string | number)[], what: string) => {
+      const once = new Set<string>();
+      list?.forEach((name, k) => {
+        if (!known.has(name)) ctx.addIssue({ code: "custom", path: [...path, k], message: `${what} names obstacle "${name}", but the cell has no obstacle of that name` });
+        else if (once.has(name)) ctx.addIssue({ code: "custom", path: [...path, k], message: `${what} names obstacle "${name}" twice` });
+        once.add(name);
+      });
+    };
+    rs.targets.forEach((t, i) => checkContact(t.contact, ["targets", i, "contact"], `target "${t.name}" contact`));
+    rs.paths.forEach((p, i) => checkContact(p.contact, ["paths", i, "contact"], `path "${p.name}" contact`));
+  })
+  .transform(({ obstacles, ...rs }) => {
+    if (!obstacles || obstacles.length === 0) return rs;
+    const cell: Cell = { ...rs.cell, obstacles: [...rs.cell.obstacles, ...convertLegacyObstacles(obstacles, rs.cell.obstacles.map((o) => o.name))] };
+    return { ...rs, cell };
   });
 export type RequirementSet = z.infer<typeof requirementSetSchema>;
 /** Input type (defaults not yet applied), e.g. what a file holds. */

@@ -13,7 +13,7 @@ function cli(...args: string[]) {
 
 const dir = mkdtempSync(path.join(tmpdir(), "armsift-cli-"));
 const armFile = path.join(dir, "arm.json");
-// Vertical-plane 2R arm of REFERENCES.md §5 (base Rx(90°): the DH plane is the x-z plane).
+// Vertical-plane 2R arm of docs/references.md#2r-gravity-and-payload-check-values (base Rx(90°): the DH plane is the x-z plane).
 writeFileSync(armFile, JSON.stringify({
   name: "2R vertical", convention: "dh", base: [1, 0, 0, 0, 0, 0, -1, 0, 0, 1, 0, 0, 0, 0, 0, 1],
   joints: [50, 20].map((t) => ({ type: "revolute", a: 1, alpha: 0, d: 0, theta: 0, min: -3.1, max: 3.1, maxTorque: t, mass: 1, com: [-0.5, 0, 0] })),
@@ -26,7 +26,7 @@ writeFileSync(reqFile, JSON.stringify({
   specs: [{ field: "axes", comparator: "atLeast", value: 2, priority: "must" }, { field: "reach", comparator: "atLeast", value: 1, priority: "want" }],
 }));
 
-describe("command line: statics and analyze (DESIGN.md)", () => {
+describe("command line: statics and analyze (docs/cli.md)", { timeout: 60_000 }, () => {
   it("statics prints τ_hold, the force capacity, the payload capacity and the limiting joint", () => {
     // Source: Spong's planar elbow arm with g = 9.80665 (analysis_reference.py), q = (0, 0).
     const ref = REF.gravity2r.find((r: { g: number }) => r.g === 9.80665).rows[0];

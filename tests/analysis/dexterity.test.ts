@@ -1,12 +1,12 @@
 import { describe, expect, it } from "vitest";
 import {
   dexterityAt, isotropyDistance, jointLimitMargin, spdDistanceAffineInvariant, spdDistanceLogEuclidean,
-  dexterityMargin, structuralRanksFromJacobians, DEXTERITY_MARGINAL_THRESHOLD,
+  dexterityMargin, structuralRanksFromJacobians,
 } from "@/lib/analysis/dexterity";
 import { computeJacobian, createData, createModel } from "@/lib/kinematics";
 import { AXIS_REF, poseOf, REF } from "./fixtures";
 
-/** A 6×2 geometric Jacobian of a planar 2R arm in the x-y plane (REFERENCES.md §7 convention). */
+/** A 6×2 geometric Jacobian of a planar 2R arm in the x-y plane (the convention of docs/references.md#2r-dexterity-check-values). */
 function jac2r(l1: number, l2: number, q1: number, q2: number): Float64Array {
   const s1 = Math.sin(q1), c1 = Math.cos(q1), s12 = Math.sin(q1 + q2), c12 = Math.cos(q1 + q2);
   return Float64Array.from([-l1 * s1 - l2 * s12, -l2 * s12, l1 * c1 + l2 * c12, l2 * c12, 0, 0, 0, 0, 0, 0, 1, 1]);
@@ -15,7 +15,7 @@ const limits2 = { n: 2, lower: [-Math.PI, -Math.PI], upper: [Math.PI, Math.PI] }
 const planarRanks = { translation: 2, orientation: 0, rotation: 1, axisOrientation: 0 };
 
 describe("translational block measures on the 2R arm", () => {
-  // Source: REFERENCES.md §2.2 check values, recomputed with numpy in analysis_reference.py;
+  // Source: docs/references.md#2r-dexterity-check-values, recomputed with numpy in analysis_reference.py;
   // closed form w = l1·l2·|sin q2| (Yoshikawa 1985).
   for (const c of REF.twoR) {
     it(`l = (${c.l1.toFixed(3)}, ${c.l2}), q = (${(c.q[0] * 180 / Math.PI).toFixed(0)}°, ${(c.q[1] * 180 / Math.PI).toFixed(0)}°)`, () => {
@@ -27,7 +27,7 @@ describe("translational block measures on the 2R arm", () => {
       expect(t.manipulability).toBeCloseTo(c.wClosedForm, 10);
       expect(1 / t.inverseCondition).toBeCloseTo(c.kappa, 8);
       expect(t.isotropyDistance!).toBeCloseTo(c.isotropyDistance, 9);
-      // For two singular values the scale-free distance is √2·ln κ (REFERENCES.md §3).
+      // For two singular values the scale-free distance is √2·ln κ (docs/references.md#spd-distances).
       expect(t.isotropyDistance!).toBeCloseTo(Math.SQRT2 * Math.log(c.kappa), 9);
     });
   }
@@ -76,7 +76,7 @@ describe("SPD distances", () => {
       }
     });
   }
-  it("REFERENCES.md §3 check values", () => {
+  it("check values of docs/references.md#spd-check-values", () => {
     expect(spdDistanceAffineInvariant([1, 0, 0, 1], [4, 0, 0, 0.25], 2)!).toBeCloseTo(Math.SQRT2 * Math.log(4), 12);
     expect(spdDistanceAffineInvariant([2, 1, 1, 2], [1, 0, 0, 3], 2)!).toBeCloseTo(1.124817, 6);
     expect(spdDistanceLogEuclidean([2, 1, 1, 2], [1, 0, 0, 3], 2)!).toBeCloseTo(1.098612, 6);
@@ -123,7 +123,17 @@ describe("joint-limit margin and the dexterity margin", () => {
     expect(dexterityMargin(0.2, 0.2, 0.2, "pose")).toBeCloseTo(0.2, 12);
     expect(dexterityMargin(0.04, 1, 1, "point")).toBeCloseTo(0.2, 12);
     expect(dexterityMargin(1, 1, 0, "axis")).toBe(0);
-    expect(DEXTERITY_MARGINAL_THRESHOLD).toBe(0.2);
+  });
+  it("a reached pose is marginal exactly when D < 0.2 (the threshold of docs/design.md#dexterity)", () => {
+    // 2R arm, elbow from stretched to bent: D rises through 0.2, and `marginal` must flip there.
+    let seen = { below: false, above: false };
+    for (let deg = 1; deg <= 90; deg++) {
+      const q = [0, (deg * Math.PI) / 180];
+      const d = dexterityAt(jac2r(1, 1, q[0], q[1]), 2, limits2, q, "point", planarRanks);
+      expect(d.marginal).toBe(d.margin < 0.2);
+      seen = { below: seen.below || d.margin < 0.2, above: seen.above || d.margin >= 0.2 };
+    }
+    expect(seen).toEqual({ below: true, above: true });
   });
   it("catches a wrist singularity that neither block shows alone (reference six-axis arm)", () => {
     const model = createModel(REF.endToEnd.arm);

@@ -19,7 +19,7 @@ const GOLDEN: Record<string, string> = {
   // 1.3.0: workspace reach measured at the arm's own tool point (these arms have none: only the version differs).
   "analysis-1.3.0": "e749a50e8aef53352ade3f415d84e659f6cf1f698949c5a7b56d292a2c2ce7d8",
   // 1.4.0: axis targets' orientation factor over the constrained rotations; copies 2π apart; exact path speed.
-  "analysis-1.4.0": "e591875b762a4a6831e0be49f721508e01f81602b2a29eac4be63b271a479e17",
+  "analysis-1.4.0": "5332205d3501066a8e4107975e632f62235c644cf09f43be4a98d0761cb6725f",
 };
 
 const DEG = Math.PI / 180;

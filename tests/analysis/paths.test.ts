@@ -20,7 +20,7 @@ const req = requirementSetSchema.parse({
   paths: [{ name: "line", mode: "point", step: 0.01, speed: SPEED, waypoints: [{ position: P0, rpy: [0, 0, 0] }, { position: P1, rpy: [0, 0, 0] }] }],
 });
 
-/** Closed-form 2R inverse kinematics (both elbows) and q̇ = J⁻¹ v (Craig ch. 4–5; REFERENCES.md §7 Jacobian). */
+/** Closed-form 2R inverse kinematics (both elbows) and q̇ = J⁻¹ v (Craig ch. 4–5; the 2R Jacobian of docs/references.md#2r-dexterity-check-values). */
 function closedForm(x: number, y: number, elbow: 1 | -1) {
   const c2 = (x * x + y * y - L1 * L1 - L2 * L2) / (2 * L1 * L2);
   const q2 = elbow * Math.acos(c2);
@@ -87,5 +87,33 @@ describe("path speed on a 2R arm (point mode)", () => {
     expect(ro.firstUnreached!.s).toBeGreaterThan(0.4); // reach ends at |p| = 1.8 m, i.e. about 0.55 m along
     expect(ro.firstUnreached!.s).toBeLessThan(0.6);
     expect(ro.reason).toMatch(/not reached/);
+  });
+});
+
+describe("a joint that would have to pass its limit: an unwinding, not a small step", () => {
+  // Planar 2R (invented): joint 1 limited to ±3.1 rad, the elbow kept on one side (q2 ∈ [0.5, 3]),
+  // and a line behind the base, where the tool's bearing passes ±π. Past q1 = 3.1 the only way on
+  // is the copy near −π: joint 1 must turn back almost a full turn. Source: the geometry itself.
+  const I4b = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+  const arm2 = armSchema.parse({
+    name: "2R behind", convention: "dh",
+    joints: [
+      { type: "revolute", a: 0.5, alpha: 0, d: 0, theta: 0, min: -3.1, max: 3.1, maxSpeed: 2 },
+      { type: "revolute", a: 0.1, alpha: 0, d: 0, theta: 0, min: 0.5, max: 3, maxSpeed: 2 },
+    ],
+  });
+  const cell = requirementSetSchema.parse({
+    name: "behind", base: I4b, tool: { tcp: I4b, mass: 0, cog: [0, 0, 0] }, payload: { mass: 0, cog: [0, 0, 0] }, targets: [], specs: [],
+    paths: [{ name: "behind", mode: "point", step: 0.01, speed: 0.1, waypoints: [{ position: [-0.55, 0.12, 0], rpy: [0, 0, 0] }, { position: [-0.55, -0.12, 0], rpy: [0, 0, 0] }] }],
+  });
+  const r2 = analyzePath(createArmContext(arm2, cell), cell.paths[0], DEFAULT_PATH_BUDGET, 5);
+
+  it("is reported as a flip of that joint and the path fails", () => {
+    const unwinding = r2.flips.find((f) => f.joint === 1);
+    expect(unwinding, r2.reason).toBeDefined();
+    expect(unwinding!.detail).toMatch(/joint 1 jumps 3\d\d\.\d°/);
+    expect(r2.verdict).toBe("fails");
+    // The joint values themselves stay within the limits at every sample.
+    for (const q of r2.q) if (q) expect(Math.abs(q[0])).toBeLessThanOrEqual(3.1 + 1e-12);
   });
 });

@@ -1,10 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { analyzeShortlist, rankArms, ANALYSIS_VERSION, CAUTION, type ShortlistArm, DEFAULT_BUDGET } from "@/lib/analysis";
-import { analysisKey, canonicalJson } from "@/lib/analysis/key";
+import { analysisKey, analysisKeyFor, canonicalJson } from "@/lib/analysis/key";
 import { createData, createModel, forwardKinematics } from "@/lib/kinematics";
 import { armSchema, type ArmDocument, type DhArmDocument } from "@/shared/schemas/arm";
-import { requirementSetSchema } from "@/shared/schemas/requirements";
-import { createHash } from "node:crypto";
+import { requirementSetSchema, type RequirementSet } from "@/shared/schemas/requirements";
 import { REF } from "./fixtures";
 
 const I4 = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
@@ -133,11 +132,35 @@ describe("analyzeShortlist", () => {
 });
 
 describe("analysisKey", () => {
-  it("is the sha-256 of the canonical JSON (sorted keys), stable under key order", () => {
+  // A fixed input written out literally (not through the schemas, so new defaults cannot change
+  // it) and its key computed outside the product: Python's hashlib.sha256 over
+  // json.dumps(input, sort_keys=True, separators=(",", ":"), ensure_ascii=False).
+  const keyArm = {
+    name: "Key Two", convention: "dh",
+    joints: [
+      { type: "revolute", a: 0.4, alpha: 0, d: 0, theta: 0, min: -3, max: 3 },
+      { type: "prismatic", a: 0, alpha: 1.5, d: 0.25, theta: 0, min: 0, max: 0.5 },
+    ],
+  } as unknown as ArmDocument;
+  const keyReq = {
+    name: "Key cell", base: I4,
+    tool: { tcp: [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0.1, 0, 0, 0, 1], mass: 1, cog: [0, 0, 0.05] },
+    payload: { mass: 2, cog: [0, 0, 0.02] },
+    targets: [], paths: [], specs: [],
+    weights: { coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, price: 1 },
+  } as unknown as RequirementSet;
+  const keyArms: ShortlistArm[] = [{ id: "arm-a", revision: 3, arm: keyArm }];
+
+  it("matches the sha-256 computed outside the product for a fixed input and version", () => {
+    expect(analysisKeyFor("analysis-key-test", keyArms, keyReq)).toBe("1e2f9a8b30ca065419845c61804363719c28cc36a3466971656ff66e866d5345");
+    expect(analysisKeyFor("analysis-key-test", [{ ...keyArms[0], revision: 4 }], keyReq)).toBe("53d33aba106b7cde7f12e1205e47e3d6e13e02c2d3e94843ca249dedb8349d1c");
+  });
+
+  it("does not depend on key order, and changes with the version, a revision or the requirement set", () => {
     const k = analysisKey(arms, req);
     expect(k).toMatch(/^[0-9a-f]{64}$/);
-    const expected = createHash("sha256").update(canonicalJson({ version: ANALYSIS_VERSION, arms: arms.map((a) => ({ id: a.id, revision: a.revision, arm: a.arm })), requirementSet: req })).digest("hex");
-    expect(k).toBe(expected);
+    expect(k).toBe(analysisKeyFor(ANALYSIS_VERSION, arms, req));
+    expect(analysisKeyFor(`${ANALYSIS_VERSION}-next`, arms, req)).not.toBe(k);
     const reordered = JSON.parse(JSON.stringify(req, Object.keys(req).sort().reverse()));
     expect(analysisKey(arms, { ...reordered, ...req })).toBe(k);
     expect(canonicalJson({ b: 1, a: [2, { d: 1, c: undefined }] })).toBe('{"a":[2,{"d":1}],"b":1}');

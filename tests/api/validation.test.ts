@@ -1,6 +1,6 @@
 // Malformed input never causes a 500: every case is a 400 with a field-level error naming the field.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, type TestDb } from "../db/helpers";
+import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
 import * as arms from "@/app/api/arms/route";
 import * as armById from "@/app/api/arms/[id]/route";
 import * as reqs from "@/app/api/requirements/route";
@@ -121,6 +121,42 @@ describe("arm validation over the API", () => {
     expectFieldError(r, "base", /16 numbers/);
     expectFieldError(r, "tool.tcp");
     expectFieldError(r, "payload.mass", /must be a number/);
+  });
+
+  it("collision geometry: negative radius, zero size, unknown and duplicate names, NaN capsule ends, bad link numbers", async () => {
+    expectFieldError(await post(withJoint0({ collision: [{ from: [0, 0, 0], to: [0, null, 0.1], radius: 0.05 }] })), "joints.0.collision.0.to.1", /must be a number/);
+    expectFieldError(await post(withJoint0({ collision: [{ from: [0, 0, 0], to: [0, 0, 0.1], radius: -0.05 }] })), "joints.0.collision.0.radius", /> 0/);
+    expectFieldError(await post(sampleArm({ ignoredPairs: [[1, 40]] })), "ignoredPairs.0.1", /names link 40/);
+    expectFieldError(await post(sampleArm({ baseCollision: [{ from: "origin", to: [0, 0, 0.1], radius: 0.1 }] })), "baseCollision.0.from");
+    const rp = (body: unknown) => call(reqs.POST, "/api/requirements", { cookie: acc.editor, body });
+    const I = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+    const r = await rp(sampleRequirementSet({
+      cell: {
+        clearance: -1,
+        obstacles: [
+          { name: "bench", shape: "box", pose: I, size: [1, 0, 0.04] },
+          { name: "bench", shape: "sphere", center: [0, 0, 0], radius: 0.1 },
+          { name: "post", shape: "cylinder", pose: [1, 2, 3], radius: 0.05, length: 1 },
+        ],
+      },
+    }));
+    expectFieldError(r, "cell.clearance", /≥ 0/);
+    expectFieldError(r, "cell.obstacles.0.size.1", /> 0/);
+    expectFieldError(r, "cell.obstacles.2.pose", /16 numbers/);
+    const dup = await rp(sampleRequirementSet({ cell: { obstacles: [{ name: "bench", shape: "sphere", center: [0, 0, 0], radius: 0.1 }, { name: "bench", shape: "sphere", center: [1, 0, 0], radius: 0.1 }] } }));
+    expectFieldError(dup, "cell.obstacles.1.name", /used twice/);
+    const req = sampleRequirementSet();
+    const contact = await rp({ ...req, targets: req.targets.map((t: Body, i: number) => (i === 0 ? { ...t, contact: ["ghost"] } : t)) });
+    expectFieldError(contact, "targets.0.contact.0", /no obstacle of that name/);
+  });
+
+  it("a file with the earlier obstacles imports, converted, with a notice", async () => {
+    const imp = await import("@/app/api/requirements/import/route");
+    const r = await call(imp.POST, "/api/requirements/import", { cookie: acc.editor, body: sampleRequirementSet({ name: "earlier obstacles", obstacles: [{ shape: "box", center: [0.3, 0, 0.1], size: [0.1, 0.1, 0.1] }] }) });
+    expect(r.status).toBe(201);
+    expect(r.body.notices[0]).toMatch(/1 obstacle in the earlier form/);
+    expect(r.body.requirementSet.cell.obstacles[0]).toEqual({ name: "obstacle 1", shape: "box", pose: [1, 0, 0, 0.3, 0, 1, 0, 0, 0, 0, 1, 0.1, 0, 0, 0, 1], size: [0.1, 0.1, 0.1] });
+    expect(r.body.requirementSet.obstacles).toBeUndefined();
   });
 
   it("nothing invalid was stored", async () => {

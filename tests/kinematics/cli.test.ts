@@ -1,4 +1,4 @@
-// The command line (DESIGN.md "Command line") runs the same library; checked here against the
+// The command line (docs/cli.md) runs the same library; checked here against the
 // planar 2R closed form (Craig ch. 3) and for its error contract (exit 2, one stderr line naming the field).
 import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";

@@ -1,40 +1,39 @@
+// Every answer is judged with an independent forward kinematics written from the DH formula in
+// tests/helpers/dh-reference.ts (checked against Orocos KDL in tests/reference/kdl.test.ts), never
+// with the solver's own error function; targets are made with it too.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
   createData,
   createModel,
   createRng,
-  forwardKinematics,
   mat4MulRigid,
-  positionDistance,
   randomConfiguration,
-  rotationAngleBetween,
   solveIk,
   solveIkMulti,
-  withinLimits,
-  zAxisAngleBetween,
-  type ArmKinematics,
   type ArmModel,
+  type DhArmKinematics,
   type IkMode,
   type IkResult,
 } from "@/lib/kinematics";
 import { planarArm, randomArm, SPHERICAL_WRIST_6R } from "../helpers/arms";
+import { referenceAxisError, referencePositionError, referenceRotationError, referenceToolPose, referenceWithinLimits } from "../helpers/dh-reference";
 
-function fkPose(model: ArmModel, q: ArrayLike<number>): Float64Array {
-  const data = createData(model);
-  forwardKinematics(model, data, q);
-  return Float64Array.from(data.toolPose);
-}
-
-/** Independent check of an IK answer: FK of its q hits the target within tolerance, q within limits. */
-function expectHits(model: ArmModel, target: Float64Array, r: IkResult, mode: IkMode, tolP = 1e-5, tolR = 1e-4) {
+/**
+ * Independent check of an IK answer: the forward kinematics written in the test from the DH
+ * formula (tests/helpers/dh-reference.ts, itself checked against Orocos KDL) puts the tool within
+ * tolerance of the target, q lies within the limits, and the solver's reported errors agree with
+ * the independently measured ones.
+ */
+function expectHits(arm: DhArmKinematics, target: ArrayLike<number>, r: IkResult, mode: IkMode, tolP = 1e-5, tolR = 1e-4) {
   expect(r.status).toBe("reached");
-  expect(withinLimits(model, r.q)).toBe(true);
-  const pose = fkPose(model, r.q);
-  expect(positionDistance(pose, target)).toBeLessThanOrEqual(tolP);
-  if (mode === "pose") expect(rotationAngleBetween(pose, target)).toBeLessThanOrEqual(tolR);
-  if (mode === "axis") expect(zAxisAngleBetween(pose, target)).toBeLessThanOrEqual(tolR);
-  expect(r.positionError).toBeCloseTo(positionDistance(pose, target), 12);
+  expect(referenceWithinLimits(arm.joints, r.q)).toBe(true);
+  const pose = referenceToolPose(arm, r.q);
+  // 1e-9 m / rad of slack: the solver's own FK and this one round differently.
+  expect(referencePositionError(pose, target)).toBeLessThanOrEqual(tolP + 1e-9);
+  if (mode === "pose") expect(referenceRotationError(pose, target)).toBeLessThanOrEqual(tolR + 1e-9);
+  if (mode === "axis") expect(referenceAxisError(pose, target)).toBeLessThanOrEqual(tolR + 1e-9);
+  expect(r.positionError).toBeCloseTo(referencePositionError(pose, target), 9);
 }
 
 function translation(x: number, y: number, z: number): Float64Array {
@@ -46,17 +45,18 @@ describe("solveIk: closed forms", () => {
   // (Craig, "Introduction to Robotics", ch. 4, planar 2R; Spong et al. §3.3 / ch. 4 elbow up/down).
   it("planar 2R: point target reached; solveIkMulti finds both elbow branches", () => {
     const [l1, l2] = [0.4, 0.3];
-    const model = createModel(planarArm([l1, l2]));
+    const arm = planarArm([l1, l2]);
+    const model = createModel(arm);
     const data = createData(model);
     const target = translation(0.45, 0.25, 0);
     const c2 = (0.45 ** 2 + 0.25 ** 2 - l1 ** 2 - l2 ** 2) / (2 * l1 * l2);
     expect(Math.abs(c2)).toBeLessThan(1); // reachable by the closed form
     const r = solveIk(model, data, target, { mode: "point" });
-    expectHits(model, target, r, "point");
+    expectHits(arm, target, r, "point");
     const all = solveIkMulti(model, data, target, { mode: "point" });
     expect(all.length).toBe(2); // the closed form has exactly two solutions
     for (const s of all) {
-      expectHits(model, target, s, "point");
+      expectHits(arm, target, s, "point");
       // each answer satisfies the closed-form elbow equation (to the 1e-5 m IK tolerance)
       expect(Math.abs(Math.cos(s.q[1]) - c2)).toBeLessThan(1e-4);
     }
@@ -67,7 +67,8 @@ describe("solveIk: closed forms", () => {
   // Craig ch. 4 (3R planar example). Pose targets of a planar arm are consistent 6-D poses.
   it("planar 3R: pose target (x, y, φ) reached in pose mode, two branches", () => {
     const l = [0.5, 0.35, 0.1];
-    const model = createModel(planarArm(l));
+    const arm = planarArm(l);
+    const model = createModel(arm);
     const data = createData(model);
     const phi = 0.8, x = 0.4, y = 0.5;
     const target = Float64Array.from([Math.cos(phi), -Math.sin(phi), 0, x, Math.sin(phi), Math.cos(phi), 0, y, 0, 0, 1, 0, 0, 0, 0, 1]);
@@ -76,7 +77,7 @@ describe("solveIk: closed forms", () => {
     const all = solveIkMulti(model, data, target, { mode: "pose" });
     expect(all.length).toBe(2);
     for (const s of all) {
-      expectHits(model, target, s, "pose");
+      expectHits(arm, target, s, "pose");
       expect(Math.abs(Math.cos(s.q[1]) - c2)).toBeLessThan(1e-3);
       expect(Math.abs(s.q[0] + s.q[1] + s.q[2] - phi)).toBeLessThan(1e-4); // heading within the rotation tolerance
     }
@@ -84,7 +85,7 @@ describe("solveIk: closed forms", () => {
 
   // SCARA RRPR (Spong §3.3 SCARA): z fixes d3 = −z − d4, heading fixes θ4; 2 branches of θ1, θ2.
   it("SCARA RRPR: pose target reached, prismatic joint within its range", () => {
-    const arm: ArmKinematics = {
+    const arm: DhArmKinematics = {
       name: "invented SCARA",
       convention: "dh",
       joints: [
@@ -95,9 +96,9 @@ describe("solveIk: closed forms", () => {
       ],
     };
     const model = createModel(arm);
-    const target = fkPose(model, [0.3, 1.2, 0.15, -0.7]);
+    const target = referenceToolPose(arm, [0.3, 1.2, 0.15, -0.7]);
     const r = solveIk(model, createData(model), target);
-    expectHits(model, target, r, "pose");
+    expectHits(arm, target, r, "pose");
     expect(r.q[2]).toBeCloseTo(0.15, 9); // d3 = −z − d4 is unique
   });
 });
@@ -107,20 +108,23 @@ describe("solveIk: properties on random arms (fast-check)", () => {
   // in-limit configuration, so it is reachable; IK must reach it and FK of the answer must hit it.
   const arms = (() => {
     const rng = createRng(4242);
-    const list: ArmModel[] = [];
-    for (let i = 0; i < 12; i++) list.push(createModel(randomArm(rng, { n: [6, 7, 6, 5][i % 4], convention: i % 2 ? "mdh" : "dh" })));
-    list.push(createModel(SPHERICAL_WRIST_6R));
+    const list: { arm: DhArmKinematics; model: ArmModel }[] = [];
+    for (let i = 0; i < 12; i++) {
+      const arm = randomArm(rng, { n: [6, 7, 6, 5][i % 4], convention: i % 2 ? "mdh" : "dh" });
+      list.push({ arm, model: createModel(arm) });
+    }
+    list.push({ arm: SPHERICAL_WRIST_6R, model: createModel(SPHERICAL_WRIST_6R) });
     return list;
   })();
   for (const mode of ["pose", "axis", "point"] as const) {
     it(`${mode} mode: targets from FK of random in-limit configurations are reached`, () => {
       fc.assert(
         fc.property(fc.integer({ min: 0, max: arms.length - 1 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }), (armIndex, seed) => {
-          const model = arms[armIndex];
+          const { arm, model } = arms[armIndex];
           const q = randomConfiguration(model, createRng(seed));
-          const target = fkPose(model, q);
+          const target = Float64Array.from(referenceToolPose(arm, q));
           const r = solveIk(model, createData(model), target, { mode, seed });
-          expectHits(model, target, r, mode);
+          expectHits(arm, target, r, mode);
         }),
         { numRuns: 120, seed: mode.length },
       );
@@ -130,16 +134,16 @@ describe("solveIk: properties on random arms (fast-check)", () => {
   it("FK of any IK answer (reached or not) matches the reported errors", () => {
     fc.assert(
       fc.property(fc.integer({ min: 0, max: arms.length - 1 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }), (armIndex, seed) => {
-        const model = arms[armIndex];
+        const { arm, model } = arms[armIndex];
         const rng = createRng(seed);
-        const target = fkPose(model, randomConfiguration(model, rng));
+        const target = Float64Array.from(referenceToolPose(arm, randomConfiguration(model, rng)));
         target[3] += 0.05; // perturbed: may or may not be reachable
         const r = solveIk(model, createData(model), target, { seed, maxRestarts: 3 });
-        const pose = fkPose(model, r.q);
-        expect(r.positionError).toBeCloseTo(positionDistance(pose, target), 12);
-        expect(r.rotationError).toBeCloseTo(rotationAngleBetween(pose, target), 9);
-        expect(withinLimits(model, r.q)).toBe(true);
-        if (r.status === "reached") expectHits(model, target, r, "pose");
+        const pose = referenceToolPose(arm, r.q);
+        expect(r.positionError).toBeCloseTo(referencePositionError(pose, target), 9);
+        expect(r.rotationError).toBeCloseTo(referenceRotationError(pose, target), 8);
+        expect(referenceWithinLimits(arm.joints, r.q)).toBe(true);
+        if (r.status === "reached") expectHits(arm, target, r, "pose");
         else expect(r.reason).toMatch(/not reached/);
       }),
       { numRuns: 60, seed: 9 },
@@ -151,14 +155,14 @@ describe("solveIk: modes, branches, determinism", () => {
   it("axis mode leaves the spin about the tool z-axis free (5-joint arm)", () => {
     // A 5-joint arm cannot set all 6 pose coordinates; a target spun about its own z keeps the
     // position and tool axis, so axis mode must reach it (common practice, no source).
-    const five: ArmKinematics = { ...SPHERICAL_WRIST_6R, name: "5R", joints: SPHERICAL_WRIST_6R.joints.slice(0, 5) };
+    const five: DhArmKinematics = { ...SPHERICAL_WRIST_6R, name: "5R", joints: SPHERICAL_WRIST_6R.joints.slice(0, 5) };
     const model = createModel(five);
     const data = createData(model);
-    const target = fkPose(model, [0.3, 0.2, -0.4, 0.5, 0.9]);
+    const target = referenceToolPose(five, [0.3, 0.2, -0.4, 0.5, 0.9]);
     const spin = Float64Array.from([Math.cos(1), -Math.sin(1), 0, 0, Math.sin(1), Math.cos(1), 0, 0, 0, 0, 1, 0, 0, 0, 0, 1]);
     const spun = mat4MulRigid(new Float64Array(16), target, spin);
     const r = solveIk(model, data, spun, { mode: "axis" });
-    expectHits(model, spun, r, "axis");
+    expectHits(five, spun, r, "axis");
     const p = solveIk(model, data, spun, { mode: "pose", maxRestarts: 10 });
     expect(p.status).toBe("not-reached");
     expect(p.rotationError).toBeGreaterThan(0.1);
@@ -167,17 +171,17 @@ describe("solveIk: modes, branches, determinism", () => {
   it("spherical-wrist 6R: several distinct branches (shoulder, elbow, wrist flip) for one target", () => {
     const model = createModel(SPHERICAL_WRIST_6R);
     const data = createData(model);
-    const target = fkPose(model, [0.4, 0.3, 0.2, 0.5, 0.8, -0.3]);
+    const target = Float64Array.from(referenceToolPose(SPHERICAL_WRIST_6R, [0.4, 0.3, 0.2, 0.5, 0.8, -0.3]));
     const all = solveIkMulti(model, data, target, { maxRestarts: 200 });
     expect(all.length).toBeGreaterThanOrEqual(4);
-    for (const s of all) expectHits(model, target, s, "pose");
+    for (const s of all) expectHits(SPHERICAL_WRIST_6R, target, s, "pose");
     // wrist flip: both signs of joint 5 appear (θ5 ↔ −θ5 with θ4 ± π, θ6 ± π)
     expect(all.some((s) => s.q[4] > 0) && all.some((s) => s.q[4] < 0)).toBe(true);
   });
 
   it("same seed, same answer; answers carry diagnostics", () => {
     const model = createModel(SPHERICAL_WRIST_6R);
-    const target = fkPose(model, [1, -0.5, 0.7, 2, -1, 0.3]);
+    const target = Float64Array.from(referenceToolPose(SPHERICAL_WRIST_6R, [1, -0.5, 0.7, 2, -1, 0.3]));
     const a = solveIk(model, createData(model), target, { seed: 17 });
     const b = solveIk(model, createData(model), target, { seed: 17 });
     expect(Array.from(a.q)).toEqual(Array.from(b.q));
@@ -192,9 +196,9 @@ describe("solveIk: modes, branches, determinism", () => {
     const arm = planarArm([0.4, 0.3]);
     arm.joints[0] = { ...arm.joints[0], min: 2, max: 4 };
     const model = createModel(arm);
-    const target = fkPose(model, [3.5, 0.6]);
+    const target = Float64Array.from(referenceToolPose(arm, [3.5, 0.6]));
     const r = solveIk(model, createData(model), target, { mode: "point", initial: [2.1, 0.3] });
-    expectHits(model, target, r, "point");
+    expectHits(arm, target, r, "point");
     expect(r.q[0]).toBeGreaterThanOrEqual(2);
     expect(r.q[0]).toBeLessThanOrEqual(4);
   });
@@ -213,9 +217,9 @@ describe("solveIk: degenerate cases", () => {
 
   it("singular start (wrist axes 4 and 6 aligned at q5 = 0): the solver leaves it and reaches the target", () => {
     const model = createModel(SPHERICAL_WRIST_6R);
-    const target = fkPose(model, [0.2, 0.1, 0.3, 1, 0.7, 0.4]);
+    const target = Float64Array.from(referenceToolPose(SPHERICAL_WRIST_6R, [0.2, 0.1, 0.3, 1, 0.7, 0.4]));
     const r = solveIk(model, createData(model), target, { initial: [0, 0, 0, 0, 0, 0], maxRestarts: 0 });
-    expectHits(model, target, r, "pose");
+    expectHits(SPHERICAL_WRIST_6R, target, r, "pose");
   });
 
   it("target beyond reach: not reached, with a reason and the best residual", () => {
@@ -237,15 +241,16 @@ describe("solveIk: degenerate cases", () => {
     arm.joints[0] = { ...arm.joints[0], min: -0.2, max: 0.2 };
     arm.joints[1] = { ...arm.joints[1], min: 0.05, max: 3 };
     const model = createModel(arm);
-    const free = createModel(planarArm([0.3, 0.3]));
-    const target = fkPose(free, [0, -1]);
+    const freeArm = planarArm([0.3, 0.3]);
+    const free = createModel(freeArm);
+    const target = Float64Array.from(referenceToolPose(freeArm, [0, -1]));
     const r = solveIk(model, createData(model), target, { mode: "point", maxRestarts: 20 });
     expect(r.status).toBe("not-reached");
-    expect(withinLimits(model, r.q)).toBe(true);
+    expect(referenceWithinLimits(arm.joints, r.q)).toBe(true);
     expect(r.positionError).toBeGreaterThan(1e-3);
     expect(r.reason).toMatch(/at a limit/);
     // without the limits the same target is reached (the closed form has a solution)
-    expectHits(free, target, solveIk(free, createData(free), target, { mode: "point" }), "point");
+    expectHits(freeArm, target, solveIk(free, createData(free), target, { mode: "point" }), "point");
   });
 
   it("rejects malformed input with RangeError, never for a numerical outcome", () => {

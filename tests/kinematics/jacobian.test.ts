@@ -13,7 +13,7 @@ import { dhToMdh } from "../helpers/convert";
 
 describe("computeJacobian: closed forms", () => {
   // Planar 2R: J = [[−l1s1 − l2s12, −l2s12], [l1c1 + l2c12, l2c12]], wz row = [1, 1].
-  // Source: Craig ch. 5 (2R Jacobian example); Spong §4; REFERENCES.md §7 states the same convention.
+  // Source: Craig ch. 5 (2R Jacobian example); Spong §4; docs/references.md#2r-dexterity-check-values states the same convention.
   it("planar 2R linear and angular rows", () => {
     const [l1, l2] = [0.45, 0.3];
     const model = createModel(planarArm([l1, l2]));

@@ -47,6 +47,5 @@ describe("comment parser under stress", () => {
       throw new RangeError("Maximum call stack size exceeded");
     };
     expect(renderComment("anything", {}, failing)).toEqual({ html: "", renderError: UNRENDERABLE });
-    expect(UNRENDERABLE).toBe("this comment could not be displayed");
   });
 });

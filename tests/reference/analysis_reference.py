@@ -5,13 +5,14 @@ Run with Debian's interpreter (it has python3-numpy and python3-scipy):
     /usr/bin/python3 tests/reference/analysis_reference.py
 Writes tests/reference/fixtures/analysis_reference.json. Every value here is computed from the
 published formula named beside it, independently of the TypeScript code:
-  - 2R Jacobian J = [[-l1 s1 - l2 s12, -l2 s12], [l1 c1 + l2 c12, l2 c12]] (REFERENCES.md §7;
-    Craig ch. 5; Spong ch. 4), singular values by numpy.linalg.svd, Yoshikawa w = sqrt(det J Jt).
+  - 2R Jacobian J = [[-l1 s1 - l2 s12, -l2 s12], [l1 c1 + l2 c12, l2 c12]]
+    (docs/references.md#2r-dexterity-check-values; Craig ch. 5; Spong ch. 4), singular values by
+    numpy.linalg.svd, Yoshikawa w = sqrt(det J Jt).
   - tau = J^T F (Craig ch. 5).
   - Gravity torque of a 2R arm in a vertical plane (Spong, planar elbow arm):
     g1 = (m1 lc1 + m2 l1) g c1 + m2 lc2 g c12, g2 = m2 lc2 g c12; payload capacity by the
-    per-joint headroom ratio (REFERENCES.md §5), for g = 9.81 (the page's check values) and
-    g = 9.80665 (what the product uses).
+    per-joint headroom ratio (docs/references.md#2r-gravity-and-payload-check-values), for
+    g = 9.81 (the check values listed there) and g = 9.80665 (what the product uses).
   - SPD distances: affine-invariant via scipy.linalg.eigh(B, A) (generalised eigenvalues) and via
     logm(A^-1/2 B A^-1/2); log-Euclidean via scipy.linalg.logm (Pennec et al. 2006; Arsigny et
     al. 2006).

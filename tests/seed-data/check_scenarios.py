@@ -5,7 +5,7 @@
 
 A crude numerical IK (scipy.optimize.least_squares, bounded by the joint limits, 24 seeded random
 starts) per (arm, target) in the target's mode, and IK continuation along each path sampled every
-20 mm. TCP = T_cell_base . arm chain . arm tool . tool.tcp (DESIGN.md). Tolerances: the target's own.
+20 mm. TCP = T_cell_base . arm chain . arm tool . tool.tcp (docs/design.md#frames-of-a-cell). Tolerances: the target's own.
 It then checks that the seed scenarios stay a useful demo (see EXPECTED): the arms that should reach
 everything do, the SCARA reaches only its vertical-axis targets, and so on. Exits 1 on a mismatch.
 """

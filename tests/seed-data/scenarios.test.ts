@@ -33,7 +33,7 @@ const EXPECTED: Record<string, Record<string, Record<string, boolean>>> = {
   },
 };
 
-/** R = Rz(yaw)·Ry(pitch)·Rx(roll), row-major (the convention of DESIGN.md), written out here. */
+/** R = Rz(yaw)·Ry(pitch)·Rx(roll), row-major (docs/design.md#orientation-input), written out here. */
 function rpyMatrix([r, p, y]: readonly number[]): number[] {
   const [cr, sr, cp, sp, cy, sy] = [Math.cos(r), Math.sin(r), Math.cos(p), Math.sin(p), Math.cos(y), Math.sin(y)];
   return [cy * cp, cy * sp * sr - sy * cr, cy * sp * cr + sy * sr, sy * cp, sy * sp * sr + cy * cr, sy * sp * cr - cy * sr, -sp, cp * sr, cp * cr];

@@ -16,7 +16,7 @@ import {
   type ArmModel,
 } from "@/lib/kinematics";
 
-const G = 9.80665; // standard gravity, as DESIGN.md fixes it
+const G = 9.80665; // standard gravity, as docs/design.md#gravity fixes it
 
 const arms = loadSeedArms();
 const reqs = loadSeedRequirementSets();
@@ -180,7 +180,7 @@ function maxToolRadius(model: ArmModel, data: ArmData, seed: number): { radius: 
   return { radius: best.r, q: best.q };
 }
 
-/** Holding torque τ = Σ J_ciᵀ (0, 0, m_i g) + J_toolᵀ (0, 0, m_p g) (DESIGN.md `statics` definitions). */
+/** Holding torque τ = Σ J_ciᵀ (0, 0, m_i g) + J_toolᵀ (0, 0, m_p g) (docs/design.md#statics). */
 function holdTorque(model: ArmModel, data: ArmData, q: Float64Array, payload: number): Float64Array {
   const n = model.n;
   const jac = new Float64Array(6 * n);

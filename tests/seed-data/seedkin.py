@@ -1,8 +1,8 @@
 """Reference kinematics for checking the seed data (numpy/scipy, run with /usr/bin/python3).
 
 Independent of the product's TypeScript library: the link transforms are written out from the
-definitions in DESIGN.md (standard DH: Rz(theta) Tz(d) Tx(a) Rx(alpha), Denavit & Hartenberg 1955;
-modified DH: Rx(alpha) Tx(a) Rz(theta) Tz(d), Craig, "Introduction to Robotics", 3rd ed., ch. 3),
+definitions of docs/design.md#link-transforms (standard DH: Rz(theta) Tz(d) Tx(a) Rx(alpha),
+Denavit & Hartenberg 1955; modified DH: Rx(alpha) Tx(a) Rz(theta) Tz(d), Craig, "Introduction to Robotics", 3rd ed., ch. 3),
 and the static relation tau = J^T F (Craig ch. 5; Spong, Hutchinson & Vidyasagar ch. 4).
 Gravity is -z of the arm base frame, g = 9.80665 m/s^2.
 """

@@ -3,13 +3,14 @@ import { notFound } from "next/navigation";
 import { getRequirementSet } from "@/lib/db";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { RequirementEditor } from "@/components/requirements/RequirementEditor";
+import { LEGACY_OBSTACLES_NOTICE } from "@/shared/schemas";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Requirement set" };
 
-export default async function RequirementPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ created?: string }> }) {
+export default async function RequirementPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ created?: string; converted?: string }> }) {
   const { id } = await params;
-  const { created } = await searchParams;
+  const { created, converted } = await searchParams;
   const user = await requireUser(`/requirements/${id}`);
   const rec = await getRequirementSet(id);
   if (!rec) notFound();
@@ -22,6 +23,7 @@ export default async function RequirementPage({ params, searchParams }: { params
       canWrite={allowed(user, "req:write")}
       deleted={rec.deletedAt !== null}
       created={created === "1" && rec.revision === 1}
+      notices={converted === "1" && rec.revision === 1 ? [LEGACY_OBSTACLES_NOTICE] : undefined}
     />
   );
 }

@@ -1,31 +1,22 @@
-import { z } from "zod";
 import { dummyPasswordHash, hashPassword, verifyPassword } from "@/lib/auth/password";
 import { accountAddressKey, signInFailuresByAccount, signInFailuresByIp } from "@/lib/auth/rate-limit";
 import { clearedSessionCookie, createSession, endRequestSession, getRequestUser, requestSessionIdHash, sessionCookie } from "@/lib/auth/session";
-import { MAX_PASSWORD_LENGTH, passwordProblem } from "@/lib/auth/password-policy";
+import { passwordProblem } from "@/lib/auth/password-policy";
 import { clientAddress, isHttps } from "@/lib/http/forwarded";
 import type { SessionUser } from "@/lib/auth/permissions";
 import {
   approveUser, changePasswordHash, createInvitation, deleteOtherSessions, findUserForSignIn, getPasswordHash, getSignUpMode, listInvitations,
   listUsers, normalizeEmail, refuseUser, revokeInvitation, setSignUpMode, setUserRole, signUpAccount, type UserRecord,
 } from "@/lib/db";
-import { nameText, ROLES, SIGN_UP_MODES, toFieldErrors, type FieldError } from "@/shared/schemas";
+import { approvalInput, passwordChangeInput, roleInput, signInInput, signUpInput, signUpModeInput } from "@/shared/schemas/accounts";
+import { toFieldErrors, type FieldError } from "@/shared/schemas";
+import type { z } from "zod";
 import { ApiError, badRequest, unauthenticated } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { json, parseWith, requireUser, route, type RouteContext } from "@/lib/http/route";
 
 const publicUser = (u: SessionUser) => ({ id: u.id, email: u.email, name: u.name, role: u.role });
 const listedUser = (u: UserRecord) => ({ ...publicUser(u), status: u.status, createdAt: u.createdAt });
-
-const passwordText = z.string({ error: "must be text" }).max(MAX_PASSWORD_LENGTH, `must be at most ${MAX_PASSWORD_LENGTH} characters`);
-
-const signUpBody = z.object({
-  email: z.email({ error: "must be an email address" }).max(254, "must be at most 254 characters"),
-  name: nameText(80),
-  password: passwordText,
-  /** The token of an invitation (from its link), when there is one. */
-  invitation: z.string({ error: "must be the invitation's token" }).max(200).nullable().optional(),
-});
 
 /**
  * Parses a body with a new password in `field`: the schema's field errors together with the
@@ -42,13 +33,6 @@ function parseWithPassword<S extends z.ZodType<Record<string, unknown>>>(schema:
   if (errors.length > 0 || !r.success) throw badRequest(errors);
   return r.data;
 }
-
-const signInBody = z.object({
-  email: z.string({ error: "must be text" }).min(1, "must not be empty").max(254),
-  password: z.string({ error: "must be text" }).min(1, "must not be empty").max(1024),
-});
-
-const roleBody = z.object({ role: z.enum(ROLES, { error: "must be admin, editor or viewer" }) });
 
 async function startSession(req: Request, user: SessionUser, status: number): Promise<Response> {
   const { token, expiresAt } = await createSession(user.id);
@@ -68,7 +52,7 @@ const SIGN_UP_ANSWER = {
  */
 export const signUp = route(async (req) => {
   const raw = await readJsonObject(req);
-  const body = parseWithPassword(signUpBody, raw, "password", { email: raw.email, name: raw.name });
+  const body = parseWithPassword(signUpInput, raw, "password", { email: raw.email, name: raw.name });
   const outcome = await signUpAccount({ email: body.email, name: body.name, passwordHash: await hashPassword(body.password), invitation: body.invitation ?? null });
   if (outcome.kind === "first") return startSession(req, outcome.user, 201);
   return json({ signUp: { access: outcome.access, message: SIGN_UP_ANSWER[outcome.access] } }, 202);
@@ -87,7 +71,7 @@ function rateLimited(ms: number): ApiError {
  * never lock the owner out of their own address. A success clears that pair's failures.
  */
 export const signIn = route(async (req) => {
-  const body = parseWith(signInBody, await readJsonObject(req));
+  const body = parseWith(signInInput, await readJsonObject(req));
   const email = normalizeEmail(body.email);
   const ip = clientAddress(req);
   const key = accountAddressKey(email, ip);
@@ -126,17 +110,12 @@ export const usersList = route(async (req) => {
 export const userUpdate = route<{ id: string }>(async (req, ctx: RouteContext<{ id: string }>) => {
   const admin = await requireUser(req, "user:admin");
   const { id } = await ctx.params;
-  const body = parseWith(roleBody, await readJsonObject(req));
+  const body = parseWith(roleInput, await readJsonObject(req));
   const user = await setUserRole(admin.id, id, body.role);
   return json({ user: publicUser(user) });
 });
 
 // ---- One's own account ----
-
-const passwordChangeBody = z.object({
-  currentPassword: z.string({ error: "must be text" }).min(1, "give your current password").max(MAX_PASSWORD_LENGTH),
-  newPassword: passwordText,
-});
 
 /**
  * Changes one's password: the current one must be given (its failures count like sign-in
@@ -145,7 +124,7 @@ const passwordChangeBody = z.object({
  */
 export const changePassword = route(async (req) => {
   const user = await requireUser(req, "account:manage");
-  const body = parseWithPassword(passwordChangeBody, await readJsonObject(req), "newPassword", { email: user.email, name: user.name });
+  const body = parseWithPassword(passwordChangeInput, await readJsonObject(req), "newPassword", { email: user.email, name: user.name });
   const ip = clientAddress(req);
   const key = accountAddressKey(user.email, ip);
   const wait = Math.max(signInFailuresByAccount.retryAfterMs(key), signInFailuresByIp.retryAfterMs(ip));
@@ -171,18 +150,14 @@ export const signOutOthers = route(async (req) => {
 
 // ---- Administration of accounts ----
 
-const approvalBody = z.object({ decision: z.enum(["approve", "refuse"], { error: "must be approve or refuse" }) });
-
 /** Approves a pending account, or refuses it (it stays, unable to sign in). */
 export const userApproval = route<{ id: string }>(async (req, ctx: RouteContext<{ id: string }>) => {
   const admin = await requireUser(req, "user:admin");
   const { id } = await ctx.params;
-  const body = parseWith(approvalBody, await readJsonObject(req));
+  const body = parseWith(approvalInput, await readJsonObject(req));
   const user = body.decision === "refuse" ? await refuseUser(admin.id, id) : await approveUser(admin.id, id);
   return json({ user: listedUser(user) });
 });
-
-const signUpModeBody = z.object({ mode: z.enum(SIGN_UP_MODES, { error: "must be open, approval or invitation" }) });
 
 export const signUpModeGet = route(async (req) => {
   await requireUser(req, "user:admin");
@@ -191,7 +166,7 @@ export const signUpModeGet = route(async (req) => {
 
 export const signUpModeSet = route(async (req) => {
   const admin = await requireUser(req, "user:admin");
-  const body = parseWith(signUpModeBody, await readJsonObject(req));
+  const body = parseWith(signUpModeInput, await readJsonObject(req));
   return json({ mode: await setSignUpMode(admin.id, body.mode) });
 });
 

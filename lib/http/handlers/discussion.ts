@@ -2,6 +2,7 @@
 // view of link guests. Every handler asks lib/auth/permissions `can()` (directly or through
 // requireUser) before it touches data.
 import { z } from "zod";
+import { resolveCommentInput } from "@/shared/schemas/comments";
 import { can, type LinkGuest, type SessionUser } from "@/lib/auth/permissions";
 import { commentPosts } from "@/lib/auth/rate-limit";
 import { lookUpShareToken } from "@/lib/auth/share-access";
@@ -95,13 +96,11 @@ export const deleteOwnComment = route<CommentParams>(async (req, ctx) => {
   return json(await deleteComment(user.id, commentId));
 });
 
-const resolveBody = z.object({ resolved: z.boolean({ error: "must be true (resolve) or false (reopen)" }) });
-
 export const resolveThread = route<CommentParams>(async (req, ctx) => {
   const user = await requireUser(req, "comment:resolve");
   const { id, commentId } = await ctx.params;
   await commentOf(id, commentId);
-  const body = parseWith(resolveBody, await readJsonObject(req));
+  const body = parseWith(resolveCommentInput, await readJsonObject(req));
   return json(await setCommentResolved(user.id, commentId, body.resolved));
 });
 

@@ -1,4 +1,5 @@
-import { z } from "zod";
+import type { z } from "zod";
+import { documentListQuery, documentUpdateInput } from "@/shared/schemas/documents";
 import type { Action } from "@/lib/auth/permissions";
 import type { DeletedFilter } from "@/lib/db";
 import { notFound } from "@/lib/http/errors";
@@ -22,11 +23,10 @@ export interface DocumentStore<D> {
   restore(userId: string, id: string): Promise<{ id: string; deletedAt: Date | null }>;
   revisions(id: string): Promise<unknown[] | null>;
   revision(id: string, rev: number): Promise<{ revision: number; createdAt: Date; author: unknown; doc: D } | null>;
+  /** What the schema converted in a document as sent (e.g. an earlier form of a field); shown to the sender. */
+  notices?(raw: unknown): string[];
 }
 
-const listQuery = z.object({
-  deleted: z.enum(["exclude", "include", "only"], { error: "must be include, only or exclude" }).optional(),
-});
 
 /** ASCII file name for an export, from the document's name. */
 function exportFileName(name: string, suffix: string): string {
@@ -36,31 +36,34 @@ function exportFileName(name: string, suffix: string): string {
 
 /** Route handlers for list/get/create/update/delete/restore/revisions/export/import of one kind. */
 export function documentRoutes<D extends { name: string }>(store: DocumentStore<D>) {
-  const updateBody = z.object({
-    baseRevision: z.number({ error: "must be the revision number your edit is based on" }).int("must be an integer").min(1, "must be ≥ 1"),
-    [store.key]: store.schema,
-  });
+  const updateBody = documentUpdateInput(store.key, store.schema);
   const missing = (id: string) => notFound(`${store.noun} ${id} does not exist`);
+  const noticesOf = (raw: unknown): { notices?: string[] } => {
+    const notices = store.notices?.(raw) ?? [];
+    return notices.length ? { notices } : {};
+  };
 
   return {
     list: route(async (req) => {
       await requireUser(req, store.read);
-      const q = parseWith(listQuery, Object.fromEntries(new URL(req.url).searchParams));
+      const q = parseWith(documentListQuery, Object.fromEntries(new URL(req.url).searchParams));
       return json({ [`${store.key === "arm" ? "arms" : "requirementSets"}`]: await store.list({ deleted: q.deleted }) });
     }),
 
     create: route(async (req) => {
       const user = await requireUser(req, store.write);
-      const doc = parseWith(store.schema, await readJsonObject(req));
+      const raw = await readJsonObject(req);
+      const doc = parseWith(store.schema, raw);
       const r = await store.create(user.id, doc, "create");
-      return json({ id: r.id, revision: r.revision, [store.key]: r.doc }, 201);
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc, ...noticesOf(raw) }, 201);
     }),
 
     import: route(async (req) => {
       const user = await requireUser(req, store.write);
-      const doc = parseWith(store.schema, await readJsonObject(req));
+      const raw = await readJsonObject(req);
+      const doc = parseWith(store.schema, raw);
       const r = await store.create(user.id, doc, "import");
-      return json({ id: r.id, revision: r.revision, [store.key]: r.doc }, 201);
+      return json({ id: r.id, revision: r.revision, [store.key]: r.doc, ...noticesOf(raw) }, 201);
     }),
 
     get: route<{ id: string }>(async (req, ctx) => {

@@ -1,5 +1,5 @@
-import { z } from "zod";
 import { weightsSchema, type Weights } from "@/shared/schemas/requirements";
+import { exportQuery } from "@/shared/schemas/shortlists";
 import { rankArms, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import {
@@ -78,12 +78,6 @@ export function parseWeightsParam(text: string, base: Weights): Weights {
   return parseWith(weightsSchema, out, "weights");
 }
 
-const exportQuery = z.object({
-  format: z.enum(["csv", "xlsx", "json"], { error: "must be csv, xlsx or json" }),
-  table: z.enum(["ranking", "compliance"], { error: "must be ranking or compliance" }).optional(),
-  run: z.string().min(1).max(100).optional(),
-  weights: z.string().max(300).optional(),
-});
 
 const slug = (s: string) => s.normalize("NFKD").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 60) || "shortlist";
 

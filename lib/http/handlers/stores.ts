@@ -1,4 +1,4 @@
-import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
+import { armSchema, requirementNotices, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
 import * as data from "@/lib/db";
 import { documentRoutes, type DocumentStore } from "./documents";
 
@@ -12,7 +12,7 @@ type Keyed<K extends string, D, T = unknown> = Omit<T, "doc"> & { [P in K]: D };
  * under `key` ("arm", "requirementSet").
  */
 function keyedStore<D, K extends string>(
-  meta: Pick<DocumentStore<D>, "noun" | "read" | "write" | "schema"> & { key: K },
+  meta: Pick<DocumentStore<D>, "noun" | "read" | "write" | "schema" | "notices"> & { key: K },
   db: {
     list: DocumentStore<D>["list"];
     get(id: string): Promise<Keyed<K, D, StoreRecord<D>> | null>;
@@ -70,7 +70,7 @@ export const armRoutes = documentRoutes<ArmDocument>(
 /** Route handlers for /api/requirements. */
 export const requirementRoutes = documentRoutes<RequirementSet>(
   keyedStore<RequirementSet, "requirementSet">(
-    { key: "requirementSet", noun: "requirement set", read: "req:read", write: "req:write", schema: requirementSetSchema },
+    { key: "requirementSet", noun: "requirement set", read: "req:read", write: "req:write", schema: requirementSetSchema, notices: requirementNotices },
     {
       list: (opts) => data.listRequirementSets(opts),
       get: data.getRequirementSet,

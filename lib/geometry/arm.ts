@@ -1,0 +1,188 @@
+/**
+ * The collision geometry of an arm's links: the capsules a file gives (`joints[i].collision`, in
+ * link i's frame), or, without them, capsules derived from the kinematic description and the
+ * link's `radius`.
+ *
+ * ## Frames
+ * Frame 0 is the arm's first joint frame (the base frame after the file's own `base` transform);
+ * frame k (k = 1 … n) is link k's frame, after joint k's transform (the frame `com` is given in).
+ * A derived capsule may join a point fixed in frame k−1 to a point fixed in frame k; both lie on
+ * joint k's axis or on link k, so the capsule moves rigidly with link k (for a revolute joint it
+ * has constant coordinates in frame k; for a prismatic joint the part along the joint's travel
+ * stretches with q).
+ *
+ * ## How link k's capsules are derived (all with the link's `radius`)
+ * - `dh` (link k = Rz(θ+q)·Tz(d)·Tx(a)·Rx(α)): the body joint k moves runs along joint k's axis
+ *   from O₍k−1₎ by d, then along x_k by a to O_k: capsules O₍k−1₎ → (−a, 0, 0)ₖ and
+ *   (−a, 0, 0)ₖ → O_k. For the last link also O_n → the tool point (the file's `tool`).
+ * - `mdh` (link k = Rx(α)·Tx(a)·Rz(θ+q)·Tz(d), row k holding the a and α of the link before joint
+ *   k): link k runs along its own axis from the foot of the common normal, (a_k, 0, 0) in frame
+ *   k−1, to O_k, then along x_k by the next row's a to the next axis (the last link: to the tool
+ *   point).
+ * - `chain` (joint k = T(origin)·Rot(axis, q)): link k runs from O_k to joint k+1's origin (the
+ *   last link: to the tool point); a prismatic joint adds the stretch from its origin to O_k.
+ * - Segments shorter than 1e-9 m are left out; a link whose segments are all shorter gets a
+ *   sphere (a capsule of zero length) of its radius at O_k.
+ * The part before joint 1 (from the base frame to the first joint) belongs to the base: give it
+ * `baseCollision`.
+ *
+ * ## Pairs that always touch
+ * Two links joined through links shorter in all than the sum of their radii overlap in every
+ * configuration (the end of one and the start of the other are never farther apart than the
+ * links between them are long). Checking them says nothing, so for derived geometry such pairs
+ * are set aside ({@link alwaysTouchingPairs}), like the pairs an `ignoredPairs` list names.
+ */
+import type { ArmDocument } from "@/shared/schemas/arm";
+import type { ArmCapsule } from "@/shared/schemas/cell";
+import { createData, createModel, forwardKinematics } from "@/lib/kinematics";
+
+export type Vec3Tuple = [number, number, number];
+
+/** A point fixed in one of the arm's frames (0 = first joint frame, k = link k). */
+export interface FramePoint {
+  frame: number;
+  point: Vec3Tuple;
+}
+
+/** A capsule whose ends are fixed in (possibly different) frames of the arm. */
+export interface AttachedCapsule {
+  from: FramePoint;
+  to: FramePoint;
+  radius: number;
+}
+
+/** The collision geometry of one link. */
+export interface LinkGeometry {
+  /** Link number, 1 … n. */
+  link: number;
+  /** Where the capsules come from: the file's `collision`, derived from the `radius`, or none. */
+  source: "collision" | "derived" | "none";
+  /** The capsules with their ends in the arm's frames (for the analysis). */
+  attached: AttachedCapsule[];
+  /**
+   * The same capsules in the link's own frame (for showing and overriding them). For a derived
+   * capsule of a prismatic joint these are at q = 0 (or the nearer limit), and `stretches` is set.
+   */
+  capsules: ArmCapsule[];
+  stretches: boolean;
+  /** Largest distance between the link's start and end over the joint's travel (m): the kinematic length. */
+  length: number;
+  /** The link's `radius` (m), or null. */
+  radius: number | null;
+}
+
+const SHORT = 1e-9;
+
+type AnyJoint = ArmDocument["joints"][number];
+type ArmLike = Pick<ArmDocument, "convention" | "joints" | "tool"> & { name?: string; base?: number[] };
+
+/** Segments of link k (1-based) by the rules above, with the kinematic length. */
+function derivedSegments(arm: ArmLike, k: number): { segments: [FramePoint, FramePoint][]; length: number } {
+  const n = arm.joints.length;
+  const j = arm.joints[k - 1] as AnyJoint;
+  const tool = arm.tool;
+  const toolPoint: Vec3Tuple = tool ? [tool[3], tool[7], tool[11]] : [0, 0, 0];
+  const O = (frame: number): FramePoint => ({ frame, point: [0, 0, 0] });
+  const P = (frame: number, point: Vec3Tuple): FramePoint => ({ frame, point });
+  const travel = (d: number) => (j.type === "prismatic" ? Math.max(Math.abs(d + j.min), Math.abs(d + j.max)) : Math.abs(d));
+  const segments: [FramePoint, FramePoint][] = [];
+  let length = 0;
+  const add = (a: FramePoint, b: FramePoint, len: number) => {
+    length += len;
+    if (len > SHORT) segments.push([a, b]);
+  };
+  if (arm.convention === "dh") {
+    const r = j as Extract<AnyJoint, { a: number }>;
+    add(O(k - 1), P(k, [-r.a, 0, 0]), travel(r.d));
+    add(P(k, [-r.a, 0, 0]), O(k), Math.abs(r.a));
+    if (k === n) add(O(n), P(n, toolPoint), Math.hypot(...toolPoint));
+  } else if (arm.convention === "mdh") {
+    const r = j as Extract<AnyJoint, { a: number }>;
+    add(P(k - 1, [r.a, 0, 0]), O(k), travel(r.d));
+    if (k < n) {
+      const next = arm.joints[k] as Extract<AnyJoint, { a: number }>;
+      add(O(k), P(k, [next.a, 0, 0]), Math.abs(next.a));
+    } else add(O(n), P(n, toolPoint), Math.hypot(...toolPoint));
+  } else {
+    const r = j as Extract<AnyJoint, { origin: unknown }>;
+    if (r.type === "prismatic") add(P(k - 1, [...r.origin.xyz] as Vec3Tuple), O(k), Math.max(Math.abs(r.min), Math.abs(r.max)));
+    if (k < n) {
+      const next = arm.joints[k] as Extract<AnyJoint, { origin: unknown }>;
+      add(O(k), P(k, [...next.origin.xyz] as Vec3Tuple), Math.hypot(...next.origin.xyz));
+    } else add(O(n), P(n, toolPoint), Math.hypot(...toolPoint));
+  }
+  return { segments, length };
+}
+
+/**
+ * The collision geometry of every link (index k−1 for link k). Throws RangeError (from the
+ * kinematics) when the arm's kinematic description is invalid.
+ */
+export function linkGeometry(arm: ArmLike): LinkGeometry[] {
+  const n = arm.joints.length;
+  // Frames at a reference configuration (q = 0, or the nearer limit) to express frame k−1 points in frame k.
+  const model = createModel({ name: arm.name ?? "", convention: arm.convention, joints: arm.joints, tool: arm.tool } as Parameters<typeof createModel>[0]);
+  const data = createData(model);
+  const q0 = arm.joints.map((j) => Math.min(j.max, Math.max(j.min, 0)));
+  forwardKinematics(model, data, q0);
+  const toFrame = (p: FramePoint, k: number): Vec3Tuple => {
+    if (p.frame === k) return [...p.point] as Vec3Tuple;
+    const F = data.frames, a = 16 * p.frame, b = 16 * k;
+    // world point of p, then into frame k: R_kᵀ (x − o_k)
+    const x = [0, 1, 2].map((r) => F[a + 4 * r] * p.point[0] + F[a + 4 * r + 1] * p.point[1] + F[a + 4 * r + 2] * p.point[2] + F[a + 4 * r + 3]);
+    const d = [x[0] - F[b + 3], x[1] - F[b + 7], x[2] - F[b + 11]];
+    return [0, 1, 2].map((c) => clean(F[b + c] * d[0] + F[b + 4 + c] * d[1] + F[b + 8 + c] * d[2])) as Vec3Tuple;
+  };
+  const out: LinkGeometry[] = [];
+  for (let k = 1; k <= n; k++) {
+    const j = arm.joints[k - 1] as AnyJoint;
+    const { segments, length } = derivedSegments(arm, k);
+    const radius = j.radius ?? null;
+    if (j.collision && j.collision.length > 0) {
+      out.push({
+        link: k, source: "collision", radius, length, stretches: false,
+        capsules: j.collision.map((c) => ({ from: [...c.from], to: [...c.to], radius: c.radius })),
+        attached: j.collision.map((c) => ({ from: { frame: k, point: [...c.from] as Vec3Tuple }, to: { frame: k, point: [...c.to] as Vec3Tuple }, radius: c.radius })),
+      });
+      continue;
+    }
+    if (radius === null || !(radius > 0)) {
+      out.push({ link: k, source: "none", radius, length, stretches: false, capsules: [], attached: [] });
+      continue;
+    }
+    const segs: [FramePoint, FramePoint][] = segments.length > 0 ? segments : [[{ frame: k, point: [0, 0, 0] }, { frame: k, point: [0, 0, 0] }]];
+    const attached = segs.map(([a, b]) => ({ from: a, to: b, radius }));
+    out.push({
+      link: k, source: "derived", radius, length,
+      stretches: j.type === "prismatic" && segs.some(([a, b]) => a.frame !== b.frame),
+      attached,
+      capsules: attached.map((c) => ({ from: toFrame(c.from, k), to: toFrame(c.to, k), radius })),
+    });
+  }
+  return out;
+}
+
+/** Rounds away the last bits of a coordinate computed through two transforms (m). */
+function clean(v: number): number {
+  const r = Math.round(v * 1e12) / 1e12;
+  return Object.is(r, -0) ? 0 : r;
+}
+
+/**
+ * Pairs of derived links (i < j, j − i ≥ 2) that overlap in every configuration: the links
+ * between them are shorter in all than r_i + r_j. Link numbers as in `ignoredPairs`.
+ */
+export function alwaysTouchingPairs(links: readonly LinkGeometry[]): [number, number][] {
+  const out: [number, number][] = [];
+  for (let i = 0; i < links.length; i++) {
+    for (let j = i + 2; j < links.length; j++) {
+      const a = links[i], b = links[j];
+      if (a.source !== "derived" || b.source !== "derived") continue;
+      let between = 0;
+      for (let k = i + 1; k < j; k++) between += links[k].length;
+      if (between < a.radius! + b.radius!) out.push([a.link, b.link]);
+    }
+  }
+  return out;
+}
+
