@@ -25,7 +25,7 @@ beforeAll(async () => {
   const r = await call(signup.POST, "/api/auth/signup", { body: { email: "root@example.test", name: "Root Admin", password: "a long enough password" } });
   expect(r.status).toBe(201);
   admin = sessionCookieOf(r.res);
-});
+}, 120_000);
 afterAll(async () => t.cleanup());
 
 const PW = "a long enough password";

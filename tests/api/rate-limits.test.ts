@@ -15,7 +15,7 @@ let acc: Accounts;
 beforeAll(async () => {
   t = createTestDb();
   acc = await makeAccounts();
-});
+}, 120_000);
 afterAll(async () => t.cleanup());
 
 const PASSWORD = "a long enough password";
