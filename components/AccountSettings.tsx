@@ -2,6 +2,7 @@
 import { useState } from "react";
 import { api, byPath } from "./api";
 import { ErrorSummary, TextField, errText } from "./fields";
+import { PASSWORD_ADVICE } from "./passwordAdvice";
 
 const LABELS: Record<string, string> = { currentPassword: "Current password", newPassword: "New password", repeat: "Repeat the new password" };
 const sessions = (n: number) => (n === 1 ? "1 other session was" : `${n} other sessions were`);
@@ -69,12 +70,13 @@ export function AccountSettings() {
           type="password"
           name="newPassword"
           autoComplete="new-password"
-          hint="at least 10 characters; not a common password, not your email or name"
+          hint="at least 10 characters"
           value={next}
           onChange={setNext}
           error={errText(errors, "newPassword")}
           required
         />
+        <p className="hint">{PASSWORD_ADVICE}</p>
         <TextField label="Repeat the new password" type="password" name="repeat" autoComplete="new-password" value={repeat} onChange={setRepeat} error={errText(errors, "repeat")} required />
         <p className="sub">Changing the password signs out your other sessions (other browsers and devices).</p>
         <div className="toolbar">

@@ -4,6 +4,7 @@ import { useState } from "react";
 import type { SignUpMode } from "@/shared/schemas/roles";
 import { api, byPath } from "./api";
 import { safeNextUrl } from "./nextPath";
+import { PASSWORD_ADVICE } from "./passwordAdvice";
 import { ErrorSummary, TextField, errText } from "./fields";
 
 interface Props {
@@ -22,7 +23,8 @@ function signUpIntro(s: NonNullable<Props["signUp"]>): string {
   return "New accounts start as viewers until an administrator changes their role.";
 }
 
-const PASSWORD_HINT = "at least 10 characters; not a common password, not your email or name; a few unrelated words work well";
+const PASSWORD_HINT = "at least 10 characters";
+
 
 export function AuthForm({ mode, next, signUp }: Props) {
   const [email, setEmail] = useState("");
@@ -108,6 +110,7 @@ export function AuthForm({ mode, next, signUp }: Props) {
         error={errText(errors, "password")}
         required
       />
+      {mode === "signup" && <p className="hint">{PASSWORD_ADVICE}</p>}
       {errText(errors, "invitation") && (
         <p className="err" role="alert">
           Invitation: {errText(errors, "invitation")}

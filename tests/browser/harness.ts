@@ -210,8 +210,11 @@ export async function signUp(t: TrackedPage, user: { email: string; name: string
   await page.getByLabel("Password").fill(user.password);
   await page.getByRole("button", { name: "Create account" }).click();
   const done = page.getByTestId("signup-done");
-  await Promise.race([page.waitForURL("**/arms"), done.waitFor()]);
-  if (new URL(page.url()).pathname !== "/arms") await signIn(t, user);
+  // Whichever comes first; the other wait is dropped (its timeout must not surface later).
+  await Promise.race([page.waitForURL("**/arms").catch(() => undefined), done.waitFor().catch(() => undefined)]);
+  if (new URL(page.url()).pathname === "/arms") return;
+  await done.waitFor();
+  await signIn(t, user);
 }
 
 export async function signIn(t: TrackedPage, user: { email: string; password: string }): Promise<void> {
