@@ -33,6 +33,9 @@ export default defineConfig({
           environment: "node",
           pool: "forks",
           testTimeout: 30_000,
+          // Set-up hooks migrate a fresh database per file; on a loaded machine that can take
+          // longer than vitest's 10 s default, which then fails the file without a failing test.
+          hookTimeout: 60_000,
         },
       },
       {

@@ -43,9 +43,13 @@ function listed(project) {
   return JSON.parse(readFileSync(file, "utf8")).length;
 }
 
-/** Sums passed / failed / skipped over the JSON reports written so far, plus the tests not run. */
+/**
+ * Sums passed / failed / skipped over the JSON reports written so far, plus the tests not run,
+ * and the test files that failed without a failing test (a hook that threw or timed out: their
+ * tests are reported as skipped, so the file must be counted or the failure would not show).
+ */
 function counts() {
-  let passed = 0, failed = 0, skipped = notRun;
+  let passed = 0, failed = 0, skipped = notRun, brokenFiles = 0;
   for (const project of ["unit", "db", "browser"]) {
     const file = path.join(reports, `${project}.json`);
     if (!existsSync(file)) continue;
@@ -53,9 +57,12 @@ function counts() {
     passed += r.numPassedTests ?? 0;
     failed += r.numFailedTests ?? 0;
     skipped += (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
+    for (const f of r.testResults ?? []) {
+      if (f.status === "failed" && !(f.assertionResults ?? []).some((a) => a.status === "failed")) brokenFiles++;
+    }
   }
-  const line = `${passed} passed, ${failed} failed, ${skipped} skipped`;
-  return skipped ? red(line) : line;
+  const line = `${passed} passed, ${failed} failed, ${skipped} skipped` + (brokenFiles ? `, ${brokenFiles} test file${brokenFiles === 1 ? "" : "s"} failed to run` : "");
+  return skipped || brokenFiles ? red(line) : line;
 }
 
 for (const [label, cmd, args] of steps) {

@@ -7,10 +7,12 @@
  * order, and each one is validated with the shared zod schemas. An invalid file throws an error
  * naming the file and the first offending fields.
  */
+import { createHash } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
-import type { z } from "zod";
-import { armSchema, type ArmDocument } from "@/shared/schemas/arm";
+import { z } from "zod";
+import { armSchema, armSpecsSchema, type ArmDocument } from "@/shared/schemas/arm";
+import { importUrdf, UrdfError } from "@/lib/urdf";
 import { requirementSetSchema, type RequirementSet } from "@/shared/schemas/requirements";
 import { toFieldErrors } from "@/shared/schemas/common";
 
@@ -33,9 +35,13 @@ export class SeedDataError extends Error {
   }
 }
 
-/** Sorted list of the `.json` files of one seed folder, relative to the repository root. */
-export function listSeedFiles(kind: "arms" | "requirements", root: string = process.cwd()): string[] {
+/**
+ * Sorted list of the `.json` files of one seed folder, relative to the repository root
+ * (`urdf`: the side files naming each URDF-authored arm's file, identity and specs).
+ */
+export function listSeedFiles(kind: "arms" | "requirements" | "urdf", root: string = process.cwd()): string[] {
   const dir = path.join(seedDataDir(root), kind);
+  if (!fs.existsSync(dir)) return [];
   return fs
     .readdirSync(dir)
     .filter((f) => f.endsWith(".json"))
@@ -56,9 +62,45 @@ function loadFile<S extends z.ZodType>(schema: S, relFile: string, root: string)
   return parsed.data;
 }
 
-/** All seed arms, validated with `armSchema`, in sorted file-name order. */
+/** A side file of a URDF-authored seed arm: the URDF file beside it, the chain, identity and specs. */
+const urdfSeedSchema = z.object({
+  file: z.string().regex(/^[\w.-]+\.urdf$/, "must name a .urdf file in the same folder"),
+  base: z.string().optional(),
+  tip: z.string().optional(),
+  maker: z.string().optional(),
+  modelCode: z.string().optional(),
+  description: z.string(),
+  specs: armSpecsSchema,
+});
+
+/**
+ * One URDF-authored seed arm: the URDF file is imported exactly as the import dialog and the
+ * command line do (lib/urdf), then the side file's identity and specs are added (URDF carries no
+ * datasheet values). The arm records the URDF file's name and hash as its source.
+ */
+function loadUrdfSeed(relFile: string, root: string): ArmDocument {
+  const side = loadFile(urdfSeedSchema, relFile, root);
+  const urdfRel = path.join(path.dirname(relFile), side.file);
+  const bytes = fs.readFileSync(path.join(root, urdfRel));
+  let imported;
+  try {
+    imported = importUrdf(bytes.toString("utf8"), { base: side.base, tip: side.tip, fileName: side.file, sha256: createHash("sha256").update(bytes).digest("hex") });
+  } catch (e) {
+    if (e instanceof UrdfError) throw new SeedDataError(urdfRel, [{ path: e.element, message: e.reason }]);
+    throw e;
+  }
+  const doc = { ...imported.arm, maker: side.maker, modelCode: side.modelCode, description: `${side.description}\n\n${imported.arm.description ?? ""}`.slice(0, 4000), specs: side.specs };
+  const parsed = armSchema.safeParse(doc);
+  if (!parsed.success) throw new SeedDataError(relFile, toFieldErrors(parsed.error));
+  return parsed.data;
+}
+
+/**
+ * All seed arms, validated with `armSchema`: the arm files in sorted file-name order, then the
+ * URDF-authored arms (seed-data/urdf) in sorted side-file order.
+ */
 export function loadSeedArms(root: string = process.cwd()): ArmDocument[] {
-  return listSeedFiles("arms", root).map((f) => loadFile(armSchema, f, root));
+  return [...listSeedFiles("arms", root).map((f) => loadFile(armSchema, f, root)), ...listSeedFiles("urdf", root).map((f) => loadUrdfSeed(f, root))];
 }
 
 /** All seed requirement sets, validated with `requirementSetSchema` (defaults applied), in sorted file-name order. */

@@ -18,14 +18,17 @@ function ForceTable({ arm }: { arm: ArmAnalysis }) {
   return (
     <div className="table-wrap">
       <table className="printable">
-        <caption>Force capability along each required direction (exact, after gravity) with the force ellipsoid&apos;s estimate beside it</caption>
+        <caption>
+          Force capability along each required direction (exact, after gravity) with the torque-limit ellipsoid&apos;s estimate of the same 6-D wrench at the TCP
+          beside it (not the force ellipsoid at the payload CoG)
+        </caption>
         <thead>
           <tr>
             <th scope="col">Target</th>
             <th scope="col" className="num">Required force (N)</th>
             <th scope="col">Direction (cell frame)</th>
             <th scope="col" className="num">Capability, exact (N)</th>
-            <th scope="col" className="num">Ellipsoid estimate (N)</th>
+            <th scope="col" className="num">Ellipsoid estimate at the TCP, 6-D (N)</th>
             <th scope="col" className="num">Required moment (N·m)</th>
             <th scope="col" className="num">Capability, exact (N·m)</th>
             <th scope="col" className="num">Limiting joint</th>
@@ -67,11 +70,15 @@ function PayloadTable({ arm }: { arm: ArmAnalysis }) {
   return (
     <div className="table-wrap">
       <table className="printable">
-        <caption>Payload margin at each reached target (tool + payload held at the payload CoG{load !== null ? `; load ${fmtNum(load, 2)} kg` : ""})</caption>
+        <caption>
+          Payload margin at each reached target: the largest payload at the payload CoG with the tool as given (the tool&apos;s mass at its own CoG)
+          {load !== null ? `; tool + payload ${fmtNum(load, 2)} kg` : ""}
+        </caption>
         <thead>
           <tr>
             <th scope="col">Target</th>
-            <th scope="col" className="num">Holdable total load (kg)</th>
+            <th scope="col" className="num">Holdable payload at the payload CoG (kg)</th>
+            <th scope="col" className="num">Holdable tool + payload (kg)</th>
             <th scope="col" className="num">Margin (kg)</th>
             <th scope="col" className="num">Limiting joint</th>
             <th scope="col">Basis</th>
@@ -84,6 +91,7 @@ function PayloadTable({ arm }: { arm: ArmAnalysis }) {
             return (
               <tr key={t.name}>
                 <th scope="row">{t.name}</th>
+                <td className="num">{fmtNum(h.holdablePayload ?? null, 2)}</td>
                 <td className="num">{fmtNum(h.payloadCapacity, 2)}</td>
                 <td className="num">{fmtNum(h.extraPayloadCapacity, 2)}</td>
                 <td className="num">{h.limitingJoint ?? "–"}</td>

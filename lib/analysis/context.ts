@@ -26,6 +26,9 @@ export interface ArmContext {
   loads: PointLoad[];
   /** Tool + payload mass (kg). */
   loadMass: number;
+  /** Tool mass (at the tool CoG) and payload mass (at the payload CoG), kg. */
+  toolMass: number;
+  payloadMass: number;
   /** tool.tcp (arm tool point → TCP) and its inverse. */
   tcp: Float64Array;
   tcpInverse: Float64Array;
@@ -62,6 +65,6 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   }
   return {
     model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n, toolPoses), toolCogInTcp, loads,
-    loadMass: req.tool.mass + req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
+    loadMass: req.tool.mass + req.payload.mass, toolMass: req.tool.mass, payloadMass: req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
   };
 }

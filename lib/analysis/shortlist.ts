@@ -93,7 +93,7 @@ export interface ShortlistAnalysis {
   version: string;
   caution: string;
   requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[] };
-  /** Weights the ranking used (from the requirement set); re-rank with rankArms(arms, weights). */
+  /** Weights the ranking used (from the requirement set); re-rank with rerank(result, weights). */
   weights: Weights;
   arms: ArmAnalysis[];
   /** Best first (qualified arms, then disqualified ones). */
@@ -172,7 +172,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     return finishArm(ident, arm, ctx, targets, paths, specs, workspace, req, candidates, null);
   });
 
-  const ranking = rankArms(results.map((a): ArmScoreInput => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), req.weights);
+  const ranking = rerank({ arms: results }, req.weights);
   return {
     version: ANALYSIS_VERSION,
     caution: CAUTION,
@@ -224,4 +224,12 @@ function subScores(arm: ArmDocument, ctx: ArmContext | null, targets: TargetAnal
     out[k] = ctx ? rule.score({ arm, ctx, targets, paths, req, candidates }) : rule.unanalysed ? rule.unanalysed(arm, candidates) : zeroScore("arm not analysed");
   }
   return out;
+}
+
+/**
+ * The ranking of a result's arms with the given weights: the same rule the analysis ranks with,
+ * for the live weights of the page, exports with other weights and views that leave a weight out.
+ */
+export function rerank(result: { arms: readonly Pick<ArmAnalysis, "id" | "subScores" | "failedMusts" | "unknownMusts">[] }, weights: Weights): RankedArm[] {
+  return rankArms(result.arms.map((a): ArmScoreInput => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), weights);
 }

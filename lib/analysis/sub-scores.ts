@@ -60,9 +60,10 @@ const dexterity: SubScoreRule = {
 };
 
 /**
- * payload: 1 − L/C with L = tool + payload mass and C the smallest holdable total at the payload
- * CoG over the reached targets (0 at the limit, ½ with twice the load); the rated payload stands
- * in without torque limits; unknown → 0 with a note.
+ * payload: 1 − L/C with L = tool + payload mass and C the smallest holdable total over the reached
+ * targets, the tool at its CoG and the payload at the payload CoG (tool mass + holdable payload;
+ * 0 at the limit, ½ with twice the load); the rated payload stands in without torque limits;
+ * unknown → 0 with a note.
  */
 const payload: SubScoreRule = {
   score({ ctx, targets }) {
@@ -75,7 +76,7 @@ const payload: SubScoreRule = {
     if (caps.length === 0) return zeroScore(L === 0 ? "no load; no capacity figure" : "payload capacity unknown (no torque limits or rated payload): scored 0");
     const C = Math.min(...caps.map((h) => h.payloadCapacity!));
     const basis = caps[0].basis === "rated-payload" ? "rated payload (datasheet)" : "joint torque limits";
-    return { value: C > 0 ? clamp01(1 - L / C) : 0, applicable: true, note: `load ${L.toFixed(2)} kg of ${C.toFixed(2)} kg holdable at the worst target (${basis})` };
+    return { value: C > 0 ? clamp01(1 - L / C) : 0, applicable: true, note: `tool + payload ${L.toFixed(2)} kg of ${C.toFixed(2)} kg holdable at the worst target (tool at its CoG, payload at the payload CoG; ${basis})` };
   },
 };
 

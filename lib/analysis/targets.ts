@@ -17,6 +17,7 @@ import {
   type CapacityResult, type ForceEllipsoid, type WristBody,
 } from "./statics";
 import { worseVerdict, type Verdict } from "./types";
+import { STANDARD_GRAVITY } from "@/shared/units";
 
 /** A required force counts as `marginal` when the capability exceeds it by less than this fraction. */
 export const FORCE_MARGINAL_FRACTION = 0.2;
@@ -67,9 +68,20 @@ export interface HoldingCheck {
   gravityTorque: number[];
   /** |τ_hold,i| / maxTorque_i per joint (null where no limit). */
   torqueUtilisation: (number | null)[];
-  /** Largest extra mass at the payload CoG on top of tool + payload (kg), or null. */
+  /** Largest extra mass at the payload CoG on top of the tool and the payload (kg), or null. */
   extraPayloadCapacity: number | null;
-  /** Tool + payload + extra (kg): the total load the pose can hold at the payload CoG, or null. */
+  /**
+   * Largest payload mass at the payload CoG the pose can hold with the tool as given (its mass at
+   * the tool's CoG) and the arm's own links (kg): payload + extra with torque limits (also when the
+   * given payload is too heavy), rated payload − tool mass on the datasheet basis; null when
+   * unknown or unbounded.
+   */
+  holdablePayload: number | null;
+  /**
+   * Tool + holdable payload (kg): the total load the pose holds, the tool's mass at the tool CoG and
+   * the payload's at the payload CoG (not all of it at the payload CoG); 0 when the pose cannot hold
+   * the tool and payload given; the rated payload on the datasheet basis; or null.
+   */
   payloadCapacity: number | null;
   limitingJoint: number | null;
   /** "torque-limits" (exact), "rated-payload" (datasheet fallback) or "none". */
@@ -90,7 +102,12 @@ export interface ForceCheck {
   momentCapacity: number | null;
   status: CapacityResult["status"];
   limitingJoint: number | null;
-  /** The force ellipsoid's estimate of s (ignores gravity, inscribes the torque box): shown beside, never used. */
+  /**
+   * The torque-limit ellipsoid's estimate of s for the full 6-D wrench at the TCP, 1/‖W⁻¹·Jᵀ·w‖
+   * with the 6×n Jacobian at the TCP (ignores gravity, inscribes the torque box): shown beside the
+   * exact figure, never used. Not the drawn force ellipsoid, which is the 3-D one at the payload CoG
+   * (`TargetAnalysis.forceEllipsoid`).
+   */
   ellipsoidEstimateRatio: number | null;
 }
 
@@ -132,7 +149,11 @@ export interface TargetAnalysis {
   chosen: number | null;
   /** Full dexterity report of the chosen branch. */
   dexterity: DexterityReport | null;
-  /** Force ellipsoid at the payload CoG (chosen branch). */
+  /**
+   * 3-D force ellipsoid at the payload CoG (translational rows of the Jacobian there, torque-limit
+   * weighted; chosen branch): the one to draw. The force check's ellipsoid estimate is a different
+   * figure (6-D wrench at the TCP).
+   */
   forceEllipsoid: ForceEllipsoid | null;
   holding: HoldingCheck | null;
   force: ForceCheck | null;
@@ -222,7 +243,12 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   if (dex.marginal || dex.limiting.value < 0.5) parts.push(`limiting: ${describeLimit(dex)}`);
   if (dex.marginal) parts.push(`below the ${num(DEXTERITY_MARGINAL_THRESHOLD, 1)} threshold`);
   if (reached.length > 1) parts.push(`${reached.length} branches found`);
-  for (const c of centred[chosen].copies) parts.push(`joint ${c.joint} at ${deg(c.chosen)} (its copy${c.others.length > 1 ? "s" : ""} at ${c.others.map(deg).join(", ")} ${c.others.length > 1 ? "are" : "is"} nearer a limit)`);
+  for (const c of centred[chosen].copies) {
+    const room = (v: number) => Math.min(v - model.lower[c.joint - 1], model.upper[c.joint - 1] - v);
+    const tie = c.others.every((o) => room(o) >= room(c.chosen) - 1e-9);
+    const others = `${c.others.length > 1 ? "copies" : "copy"} at ${c.others.map(deg).join(", ")}`;
+    parts.push(`joint ${c.joint} at ${deg(c.chosen)} (${tie ? `as far from its limits as its ${others}` : `its ${others} ${c.others.length > 1 ? "are" : "is"} nearer a limit`})`);
+  }
   if (holding.verdict !== "meets") { verdict = worseVerdict(verdict, holding.verdict); parts.push(holding.reason); }
   if (force) { verdict = worseVerdict(verdict, force.verdict); parts.push(force.reason); }
   if (wrist.verdict === "fails" || wrist.verdict === "marginal") { verdict = worseVerdict(verdict, wrist.verdict); parts.push(wrist.reason); }
@@ -278,29 +304,42 @@ function holdingCheck(ctx: ArmContext, arm: ArmDocument, tauHold: Float64Array):
   if (ctx.hasTorqueLimits) {
     // Jacobian at the payload CoG is in ctx.jac (set by the caller).
     const cap = payloadCapacity(tauHold, ctx.jac, n, model.maxTorque);
+    // The payload alone at its CoG: τ without the payload's weight, then the ratio test along it.
+    const mp = ctx.payloadMass;
+    const perKg = new Float64Array(n);
+    for (let c = 0; c < n; c++) perKg[c] = ctx.jac[2 * n + c] * STANDARD_GRAVITY;
+    const withoutPayload = Float64Array.from(tauHold, (v, c) => v - mp * perKg[c]);
+    const alone = capacityAlong(withoutPayload, perKg, model.maxTorque);
+    const holdable = alone.status === "overloaded" ? 0 : alone.capacity;
     if (cap.status === "overloaded") {
       const j = cap.limitingJoint!;
-      return { ...common, verdict: "fails", reason: `cannot hold the ${num(ctx.loadMass, 1)} kg tool and payload here: joint ${j} needs ${pct(util[j - 1]!)} of its torque limit`, extraPayloadCapacity: 0, payloadCapacity: 0, limitingJoint: j, basis: "torque-limits" };
+      return {
+        ...common, verdict: "fails",
+        reason: `cannot hold the ${num(ctx.toolMass, 1)} kg tool and ${num(mp, 1)} kg payload here: joint ${j} needs ${pct(util[j - 1]!)} of its torque limit` +
+          (holdable !== null && holdable > 0 ? ` (at most ${num(holdable, 1)} kg of payload at the payload CoG with this tool)` : ""),
+        extraPayloadCapacity: 0, holdablePayload: holdable, payloadCapacity: 0, limitingJoint: j, basis: "torque-limits",
+      };
     }
     const extra = cap.extraMass;
     const total = extra === null ? null : extra + ctx.loadMass;
     return {
       ...common, verdict: "meets",
-      reason: extra === null ? "holds the load (no limited joint carries extra weight here)" : `holds ${num(total!, 1)} kg at the payload CoG (limiting joint ${cap.limitingJoint})`,
-      extraPayloadCapacity: extra, payloadCapacity: total, limitingJoint: cap.limitingJoint, basis: "torque-limits",
+      reason: extra === null ? "holds the load (no limited joint carries extra weight here)"
+        : `holds up to ${num(holdable!, 1)} kg of payload at the payload CoG with the ${num(ctx.toolMass, 1)} kg tool (limiting joint ${cap.limitingJoint})`,
+      extraPayloadCapacity: extra, holdablePayload: holdable, payloadCapacity: total, limitingJoint: cap.limitingJoint, basis: "torque-limits",
     };
   }
   const rated = arm.specs?.ratedPayload;
-  if (ctx.loadMass === 0) return { ...common, verdict: "meets", reason: "no tool or payload mass", extraPayloadCapacity: null, payloadCapacity: null, limitingJoint: null, basis: "none" };
+  if (ctx.loadMass === 0) return { ...common, verdict: "meets", reason: "no tool or payload mass", extraPayloadCapacity: null, holdablePayload: null, payloadCapacity: null, limitingJoint: null, basis: "none" };
   if (rated !== undefined) {
     const ok = ctx.loadMass <= rated;
     return {
       ...common, verdict: ok ? "meets" : "fails",
       reason: `${ok ? "" : "cannot hold: "}tool + payload ${num(ctx.loadMass, 2)} kg ${ok ? "within" : "exceeds"} the rated payload ${num(rated, 2)} kg (datasheet; no joint torque limits to check the pose)`,
-      extraPayloadCapacity: rated - ctx.loadMass, payloadCapacity: rated, limitingJoint: null, basis: "rated-payload",
+      extraPayloadCapacity: rated - ctx.loadMass, holdablePayload: Math.max(0, rated - ctx.toolMass), payloadCapacity: rated, limitingJoint: null, basis: "rated-payload",
     };
   }
-  return { ...common, verdict: "unknown", reason: `holding the ${num(ctx.loadMass, 2)} kg load not checked: no joint torque limits and no rated payload`, extraPayloadCapacity: null, payloadCapacity: null, limitingJoint: null, basis: "none" };
+  return { ...common, verdict: "unknown", reason: `holding the ${num(ctx.loadMass, 2)} kg load not checked: no joint torque limits and no rated payload`, extraPayloadCapacity: null, holdablePayload: null, payloadCapacity: null, limitingJoint: null, basis: "none" };
 }
 
 function forceCheck(ctx: ArmContext, tauHold: Float64Array, force: readonly number[], moment: readonly number[]): ForceCheck {
@@ -321,7 +360,7 @@ function forceCheck(ctx: ArmContext, tauHold: Float64Array, force: readonly numb
   }
   const s = r.capacity!;
   const cap = fN > 0 ? `${num(s * fN, 0)} N` : `${num(s * mN, 1)} N·m`;
-  const estText = est === null ? "" : ` (ellipsoid estimate ${fN > 0 ? `${num(est * fN, 0)} N` : `${num(est * mN, 1)} N·m`}, not used)`;
+  const estText = est === null ? "" : ` (6-D torque-ellipsoid estimate at the TCP ${fN > 0 ? `${num(est * fN, 0)} N` : `${num(est * mN, 1)} N·m`}, not used)`;
   const verdict: Verdict = s < 1 ? "fails" : s < 1 + FORCE_MARGINAL_FRACTION ? "marginal" : "meets";
   const reason = r.status === "overloaded"
     ? `required ${what} impossible: holding the load already exceeds joint ${r.limitingJoint}'s torque limit`

@@ -3,3 +3,5 @@ export * from "./tables";
 export * from "./csv";
 export * from "./xlsx";
 export * from "./json";
+export * from "./files";
+export * from "./shortlist";

@@ -1,4 +1,5 @@
 import type { z } from "zod";
+import type { ExportFile } from "@/lib/export/files";
 import { toFieldErrors } from "@/shared/schemas";
 import { can, type Action, type SessionUser } from "@/lib/auth/permissions";
 import { getRequestUser } from "@/lib/auth/session";
@@ -70,5 +71,12 @@ export function parseWith<S extends z.ZodType>(schema: S, value: unknown, prefix
 /** JSON response with a status. */
 export const json = (data: unknown, status = 200, headers?: Record<string, string>): Response =>
   Response.json(data, { status, headers });
+
+/** An export as an attachment; `headers` adds to the content type and disposition. */
+export const download = (file: ExportFile, headers: Record<string, string> = {}): Response =>
+  new Response(file.body, {
+    status: 200,
+    headers: { "content-type": file.contentType, "content-disposition": `attachment; filename="${file.fileName}"`, ...headers },
+  });
 
 export { ApiError };

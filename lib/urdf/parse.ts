@@ -180,7 +180,8 @@ function scanMarkup(text: string): MarkupScan {
 /** Steps 1–3 of the defences (no XML parsing yet). */
 function prescan(text: string): void {
   if (typeof text !== "string") throw new UrdfError("file", "must be text");
-  const bytes = text.length > URDF_LIMITS.bytes ? Infinity : utf8Length(text);
+  // Exact size up to 8 × the limit (a UTF-8 character is at least one byte, so longer text is surely over).
+  const bytes = text.length > 8 * URDF_LIMITS.bytes ? Infinity : utf8Length(text);
   if (bytes > URDF_LIMITS.bytes) {
     const size = Number.isFinite(bytes) ? `${bytes.toLocaleString("en-US")} bytes` : `more than ${URDF_LIMITS.bytes.toLocaleString("en-US")} bytes`;
     throw new UrdfError("file", `is ${size}; the limit is 2 MiB (${URDF_LIMITS.bytes.toLocaleString("en-US")} bytes)`);

@@ -8,7 +8,8 @@
  */
 import "server-only";
 import { can, type LinkGuest } from "@/lib/auth/permissions";
-import { rankArms, subScoreOf, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
+import { subScoreOf, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
+import { rerank } from "@/lib/analysis/shortlist";
 import type { Verdict } from "@/lib/analysis/types";
 import { getSharedShortlist } from "@/lib/db";
 
@@ -79,7 +80,7 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
   const weights = prices ? result.weights : { ...result.weights, price: 0 };
   const ranking = prices
     ? result.ranking
-    : rankArms(result.arms.map((a) => ({ armId: a.id, subScores: a.subScores, failedMusts: a.failedMusts, unknownMusts: a.unknownMusts })), weights);
+    : rerank(result, weights);
   const byArm = new Map(result.arms.map((a) => [a.id, a]));
   view.analysis = {
     finishedAt: run.finishedAt ? run.finishedAt.toISOString() : null,

@@ -3,3 +3,4 @@ export * from "./arm";
 export * from "./requirements";
 export * from "./roles";
 export * from "./cell";
+export * from "./urdf";

@@ -131,7 +131,10 @@ const requirementSetObject = z.object({
     mass: nonNegative,
     /** Tool CoG in the arm tool-point (flange side) frame (m). */
     cog: vec3,
-    /** Principal inertia about the CoG (kg·m²), optional. */
+    /**
+     * Principal moments of inertia about the tool CoG (kg·m²), optional, about axes through the CoG
+     * parallel to the x, y and z axes of the arm tool-point frame (the frame `cog` is given in).
+     */
     inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
     /** Collision shapes of the tool (capsules or boxes) in the arm tool-point frame, the frame of `cog`. */
     collision: toolShapes.optional(),
@@ -141,6 +144,10 @@ const requirementSetObject = z.object({
     mass: nonNegative,
     /** Payload CoG in the TCP frame (m). */
     cog: vec3,
+    /**
+     * Principal moments of inertia about the payload CoG (kg·m²), optional, about axes through the
+     * CoG parallel to the x, y and z axes of the TCP frame (the frame `cog` is given in).
+     */
     inertia: z.tuple([nonNegative, nonNegative, nonNegative]).optional(),
     /** Collision shapes of the payload (capsules or boxes) in the TCP frame, the frame of `cog`. */
     collision: toolShapes.optional(),

@@ -1,5 +1,7 @@
 import { z } from "zod";
+import { SUB_SCORES } from "@/shared/sub-scores";
 import { nameText } from "./common";
+import { weightsSchema, type Weights } from "./requirements";
 
 /** A new shortlist: a name, the requirement set and the arms (their current revisions are pinned). */
 export const createShortlistInput = z.object({
@@ -20,3 +22,24 @@ export const exportQuery = z.object({
   run: z.string().min(1).max(100).optional(),
   weights: z.string().max(300).optional(),
 });
+
+/**
+ * The `weights` query parameter, `coverage:4,dexterity:2,…`, over the stored weights `base`
+ * (keys not named keep their stored value); an unknown key or a missing value is a field error.
+ */
+export const weightsParam = (base: Weights) =>
+  z
+    .string()
+    .transform((text, ctx) => {
+      const out: Record<string, unknown> = { ...base };
+      for (const part of text.split(",").filter(Boolean)) {
+        const [k, v] = part.split(":");
+        if (!(SUB_SCORES.keys as readonly string[]).includes(k)) {
+          ctx.addIssue({ code: "custom", message: `unknown weight ${JSON.stringify(k.slice(0, 40))}; use ${SUB_SCORES.keys.join(", ")}` });
+          return z.NEVER;
+        }
+        out[k] = v !== undefined && v.trim() !== "" ? Number(v) : NaN;
+      }
+      return out;
+    })
+    .pipe(weightsSchema);

@@ -18,8 +18,9 @@ const GOLDEN: Record<string, string> = {
   "analysis-1.2.0": "828391cba09cbdd3adcb8b332a2dccbece2d4e02573fda67d55e64f96fac9e99",
   // 1.3.0: workspace reach measured at the arm's own tool point (these arms have none: only the version differs).
   "analysis-1.3.0": "e749a50e8aef53352ade3f415d84e659f6cf1f698949c5a7b56d292a2c2ce7d8",
-  // 1.4.0: axis targets' orientation factor over the constrained rotations; copies 2π apart; exact path speed.
-  "analysis-1.4.0": "5332205d3501066a8e4107975e632f62235c644cf09f43be4a98d0761cb6725f",
+  // 1.4.0: axis targets' orientation factor over the constrained rotations, copies 2π apart, exact path
+  // speed with the trajectory's own ratio, structured IK causes, labels of the payload and ellipsoid figures.
+  "analysis-1.4.0": "152c81a3065862794c1b0bbd374156ec6262f7b8ff8d8f032d744467d7980269",
 };
 
 const DEG = Math.PI / 180;

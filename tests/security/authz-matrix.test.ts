@@ -89,6 +89,12 @@ const ROWS: Row[] = [
     request: async (f, role) => (isMember(role) ? { cookie: (await f.freshMember(role)).cookie } : {}),
   },
   ...documentRows("arms"),
+  // URDF: reading a file into an arm is part of adding arms; exporting is reading.
+  {
+    route: "arms/urdf", method: "POST", expect: WRITE,
+    request: () => ({ body: { fileName: "two.urdf", text: '<robot name="two"><link name="a"/><link name="b"/><joint name="j" type="revolute"><parent link="a"/><child link="b"/><limit lower="-1" upper="1" effort="1" velocity="1"/></joint></robot>' } }),
+  },
+  { route: "arms/[id]/urdf", method: "GET", expect: READ, request: (f) => ({ params: { id: f.armId } }) },
   ...documentRows("requirements"),
   { route: "shortlists", method: "GET", expect: READ },
   { route: "shortlists", method: "POST", expect: WRITE, request: (f) => ({ body: { name: `Posted shortlist ${f.seq()}`, requirementSetId: f.setId, armIds: [f.armId] } }) },

@@ -24,12 +24,17 @@ const EXPECTED: Record<string, Record<string, Record<string, boolean>>> = {
       "tilted-screw": false, "side-bore-insert": false, "label-camera": false,
     },
     "Compact Six 3": { "tray-far-corner": false },
+    // URDF-authored arms (seed-data/urdf): screened here only; check_scenarios.py reads the DH arm files.
+    "Offset Wrist 8": { "*": true },
+    "Bench Six 5": { "feeder-pick": true, "press-fit": true, "tray-far-corner": false, "close-in-nest": false },
   },
   "Deburring cell: cast pump-cover seam": {
     "Foundry Six 12": { "*": true },
     "Table SCARA 600": { "gate-stub": false, "bore-chamfer": false, "back-edge": false, "top-seam": false, "front-edge-chamfer": false },
     "Overhead Six 6": { "top-seam": false },
     "Helper Seven 7": { "top-seam": false },
+    "Offset Wrist 8": { "front-edge-chamfer": true, "back-edge": false },
+    "Bench Six 5": { "top-seam": false, "gate-stub": false },
   },
 };
 

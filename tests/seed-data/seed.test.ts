@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
@@ -11,6 +12,7 @@ import {
   createModel,
   createRng,
   forwardKinematics,
+  jointAxisWorld,
   randomConfiguration,
   type ArmData,
   type ArmModel,
@@ -35,8 +37,10 @@ describe("seed files", () => {
 
   it("loads in sorted file-name order", () => {
     const names = listSeedFiles("arms");
+    const urdf = listSeedFiles("urdf");
     expect([...names].sort()).toEqual(names);
-    expect(arms).toHaveLength(names.length);
+    expect([...urdf].sort()).toEqual(urdf);
+    expect(arms).toHaveLength(names.length + urdf.length);
     expect(reqs.length).toBeGreaterThanOrEqual(2);
   });
 
@@ -55,6 +59,43 @@ describe("seed files", () => {
     } finally {
       fs.rmSync(root, { recursive: true, force: true });
     }
+  });
+});
+
+describe("URDF-authored seed arms", () => {
+  const fromUrdf = arms.filter((a) => a.source?.format === "urdf");
+
+  it("at least two arms come from URDF files, each recording its file and hash", () => {
+    expect(fromUrdf.length).toBeGreaterThanOrEqual(2);
+    for (const a of fromUrdf) {
+      expect(a.convention).toBe("chain");
+      const bytes = fs.readFileSync(path.join("seed-data", "urdf", a.source!.file));
+      expect(a.source!.sha256, a.name).toBe(createHash("sha256").update(bytes).digest("hex"));
+    }
+  });
+
+  it("one has a non-spherical wrist: the last three joint axes never meet in one point", () => {
+    // Distance between the lines of axes 4 and 6 at random configurations (skew-line distance,
+    // or the offset of parallel lines): zero for a spherical wrist. Plain vector geometry.
+    const gap = (arm: ArmDocument): number => {
+      const model = createModel(arm), data = createData(model);
+      const rng = createRng(9), q = new Float64Array(model.n);
+      let least = Infinity;
+      for (let k = 0; k < 20; k++) {
+        randomConfiguration(model, rng, q);
+        forwardKinematics(model, data, q);
+        const a = jointAxisWorld(model, data, 4, new Float64Array(6)), b = jointAxisWorld(model, data, 6, new Float64Array(6));
+        const n = [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+        const d = [b[3] - a[3], b[4] - a[4], b[5] - a[5]];
+        const nn = Math.hypot(n[0], n[1], n[2]);
+        const dist = nn > 1e-9 ? Math.abs(d[0] * n[0] + d[1] * n[1] + d[2] * n[2]) / nn : Math.hypot(d[1] * a[2] - d[2] * a[1], d[2] * a[0] - d[0] * a[2], d[0] * a[1] - d[1] * a[0]);
+        least = Math.min(least, dist);
+      }
+      return least;
+    };
+    const gaps = fromUrdf.map((a) => [a.name, gap(a)] as const);
+    expect(gaps.some(([, g]) => g > 0.05), JSON.stringify(gaps)).toBe(true);
+    expect(gaps.some(([, g]) => g < 1e-9), JSON.stringify(gaps)).toBe(true);
   });
 });
 
@@ -114,7 +155,8 @@ const REAL_MAKERS = [
 const REAL_MODEL_PATTERNS = [/\bIRB\s?\d/i, /\bKR\s?\d/i, /\bUR\s?\d/i, /\bLBR\b/i, /\biiwa\b/i, /\bCRX\b/i, /\bLR Mate\b/i, /\bM-\d+i[A-D]\b/i, /\bTX2\b/i, /\bGP\d{1,3}\b/];
 
 describe("seed data is fictional", () => {
-  const files = [...listSeedFiles("arms"), ...listSeedFiles("requirements"), path.join("seed-data", "README.md")];
+  const urdfFiles = fs.readdirSync(path.join("seed-data", "urdf")).filter((f) => f.endsWith(".urdf")).map((f) => path.join("seed-data", "urdf", f));
+  const files = [...listSeedFiles("arms"), ...listSeedFiles("urdf"), ...urdfFiles, ...listSeedFiles("requirements"), path.join("seed-data", "README.md")];
 
   it("names no real robot maker or model family", () => {
     for (const f of files) {

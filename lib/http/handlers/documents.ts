@@ -4,7 +4,8 @@ import type { Action } from "@/lib/auth/permissions";
 import type { DeletedFilter } from "@/lib/db";
 import { notFound } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
-import { json, parseWith, requireUser, route } from "@/lib/http/route";
+import { documentExport } from "@/lib/export";
+import { download, json, parseWith, requireUser, route } from "@/lib/http/route";
 
 /** What the generic document endpoints need from one kind of revisioned document. */
 export interface DocumentStore<D> {
@@ -27,12 +28,6 @@ export interface DocumentStore<D> {
   notices?(raw: unknown): string[];
 }
 
-
-/** ASCII file name for an export, from the document's name. */
-function exportFileName(name: string, suffix: string): string {
-  const slug = name.normalize("NFKD").replace(/[^\w.-]+/g, "-").replace(/^-+|-+$/g, "").slice(0, 80) || "export";
-  return `${slug}.${suffix}.json`;
-}
 
 /** Route handlers for list/get/create/update/delete/restore/revisions/export/import of one kind. */
 export function documentRoutes<D extends { name: string }>(store: DocumentStore<D>) {
@@ -116,15 +111,7 @@ export function documentRoutes<D extends { name: string }>(store: DocumentStore<
       const { id } = await ctx.params;
       const r = await store.get(id);
       if (!r) throw missing(id);
-      const file = exportFileName(r.doc.name, store.key === "arm" ? "arm" : "requirements");
-      return new Response(JSON.stringify(r.doc, null, 2) + "\n", {
-        status: 200,
-        headers: {
-          "content-type": "application/json; charset=utf-8",
-          "content-disposition": `attachment; filename="${file}"`,
-          "x-armsift-revision": String(r.revision),
-        },
-      });
+      return download(documentExport(r.doc, store.key === "arm" ? "arm" : "requirements"), { "x-armsift-revision": String(r.revision) });
     }),
   };
 }
