@@ -28,13 +28,18 @@ export function SignUpSettings() {
   }, []);
 
   async function choose(next: SignUpMode) {
+    const before = mode;
+    setMode(next);
     setStatus("");
     setProblem("");
     const r = await api<{ mode: SignUpMode }>("/api/settings/sign-up", "PUT", { mode: next });
     if (r.ok) {
       setMode(r.data.mode);
       setStatus(`Sign-up is now: ${MODE_TEXT[r.data.mode].label.toLowerCase()}.`);
-    } else setProblem(r.error.fieldErrors?.map((f) => f.message).join("; ") || r.error.message);
+    } else {
+      setMode(before);
+      setProblem(`Not changed: ${r.error.fieldErrors?.map((f) => f.message).join("; ") || r.error.message}`);
+    }
   }
 
   return (
