@@ -47,6 +47,8 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 120_000,
           hookTimeout: 300_000,
+          // Rebuilds the production server first when it is missing or older than the sources.
+          globalSetup: ["tests/browser/global-setup.ts"],
         },
       },
     ],

@@ -1,7 +1,7 @@
 /**
  * `npm run bench`: runs the kinematics and distance-query benchmarks, then the analysis benchmark when
  * bench/analysis.ts exists, then the URDF import/export benchmark, then the shortlist page benchmark
- * (each module exports `async function run()`).
+ * and the 3-D view benchmark (chunk sizes, frame time) (each module exports `async function run()`).
  */
 import { existsSync } from "node:fs";
 import path from "node:path";
@@ -19,6 +19,7 @@ async function main(): Promise<void> {
   }
   await (await import("./urdf")).run();
   await (await import("./page")).run();
+  await (await import("./view")).run();
 }
 
 main().catch((e: unknown) => {

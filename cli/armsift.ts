@@ -14,6 +14,7 @@ const COMMANDS: Record<string, () => Promise<CliCommand>> = {
   analyze: () => import("./commands/analyze").then((m) => m.command),
   "import-urdf": () => import("./commands/import-urdf").then((m) => m.command),
   "export-urdf": () => import("./commands/export-urdf").then((m) => m.command),
+  cycle: () => import("./commands/cycle").then((m) => m.command),
 };
 
 async function main(argv: readonly string[]): Promise<number> {

@@ -4,7 +4,8 @@
  * ends the program with exit status 2 and one stderr line naming the field and the reason.
  */
 import { readFileSync } from "node:fs";
-import { armSchema, mat4, type ArmDocument } from "@/shared/schemas";
+import type { z } from "zod";
+import { armSchema, mat4, toFieldErrors, type ArmDocument } from "@/shared/schemas";
 
 /** Bad input: `field` names the option, file or JSON path at fault. */
 export class CliError extends Error {
@@ -99,11 +100,15 @@ export function readJsonFile(path: string, field: string): unknown {
 
 /** Reads an arm file and validates it with the shared armSchema; the first problem names its JSON path. */
 export function readArm(path: string, field = "--arm"): ArmDocument {
-  const parsed = armSchema.safeParse(readJsonFile(path, field));
+  return readDocument(armSchema, path, field);
+}
+
+/** Reads a JSON file and validates it with `schema`; the first field error names its JSON path. */
+export function readDocument<S extends z.ZodType>(schema: S, path: string, field: string): z.output<S> {
+  const parsed = schema.safeParse(readJsonFile(path, field));
   if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    const where = issue.path.length ? issue.path.map(String).join(".") : "(root)";
-    throw new CliError(`${field} ${path}: ${where}`, issue.message);
+    const first = toFieldErrors(parsed.error)[0];
+    throw new CliError(`${field} ${path}: ${first.path || "(root)"}`, first.message);
   }
   return parsed.data;
 }
@@ -129,7 +134,7 @@ export function readPoses(path: string, field = "--targets"): number[][] {
   if (!Array.isArray(doc)) throw new CliError(`${field} ${path}`, "must be a JSON list of row-major 4×4 poses");
   return doc.map((m, i) => {
     const r = mat4.safeParse(m);
-    if (!r.success) throw new CliError(`${field} ${path}: [${i}]`, r.error.issues[0].message);
+    if (!r.success) throw new CliError(`${field} ${path}: [${i}]`, toFieldErrors(r.error)[0].message);
     return r.data;
   });
 }

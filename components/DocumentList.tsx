@@ -42,6 +42,10 @@ export interface DocumentListProps<T extends ListedDocument> {
   testId: string;
   /** The columns after Name (a link to the document) and before Revision, Updated and State. */
   columns: DocumentColumn<T>[];
+  /** More actions beside New and Import JSON (shown to those who may write). */
+  actions?: ReactNode;
+  /** Shown under the head, above the table (e.g. an import panel). */
+  children?: ReactNode;
 }
 
 /**
@@ -117,9 +121,11 @@ export function DocumentList<T extends ListedDocument>(props: DocumentListProps<
                 if (f) void importFile(f);
               }}
             />
+            {props.actions}
           </>
         )}
       </PageHead>
+      {props.children}
       <div aria-live="polite" role="status">
         {status && <p className="notice">{status}</p>}
         {problem.length > 0 && (

@@ -14,6 +14,8 @@ import type { DocumentEditorState, DocumentKind } from "./useDocumentEditor";
 export function EditorFrame<Doc, Form>(props: {
   editor: DocumentEditorState<Doc, Form>;
   kind: Pick<DocumentKind<Doc, Form>, "api" | "page" | "what" | "restoreFrom">;
+  /** More export links beside Export JSON (e.g. the arm's URDF), given the document id. */
+  exports?: (id: string) => ReactNode;
   /** The document's name as typed, for the title. */
   name: string;
   /** The editor's own props: which document, who, which revision. */
@@ -45,6 +47,7 @@ export function EditorFrame<Doc, Form>(props: {
               <a className="button" href={`${api}/${id}/export`} download>
                 Export JSON
               </a>
+              {props.exports?.(id)}
             </>
           )}
           {id && canWrite && viewingRevision === undefined && !deleted && <DeleteControl url={`${api}/${id}`} what={what} afterHref={page} />}

@@ -7,7 +7,7 @@ import { analyzeShortlist, type ShortlistAnalysis, type ShortlistArm } from "@/l
 import { analysisKey } from "@/lib/analysis/key";
 import { csvText } from "@/lib/export/csv";
 import { requirementSetSchema } from "@/shared/schemas/requirements";
-import { CliError, parseOptions, readArm, readJsonFile, required, type CliCommand } from "../io";
+import { CliError, parseOptions, readArm, readDocument, required, type CliCommand } from "../io";
 
 /**
  * The compliance table: specs, then targets and paths, each against every arm. Written by the
@@ -50,14 +50,9 @@ export const command: CliCommand = {
     if (files.length === 0) throw new CliError("--arms", "needs at least one arm file");
     const arms: ShortlistArm[] = files.map((f, i) => ({ id: `${i + 1}:${path.basename(f)}`, revision: 1, arm: readArm(f, "--arms") }));
     const reqFile = required(options, "requirements");
-    const parsed = requirementSetSchema.safeParse(readJsonFile(reqFile, "--requirements"));
-    if (!parsed.success) {
-      const issue = parsed.error.issues[0];
-      const where = issue.path.length ? issue.path.map(String).join(".") : "(root)";
-      throw new CliError(`--requirements ${reqFile}: ${where}`, issue.message);
-    }
-    const result = analyzeShortlist(arms, parsed.data);
+    const requirementSet = readDocument(requirementSetSchema, reqFile, "--requirements");
+    const result = analyzeShortlist(arms, requirementSet);
     if (format === "csv") return complianceCsv(result);
-    return { key: analysisKey(arms, parsed.data), ...result } as unknown as Record<string, unknown>;
+    return { key: analysisKey(arms, requirementSet), ...result } as unknown as Record<string, unknown>;
   },
 };

@@ -1,5 +1,7 @@
 "use client";
+import { useState } from "react";
 import { DocumentList, type DocumentColumn } from "../DocumentList";
+import { UrdfImport } from "./UrdfImport";
 import { show } from "../pose";
 import { mToMm } from "@/shared/units";
 
@@ -40,8 +42,9 @@ const ARM_COLUMNS: DocumentColumn<ArmRow>[] = [
   },
 ];
 
-/** The arm catalog table, deleted arms under a toggle, import of an arm JSON file. */
+/** The arm catalog table, deleted arms under a toggle, import of an arm JSON file or a URDF file. */
 export function ArmCatalog({ arms, canWrite }: { arms: ArmRow[]; canWrite: boolean }) {
+  const [urdfOpen, setUrdfOpen] = useState(false);
   return (
     <DocumentList
       rows={arms}
@@ -55,6 +58,13 @@ export function ArmCatalog({ arms, canWrite }: { arms: ArmRow[]; canWrite: boole
       empty={<>No arms yet.{canWrite && " Create one or import a JSON file."}</>}
       testId="arm-table"
       columns={ARM_COLUMNS}
-    />
+      actions={
+        <button type="button" onClick={() => setUrdfOpen(true)} aria-expanded={urdfOpen} aria-controls="urdf-import">
+          Import URDF…
+        </button>
+      }
+    >
+      {urdfOpen && <UrdfImport onClose={() => setUrdfOpen(false)} />}
+    </DocumentList>
   );
 }

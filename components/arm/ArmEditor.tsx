@@ -10,8 +10,10 @@ import { armFormFromDoc, armPathLabel, emptyArmForm, validateArmForm, type ArmFo
 import { formatArmValue } from "./format";
 import { JointTable } from "./JointTable";
 import { DhPastePanel } from "./DhPastePanel";
+import { convertFormToChain } from "./chainConvert";
 import { CollisionPanel } from "./CollisionPanel";
 import { RemoveRowCell } from "../RowControls";
+import { ArmViewPanel } from "../view3d/launchers";
 
 interface Props {
   /** Arm id when editing an existing arm; absent for a new one. */
@@ -51,10 +53,21 @@ export function ArmEditor(props: Props) {
   const ed = useDocumentEditor(ARM_KIND, props);
   const { readOnly, form, update, errMap } = ed;
   const [pasteOpen, setPasteOpen] = useState(false);
+  const [conversion, setConversion] = useState<{ ok: boolean; text: string } | null>(null);
   const updateSpecs = (patch: Partial<ArmForm["specs"]>) => update({ specs: { ...form.specs, ...patch } });
 
   return (
-    <EditorFrame editor={ed} kind={ARM_KIND} name={form.name} of={props}>
+    <EditorFrame
+      editor={ed}
+      kind={ARM_KIND}
+      name={form.name}
+      of={props}
+      exports={(id) => (
+        <a className="button" href={`/api/arms/${id}/urdf`} download title="The arm as a URDF robot description (current revision)">
+          Export URDF
+        </a>
+      )}
+    >
       <fieldset className="panel">
         <legend>Identity</legend>
         <div className="grid wide">
@@ -66,8 +79,20 @@ export function ArmEditor(props: Props) {
       </fieldset>
 
       <fieldset className="panel">
-        <legend>Kinematics (DH table)</legend>
-        <div role="radiogroup" aria-label="DH convention" className="checks" style={{ marginBottom: "0.4rem" }}>
+        <legend>Kinematics ({form.convention === "chain" ? "joint chain" : "DH table"})</legend>
+        {form.source && (
+          <p className="hint" data-testid="arm-source">
+            Imported from the URDF file <code>{form.source.file}</code>
+            {form.source.baseLink && form.source.tipLink && (
+              <>
+                {" "}
+                (chain from link <code>{form.source.baseLink}</code> to link <code>{form.source.tipLink}</code>)
+              </>
+            )}
+            , SHA-256 <code title={form.source.sha256}>{form.source.sha256.slice(0, 16)}…</code>.
+          </p>
+        )}
+        <div role="radiogroup" aria-label="Kinematic convention" className="checks" style={{ marginBottom: "0.4rem" }}>
           <label>
             <input type="radio" name="convention" value="dh" checked={form.convention === "dh"} disabled={readOnly} onChange={() => update({ convention: "dh" })} />
             <span>
@@ -80,24 +105,65 @@ export function ArmEditor(props: Props) {
               <strong>mdh</strong> (modified): link i = Rx(αᵢ₋₁)·Tx(aᵢ₋₁)·Rz(θᵢ)·Tz(dᵢ); row i holds a and α of the link before joint i
             </span>
           </label>
+          <label>
+            <input type="radio" name="convention" value="chain" checked={form.convention === "chain"} disabled={readOnly} onChange={() => update({ convention: "chain" })} />
+            <span>
+              <strong>chain</strong> (general joint chain, as in URDF): link i = T(originᵢ)·Rot(axisᵢ, qᵢ), or ·Trans(axisᵢ·qᵢ) for a prismatic joint
+            </span>
+          </label>
         </div>
-        <p className="hint">
-          The joint variable q adds to θ (revolute) or to d (prismatic); min and max bound q. Lengths in mm, angles in degrees.
-          {form.convention === "mdh" && " In mdh the last link's length goes into the tool transform."}
-        </p>
+        {form.convention === "chain" ? (
+          <p className="hint">
+            Each joint: its origin in the previous link&apos;s frame, x y z in mm and roll, pitch, yaw in degrees (T(origin) = Trans(x y z)·Rz(yaw)·Ry(pitch)·Rx(roll)),
+            then its axis in the joint frame (any length; it is normalised; a zero axis is refused). q turns about the axis (°) or slides along it (mm); min and max bound q.
+          </p>
+        ) : (
+          <p className="hint">
+            The joint variable q adds to θ (revolute) or to d (prismatic); min and max bound q. Lengths in mm, angles in degrees.
+            {form.convention === "mdh" && " In mdh the last link's length goes into the tool transform."} Switching the convention keeps each column&apos;s numbers; to rewrite the
+            table as the same arm in another form, use the conversion below.
+          </p>
+        )}
         <JointTable
+          chain={form.convention === "chain"}
           rows={form.joints}
           maxJoints={MAX_JOINTS}
           readOnly={readOnly}
           errors={errMap}
           onChange={(rows, structural) => update({ joints: rows }, structural)}
         />
-        {!readOnly && !pasteOpen && (
+        {!readOnly && form.convention !== "chain" && (
+          <div className="toolbar">
+            <button
+              type="button"
+              onClick={() => {
+                const r = convertFormToChain(form);
+                if (!r.ok) {
+                  setConversion({ ok: false, text: `Not converted: ${r.errors.map((e) => e.message).join("; ")}` });
+                  return;
+                }
+                update(r.patch, true);
+                setConversion({
+                  ok: r.maxDifference <= 1e-9,
+                  text: `Converted the ${form.convention} table to a joint chain (one way). Forward-kinematics check at ${r.configs} configurations within the limits: the tool pose agrees to ${r.maxDifference.toExponential(1)} (largest difference of a pose entry, m or unitless). Mass centres, collision capsules and the tool transform were moved into the chain's link frames. Save to keep it.`,
+                });
+              }}
+            >
+              Convert this DH table to a chain
+            </button>
+          </div>
+        )}
+        {conversion && (
+          <p className={conversion.ok ? "notice" : "notice bad"} data-testid="chain-conversion" role="status">
+            {conversion.text}
+          </p>
+        )}
+        {!readOnly && !pasteOpen && form.convention !== "chain" && (
           <button type="button" onClick={() => setPasteOpen(true)}>
             Paste from spreadsheet…
           </button>
         )}
-        {!readOnly && pasteOpen && (
+        {!readOnly && pasteOpen && form.convention !== "chain" && (
           <DhPastePanel
             onClose={() => setPasteOpen(false)}
             onApply={(rows) => update({ joints: rows }, true)}
@@ -107,7 +173,7 @@ export function ArmEditor(props: Props) {
 
       <div className="two-col">
         <PoseFieldset
-          legend="Base transform (arm base → first DH frame)"
+          legend="Base transform (arm base → first joint frame)"
           idPrefix="base"
           description={<>x y z in mm, then {RPY_CONVENTION}. Saved as a row-major 4×4 in metres.</>}
           value={form.base}
@@ -127,6 +193,12 @@ export function ArmEditor(props: Props) {
       </div>
 
       <CollisionPanel form={form} errors={errMap} readOnly={readOnly} onChange={update} />
+
+      <fieldset className="panel">
+        <legend>3-D view</legend>
+        <p className="hint">The arm as the table and transforms stand, posed by a slider per joint: check link directions, offsets and axis signs against the datasheet drawing.</p>
+        <ArmViewPanel form={form} />
+      </fieldset>
 
       <fieldset className="panel">
         <legend>Datasheet specs</legend>

@@ -1,9 +1,14 @@
 "use client";
 import { CellNumber } from "../fields";
-import { JOINT_LABEL, jointFieldUnit, newJointRow, type JointNumField, type JointRow, type JointType } from "./armForm";
+import { AXIS_FIELDS, CHAIN_FIELD_PATH, JOINT_LABEL, ORIGIN_FIELDS, jointFieldUnit, newJointRow, type JointNumField, type JointRow, type JointType } from "./armForm";
 import { RowActionsCell } from "../RowControls";
 
-const MAIN: JointNumField[] = ["a", "alpha", "d", "theta", "min", "max", "maxSpeed", "maxTorque", "mass"];
+const LIMITS: JointNumField[] = ["min", "max", "maxSpeed", "maxTorque", "mass"];
+const DH_MAIN: JointNumField[] = ["a", "alpha", "d", "theta", ...LIMITS];
+const CHAIN_MAIN: JointNumField[] = [...ORIGIN_FIELDS, ...AXIS_FIELDS, ...LIMITS];
+
+/** Document path of a column (chain columns live under origin.xyz, origin.rpy and axis). */
+const pathOf = (f: JointNumField): string => (CHAIN_FIELD_PATH as Partial<Record<JointNumField, string>>)[f] ?? f;
 
 function headerUnit(f: JointNumField, rows: JointRow[]): string {
   const units = new Set(rows.map((r) => jointFieldUnit(f, r.type)));
@@ -11,17 +16,26 @@ function headerUnit(f: JointNumField, rows: JointRow[]): string {
   return [...units].join(" or ");
 }
 
-/** Editable DH table: one row per joint, in order from the base. */
+/** Editable joint table (DH parameters, or origin and axis for a chain): one row per joint, in order from the base. */
 export function JointTable(props: {
   rows: JointRow[];
+  /** Which columns: the DH table (dh, mdh) or the chain's origin and axis. */
+  chain?: boolean;
   onChange: (rows: JointRow[], structural?: boolean) => void;
   errors: Record<string, string[]>;
   readOnly: boolean;
   maxJoints: number;
 }) {
   const { rows, errors, readOnly } = props;
+  const MAIN = props.chain ? CHAIN_MAIN : DH_MAIN;
   const set = (i: number, patch: Partial<JointRow>) => props.onChange(rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
-  const e = (i: number, f: string) => errors[`joints.${i}.${f}`]?.join("; ");
+  const e = (i: number, f: string) => {
+    const p = pathOf(f as JointNumField);
+    const own = errors[`joints.${i}.${p}`] ?? [];
+    // Whole-vector problems (a zero axis, a bad origin) show on the first cell of the vector.
+    const whole = f === "axisX" ? errors[`joints.${i}.axis`] ?? [] : f === "ox" ? [...(errors[`joints.${i}.origin`] ?? []), ...(errors[`joints.${i}.origin.xyz`] ?? [])] : f === "roll" ? errors[`joints.${i}.origin.rpy`] ?? [] : [];
+    return [...whole, ...own].join("; ") || undefined;
+  };
   const comErr = (i: number) =>
     [errors[`joints.${i}.com`], errors[`joints.${i}.com.0`], errors[`joints.${i}.com.1`], errors[`joints.${i}.com.2`]].flat().filter(Boolean).join("; ") || undefined;
 
@@ -29,14 +43,15 @@ export function JointTable(props: {
     <>
       <div className="table-wrap">
         <table className="cell-table" data-testid="joint-table">
-          <caption className="visually-hidden">DH parameters and limits per joint</caption>
+          <caption className="visually-hidden">{props.chain ? "Joint origins, axes and limits per joint" : "DH parameters and limits per joint"}</caption>
           <thead>
             <tr>
               <th scope="col">Joint</th>
               <th scope="col">Type</th>
               {MAIN.map((f) => (
                 <th scope="col" key={f} className="num">
-                  {JOINT_LABEL[f]} ({headerUnit(f, rows)})
+                  {JOINT_LABEL[f]}
+                  {headerUnit(f, rows) && ` (${headerUnit(f, rows)})`}
                 </th>
               ))}
               <th scope="col">CoM x y z (mm)</th>
@@ -74,8 +89,8 @@ export function JointTable(props: {
                   {MAIN.map((f) => (
                     <td key={f}>
                       <CellNumber
-                        label={`joint ${n} ${JOINT_LABEL[f]} (${jointFieldUnit(f, r.type)})`}
-                        name={`joints.${i}.${f}`}
+                        label={`joint ${n} ${JOINT_LABEL[f]}${jointFieldUnit(f, r.type) ? ` (${jointFieldUnit(f, r.type)})` : ""}`}
+                        name={`joints.${i}.${pathOf(f)}`}
                         value={r[f]}
                         readOnly={readOnly}
                         error={e(i, f)}

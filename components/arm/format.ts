@@ -10,11 +10,15 @@ export function formatArmValue(path: string, value: unknown, doc: ArmDocument | 
   if (p[0] === "joints" && p.length >= 3 && typeof value === "number") {
     const type = doc?.joints[Number(p[1])]?.type ?? "revolute";
     if (p[2] === "com") return `${show(mToMm(value))} mm`;
+    if (p[2] === "origin") return p[3] === "rpy" ? `${show(radToDeg(value))}°` : `${show(mToMm(value))} mm`;
+    if (p[2] === "axis") return show(value);
     const f = p[2] as JointNumField;
     const unit = jointFieldUnit(f, type);
     return `${show(jointFieldToDisplay(f, type, value))}${unit === "°" ? "" : " "}${unit}`;
   }
   if (p[0] === "joints" && p[2] === "com" && Array.isArray(value)) return `${value.map((v) => show(mToMm(v as number))).join(", ")} mm`;
+  if (p[0] === "joints" && p[2] === "origin" && p[3] === "xyz" && Array.isArray(value)) return `${value.map((v) => show(mToMm(v as number))).join(", ")} mm`;
+  if (p[0] === "joints" && p[2] === "origin" && p[3] === "rpy" && Array.isArray(value)) return `${value.map((v) => show(radToDeg(v as number))).join(", ")}°`;
   if ((p[0] === "base" || p[0] === "tool") && Array.isArray(value) && value.length === 16) {
     const { p: pos, rpy } = matrixPose(value as number[]);
     return `x y z ${pos.map((v) => show(mToMm(v))).join(" ")} mm, rpy ${rpy.map((v) => show(radToDeg(v))).join(" ")}°`;

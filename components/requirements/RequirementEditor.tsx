@@ -11,6 +11,7 @@ import { PathEditor } from "./PathEditor";
 import { SpecTable } from "./SpecTable";
 import { ShapeTable } from "./ShapeTable";
 import { CellCaution } from "../CellCaution";
+import { CellViewPanel } from "../view3d/launchers";
 
 interface Props {
   id?: string;
@@ -200,6 +201,12 @@ export function RequirementEditor(props: Props) {
       <fieldset className="panel">
         <legend>Paths</legend>
         <PathEditor paths={form.paths} errors={errMap} readOnly={readOnly} onChange={(paths, s) => update({ paths }, s)} />
+      </fieldset>
+
+      <fieldset className="panel">
+        <legend>3-D view of the cell</legend>
+        <p className="hint">The arm base placement, the targets as frames with their names, the paths with their direction, and the obstacles, as the form stands.</p>
+        <CellViewPanel form={form} />
       </fieldset>
 
       <fieldset className="panel">

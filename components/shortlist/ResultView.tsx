@@ -5,6 +5,7 @@ import { RankingPanel, type RankingArm } from "./RankingPanel";
 import { TaskMatrix } from "./TaskMatrix";
 import { fmtNum, VerdictTag } from "./verdict";
 import { matrixColumns, matrixRows, pathProfile, workspaceData } from "./view";
+import { SolutionViewPanel } from "../view3d/launchers";
 
 const norm = (v: readonly number[]) => Math.hypot(...v);
 const dirText = (v: readonly number[]) => {
@@ -108,7 +109,7 @@ function PayloadTable({ arm }: { arm: ArmAnalysis }) {
   );
 }
 
-function ArmSection({ arm, index }: { arm: ArmAnalysis; index: number }) {
+function ArmSection({ arm, index, shortlistId, runId }: { arm: ArmAnalysis; index: number; shortlistId: string; runId: string }) {
   const ws = workspaceData(arm);
   return (
     <section className="panel arm-section" aria-labelledby={`arm-${index}-h`} data-testid="arm-section">
@@ -120,6 +121,8 @@ function ArmSection({ arm, index }: { arm: ArmAnalysis; index: number }) {
         <p className="notice bad">Not analysed: {arm.error}</p>
       ) : (
         <>
+          <h4>3-D view</h4>
+          <SolutionViewPanel shortlistId={shortlistId} runId={runId} armId={arm.id} armName={arm.name} />
           <h4>Force capability</h4>
           <ForceTable arm={arm} />
           <h4>Payload</h4>
@@ -236,7 +239,7 @@ export function ResultView(props: {
       <ComplianceTable analysis={analysis} />
       <h2 className="print-break">Per arm</h2>
       {analysis.arms.map((a, i) => (
-        <ArmSection key={a.id} arm={a} index={i} />
+        <ArmSection key={a.id} arm={a} index={i} shortlistId={props.shortlistId} runId={props.runId} />
       ))}
     </>
   );

@@ -7,7 +7,7 @@
  * every Jacobian is expressed in the cell frame with gravity along −z of the cell (a tilted or
  * hanging base therefore gets the right gravity direction).
  */
-import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
+import { kinematicsOf, type ArmDocument, type ArmKinematics } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { computeJacobian, createData, createModel, createRng, randomConfiguration, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
@@ -37,12 +37,21 @@ export interface ArmContext {
   hasSpeedLimits: boolean;
 }
 
+/**
+ * The arm as the analysis sees it in the cell: base = T_cell_base · arm.base and
+ * tool = arm.tool · tool.tcp, so the model's world is the cell frame and its tool point is the
+ * requirement set's TCP. The analysis and the 3-D view both build their model from this.
+ */
+export function placedArmKinematics(arm: ArmKinematics, req: Pick<RequirementSet, "base" | "tool">): ArmKinematics {
+  const base = mul4(req.base, arm.base ?? IDENTITY_4);
+  const tool = mul4(arm.tool ?? IDENTITY_4, req.tool.tcp);
+  return { name: arm.name, convention: arm.convention, joints: arm.joints, base: Array.from(base), tool: Array.from(tool) } as ArmKinematics;
+}
+
 /** Builds the context; throws RangeError (from createModel) on an invalid arm. */
 export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1): ArmContext {
-  const base = mul4(req.base, arm.base ?? IDENTITY_4);
   const tcp = Float64Array.from(req.tool.tcp);
-  const tool = mul4(arm.tool ?? IDENTITY_4, tcp);
-  const model = createModel({ ...kinematicsOf(arm), base: Array.from(base), tool: Array.from(tool) });
+  const model = createModel(placedArmKinematics(kinematicsOf(arm), req));
   const data = createData(model);
   const jac = new Float64Array(6 * model.n);
   const tcpInverse = invertRigid(tcp);

@@ -13,6 +13,6 @@ export * from "./targets";
 export * from "./paths";
 export * from "./workspace";
 export * from "./shortlist";
-export { createArmContext, type ArmContext } from "./context";
+export { createArmContext, placedArmKinematics, type ArmContext } from "./context";
 export * from "./copies";
 export * from "./speed";

@@ -108,13 +108,13 @@ export async function getArmRevision(id: string, revision: number): Promise<ArmR
   return revisioned.getRevision(arms, id, revision);
 }
 
-/** Stores a new arm as revision 1. `input` is validated with armSchema. */
+/** Stores a new arm (validated at the edge with armSchema) as revision 1. */
 export async function createArm(
   userId: string | null,
-  input: unknown,
+  doc: ArmDocument,
   opts: { action?: "create" | "import" } = {},
 ): Promise<{ id: string; revision: 1; arm: ArmDocument }> {
-  return revisioned.createDocument(arms, userId, input, opts);
+  return revisioned.createDocument(arms, userId, doc, opts);
 }
 
 /**
@@ -127,9 +127,9 @@ export async function updateArm(
   userId: string | null,
   id: string,
   baseRevision: number,
-  input: unknown,
+  doc: ArmDocument,
 ): Promise<{ id: string; revision: number; arm: ArmDocument }> {
-  return revisioned.updateDocument(arms, userId, id, baseRevision, input);
+  return revisioned.updateDocument(arms, userId, id, baseRevision, doc);
 }
 
 /** Marks the arm deleted (revisions stay); idempotent. */

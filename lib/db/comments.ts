@@ -8,23 +8,16 @@
  */
 import "server-only";
 import { randomUUID } from "node:crypto";
-import { z } from "zod";
 import { requirementSetSchema } from "@/shared/schemas";
 import { handleOf, mentionedHandles, renderComment } from "@/lib/markdown";
-import { createCommentInput, displayNameSchema, editCommentInput, type Anchor, type AnchorType } from "@/shared/schemas/comments";
+import type { Anchor, AnchorType, CreateCommentInput, EditCommentInput } from "@/shared/schemas/comments";
 import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { readStoredDocument } from "./documents";
 import { ConflictError, NotFoundError, ValidationError } from "./errors";
 
-/** Who writes: a member, or a guest on a comment link with the name they gave. */
+/** Who writes: a member, or a guest on a comment link with the name they gave (cleaned by displayNameSchema). */
 export type CommentAuthor = { kind: "member"; userId: string } | { kind: "guest"; linkId: string; name: string };
-
-function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
-  const r = schema.safeParse(input);
-  if (!r.success) throw new ValidationError(r.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })));
-  return r.data;
-}
 
 export interface CommentView {
   id: string;
@@ -111,14 +104,8 @@ async function storeMentions(tx: Tx, commentId: string, body: string): Promise<s
  * Posts a comment or reply. With a clientKey already used on this shortlist the earlier comment
  * is returned (`created: false`) instead of storing a second one.
  */
-export async function createComment(author: CommentAuthor, shortlistId: string, input: unknown, now: Date = new Date()): Promise<{ id: string; created: boolean }> {
-  const body = parse(createCommentInput, input);
-  let guestName: string | null = null;
-  if (author.kind === "guest") {
-    const r = displayNameSchema.safeParse(author.name);
-    if (!r.success) throw new ValidationError(r.error.issues.map((i) => ({ path: "name", message: i.message })));
-    guestName = r.data;
-  }
+export async function createComment(author: CommentAuthor, shortlistId: string, body: CreateCommentInput, now: Date = new Date()): Promise<{ id: string; created: boolean }> {
+  const guestName = author.kind === "guest" ? author.name : null;
   return db().$transaction(async (tx) => {
     const s = await tx.shortlist.findUnique({ where: { id: shortlistId }, select: { deletedAt: true } });
     if (!s || s.deletedAt) throw new NotFoundError(`shortlist ${shortlistId} does not exist`);
@@ -171,8 +158,7 @@ export async function getCommentOwner(commentId: string): Promise<CommentOwner |
 }
 
 /** A new body: a new immutable revision; the comment row points at it. */
-export async function editComment(actorId: string, commentId: string, input: unknown, now: Date = new Date()): Promise<{ id: string; revision: number }> {
-  const body = parse(editCommentInput, input);
+export async function editComment(actorId: string, commentId: string, body: EditCommentInput, now: Date = new Date()): Promise<{ id: string; revision: number }> {
   return db().$transaction(async (tx) => {
     const c = await tx.comment.findUnique({ where: { id: commentId } });
     if (!c || c.deletedAt) throw new NotFoundError(`comment ${commentId} does not exist`);

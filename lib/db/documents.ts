@@ -1,14 +1,6 @@
 import "server-only";
 import type { z } from "zod";
 import { toFieldErrors } from "@/shared/schemas";
-import { ValidationError } from "./errors";
-
-/** Validates a document on the way in; field errors carry dotted paths. */
-export function parseDocument<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
-  const r = schema.safeParse(input);
-  if (!r.success) throw new ValidationError(toFieldErrors(r.error));
-  return r.data;
-}
 
 /** Parses and re-validates a stored document on the way out; a failure is a server defect. */
 export function readStoredDocument<S extends z.ZodType>(schema: S, json: string, what: string): z.output<S> {

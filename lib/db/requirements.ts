@@ -103,13 +103,13 @@ export async function getRequirementRevision(id: string, revision: number): Prom
   return revisioned.getRevision(sets, id, revision);
 }
 
-/** Stores a new requirement set as revision 1. `input` is validated with requirementSetSchema (defaults applied). */
+/** Stores a new requirement set (validated at the edge with requirementSetSchema, defaults applied) as revision 1. */
 export async function createRequirementSet(
   userId: string | null,
-  input: unknown,
+  doc: RequirementSet,
   opts: { action?: "create" | "import" } = {},
 ): Promise<{ id: string; revision: 1; requirementSet: RequirementSet }> {
-  return revisioned.createDocument(sets, userId, input, opts);
+  return revisioned.createDocument(sets, userId, doc, opts);
 }
 
 /**
@@ -122,9 +122,9 @@ export async function updateRequirementSet(
   userId: string | null,
   id: string,
   baseRevision: number,
-  input: unknown,
+  doc: RequirementSet,
 ): Promise<{ id: string; revision: number; requirementSet: RequirementSet }> {
-  return revisioned.updateDocument(sets, userId, id, baseRevision, input);
+  return revisioned.updateDocument(sets, userId, id, baseRevision, doc);
 }
 
 /** Marks the requirement set deleted (revisions stay); idempotent. */

@@ -5,7 +5,7 @@ import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { jsonDiff, summarizeChanges } from "./diff";
 import { ConflictError, NotFoundError, ValidationError } from "./errors";
-import { deletedWhere, isUniqueViolation, parseDocument, readStoredDocument, userRef, type DeletedFilter, type UserRef } from "./documents";
+import { deletedWhere, isUniqueViolation, readStoredDocument, userRef, type DeletedFilter, type UserRef } from "./documents";
 
 // Revisioned documents (arms, requirement sets): a head row holding the current revision number,
 // the deleted mark and a few columns mirrored from the document for listing, plus one immutable
@@ -164,14 +164,13 @@ export async function getRevision<S extends z.ZodType, K extends string, M exten
   return { revision: r.revision, ...keyed(kind.key, read(kind, r.document, id, r.revision)), createdAt: r.createdAt, author: userRef(r.author) };
 }
 
-/** Stores a new document as revision 1; `input` is validated with the kind's schema. */
+/** Stores a new document (validated at the edge with the kind's schema) as revision 1. */
 export async function createDocument<S extends z.ZodType, K extends string, M extends object, R extends HeadRow>(
   kind: RevisionedKind<S, K, M, R>,
   userId: string | null,
-  input: unknown,
+  doc: z.output<S>,
   opts: { action?: "create" | "import" },
 ): Promise<{ id: string; revision: 1 } & Keyed<K, z.output<S>>> {
-  const doc = parseDocument(kind.schema, input);
   const id = randomUUID();
   const now = new Date();
   await db().$transaction(async (tx) => {
@@ -236,12 +235,11 @@ export async function updateDocument<S extends z.ZodType, K extends string, M ex
   userId: string | null,
   id: string,
   baseRevision: number,
-  input: unknown,
+  doc: z.output<S>,
 ): Promise<{ id: string; revision: number } & Keyed<K, z.output<S>>> {
   if (!Number.isInteger(baseRevision) || baseRevision < 1) {
     throw new ValidationError([{ path: "baseRevision", message: "must be a revision number (integer ≥ 1)" }]);
   }
-  const doc = parseDocument(kind.schema, input);
   const revision = baseRevision + 1;
   try {
     return await db().$transaction(async (tx) => {

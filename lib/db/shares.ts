@@ -6,12 +6,11 @@
  */
 import "server-only";
 import { createHash, randomBytes, randomUUID, timingSafeEqual } from "node:crypto";
-import type { z } from "zod";
 import type { LinkAccess } from "@/shared/schemas/roles";
-import { createLinkInput } from "@/shared/schemas/share";
+import type { CreateLinkInput } from "@/shared/schemas/share";
 import { db } from "./client";
 import { recordAudit } from "./audit";
-import { NotFoundError, ValidationError } from "./errors";
+import { NotFoundError } from "./errors";
 import { userRef, type UserRef } from "./documents";
 
 export const TOKEN_BYTES = 32;
@@ -47,13 +46,6 @@ export interface ShareLinkRecord {
   state: "active" | "expired" | "revoked";
 }
 
-
-function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
-  const r = schema.safeParse(input);
-  if (!r.success) throw new ValidationError(r.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })));
-  return r.data;
-}
-
 type LinkRow = {
   id: string; shortlistId: string; access: string; label: string | null; hidePrices: boolean; createdAt: Date;
   expiresAt: Date | null; revokedAt: Date | null; createdBy: { id: string; name: string } | null;
@@ -73,10 +65,9 @@ const linkInclude = { createdBy: { select: { id: true, name: true } } } as const
 export async function createShareLink(
   actorId: string,
   shortlistId: string,
-  input: unknown,
+  body: CreateLinkInput,
   now: Date = new Date(),
 ): Promise<{ link: ShareLinkRecord; token: string }> {
-  const body = parse(createLinkInput, input);
   const token = randomBytes(TOKEN_BYTES).toString("base64url");
   const id = randomUUID();
   const expiresAt = body.expiresInDays ? new Date(now.getTime() + body.expiresInDays * 86_400_000) : null;

@@ -2,9 +2,9 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import { z } from "zod";
 import { armSchema, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
-import { createShortlistInput } from "@/shared/schemas/shortlists";
+import type { CreateShortlistInput } from "@/shared/schemas/shortlists";
 import { analysisKey } from "@/lib/analysis/key";
-import { ANALYSIS_VERSION, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
+import { ANALYSIS_VERSION, type ArmAnalysis, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
 import { db } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
@@ -78,15 +78,6 @@ export interface ShortlistSummary {
   latestRun: { id: string; status: RunStatus; finishedAt: Date | null } | null;
 }
 
-
-function parse<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
-  const r = schema.safeParse(input);
-  if (!r.success) {
-    throw new ValidationError(r.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })));
-  }
-  return r.data;
-}
-
 function toRunInfo(r: {
   id: string; shortlistId: string; key: string; analysisVersion: string; status: string; progress: number; stage: string | null;
   error: string | null; pins: string | null; createdAt: Date; startedAt: Date | null; finishedAt: Date | null; reusedFromId: string | null;
@@ -109,8 +100,7 @@ const runSelect = {
 } as const;
 
 /** Creates a shortlist pinned to the current revisions of the requirement set and the arms. */
-export async function createShortlist(userId: string | null, input: unknown): Promise<{ id: string; pins: Pins }> {
-  const body = parse(createShortlistInput, input);
+export async function createShortlist(userId: string | null, body: CreateShortlistInput): Promise<{ id: string; pins: Pins }> {
   const id = randomUUID();
   return db().$transaction(async (tx) => {
     const set = await tx.requirementSet.findUnique({ where: { id: body.requirementSetId } });
@@ -339,6 +329,33 @@ export async function getRunResult(runId: string): Promise<ShortlistAnalysis | n
   resultCache.set(runId, parsed);
   if (resultCache.size > RESULT_CACHE_SIZE) resultCache.delete(resultCache.keys().next().value!);
   return parsed;
+}
+
+/** One arm of a finished run with the pinned documents its result was computed from (what the 3-D view draws). */
+export interface RunArmView {
+  runId: string;
+  armId: string;
+  revision: number;
+  arm: ArmDocument;
+  requirementSet: RequirementSet;
+  analysis: ArmAnalysis;
+}
+
+/**
+ * The analysis of one arm in a finished run, with the arm and requirement-set revisions the run
+ * was pinned to. Throws NotFoundError (with the reason) when the run is not this shortlist's, has
+ * no result, or does not include the arm.
+ */
+export async function getRunArmView(shortlistId: string, runId: string, armId: string): Promise<RunArmView> {
+  const run = await getRun(runId);
+  if (!run || run.shortlistId !== shortlistId) throw new NotFoundError(`shortlist ${shortlistId} has no analysis run ${runId}`);
+  const result = run.status === "done" ? await getRunResult(runId) : null;
+  if (!result || !run.pins) throw new NotFoundError(`analysis run ${runId} has no result (status ${run.status})`);
+  const pin = run.pins.arms.find((a) => a.armId === armId);
+  const analysis = result.arms.find((a) => a.id === armId);
+  if (!pin || !analysis) throw new NotFoundError(`analysis run ${runId} does not include arm ${armId}`);
+  const inputs = await loadPinnedInputs({ requirement: run.pins.requirement, arms: [pin] });
+  return { runId, armId, revision: pin.revision, arm: inputs.arms[0].arm, requirementSet: inputs.requirementSet, analysis };
 }
 
 /** queued → running; false when someone else took it or it is no longer queued. */

@@ -23,14 +23,14 @@ export function forwardKinematicsUnchecked(model: ArmModel, data: ArmData, q: Ar
   const prismatic = model.prismatic, A = model.a, D = model.d, TH = model.theta;
   const CA = model.cosAlpha, SA = model.sinAlpha;
   if (model.convention === "chain") {
-    const O = model.origin, U = model.axis;
+    const O = model.origin, U = model.axis, X = model.originCross, W = model.originOuter;
     for (let i = 0; i < n; i++) {
-      const p = 16 * i, o = p + 16, b = 16 * i, k = 3 * i;
+      const p = 16 * i, o = p + 16, b = 16 * i, a3 = 3 * i;
       // P = parent · T(origin): rotation block and translation.
       const o00 = O[b], o01 = O[b + 1], o02 = O[b + 2], o03 = O[b + 3];
       const o10 = O[b + 4], o11 = O[b + 5], o12 = O[b + 6], o13 = O[b + 7];
       const o20 = O[b + 8], o21 = O[b + 9], o22 = O[b + 10], o23 = O[b + 11];
-      const ux = U[k], uy = U[k + 1], uz = U[k + 2];
+      const ux = U[a3], uy = U[a3 + 1], uz = U[a3 + 2];
       if (prismatic[i] === 1) {
         // child = P · Trans(u·q): translation moves by q·(R_P u).
         const tx = o03 + q[i] * (o00 * ux + o01 * uy + o02 * uz);
@@ -44,14 +44,12 @@ export function forwardKinematicsUnchecked(model: ArmModel, data: ArmData, q: Ar
           f[o + r + 3] = p0 * tx + p1 * ty + p2 * tz + p3;
         }
       } else {
-        // Rodrigues: Rot(u, q) = c·I + s·[u]× + (1 − c)·u·uᵀ; M = R_origin · Rot (origin translation unchanged).
-        const c = Math.cos(q[i]), s = Math.sin(q[i]), v = 1 - c;
-        const r00 = c + v * ux * ux, r01 = v * ux * uy - s * uz, r02 = v * ux * uz + s * uy;
-        const r10 = v * ux * uy + s * uz, r11 = c + v * uy * uy, r12 = v * uy * uz - s * ux;
-        const r20 = v * ux * uz - s * uy, r21 = v * uy * uz + s * ux, r22 = c + v * uz * uz;
-        const m00 = o00 * r00 + o01 * r10 + o02 * r20, m01 = o00 * r01 + o01 * r11 + o02 * r21, m02 = o00 * r02 + o01 * r12 + o02 * r22;
-        const m10 = o10 * r00 + o11 * r10 + o12 * r20, m11 = o10 * r01 + o11 * r11 + o12 * r21, m12 = o10 * r02 + o11 * r12 + o12 * r22;
-        const m20 = o20 * r00 + o21 * r10 + o22 * r20, m21 = o20 * r01 + o21 * r11 + o22 * r21, m22 = o20 * r02 + o21 * r12 + o22 * r22;
+        // Rodrigues: Rot(u, q) = c·I + s·[u]× + (1 − c)·u·uᵀ, so M = R_origin·Rot = c·R_origin + s·(R_origin[u]×)
+        // + (1 − c)·(R_origin u uᵀ) with both products precomputed; the origin translation is unchanged.
+        const c = Math.cos(q[i]), s = Math.sin(q[i]), v = 1 - c, k = 9 * i;
+        const m00 = c * o00 + s * X[k] + v * W[k], m01 = c * o01 + s * X[k + 1] + v * W[k + 1], m02 = c * o02 + s * X[k + 2] + v * W[k + 2];
+        const m10 = c * o10 + s * X[k + 3] + v * W[k + 3], m11 = c * o11 + s * X[k + 4] + v * W[k + 4], m12 = c * o12 + s * X[k + 5] + v * W[k + 5];
+        const m20 = c * o20 + s * X[k + 6] + v * W[k + 6], m21 = c * o21 + s * X[k + 7] + v * W[k + 7], m22 = c * o22 + s * X[k + 8] + v * W[k + 8];
         for (let r = 0; r < 12; r += 4) {
           const p0 = f[p + r], p1 = f[p + r + 1], p2 = f[p + r + 2], p3 = f[p + r + 3];
           f[o + r] = p0 * m00 + p1 * m10 + p2 * m20;

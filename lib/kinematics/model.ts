@@ -71,8 +71,9 @@ export function createModel(spec: ArmKinematics): ArmModel {
   const a = new Float64Array(n), alpha = new Float64Array(n), d = new Float64Array(n), theta = new Float64Array(n);
   const cosAlpha = new Float64Array(n).fill(1), sinAlpha = new Float64Array(n);
   const origin = new Float64Array(16 * n), axis = new Float64Array(3 * n);
+  const originCross = new Float64Array(9 * n), originOuter = new Float64Array(9 * n);
   const lower = new Float64Array(n), upper = new Float64Array(n);
-  const maxSpeed = new Float64Array(n).fill(NaN), maxTorque = new Float64Array(n).fill(NaN);
+  const maxSpeed = new Float64Array(n).fill(NaN), maxAcceleration = new Float64Array(n).fill(NaN), maxTorque = new Float64Array(n).fill(NaN);
   const mass = new Float64Array(n), com = new Float64Array(3 * n), radius = new Float64Array(n).fill(NaN);
   const prismatic = new Uint8Array(n);
   const types: JointType[] = [];
@@ -106,6 +107,20 @@ export function createModel(spec: ArmKinematics): ArmModel {
       if (!(len >= MIN_AXIS_LENGTH)) fail(`${at}.axis`, "must not be zero: the axis needs a direction");
       axis[3 * i] = u[0] / len; axis[3 * i + 1] = u[1] / len; axis[3 * i + 2] = u[2] / len;
       writeRpyPose(o, xyz, rpy);
+      const ux = axis[3 * i], uy = axis[3 * i + 1], uz = axis[3 * i + 2];
+      const K = [0, -uz, uy, uz, 0, -ux, -uy, ux, 0];
+      const U = [ux * ux, ux * uy, ux * uz, uy * ux, uy * uy, uy * uz, uz * ux, uz * uy, uz * uz];
+      for (let r = 0; r < 3; r++) {
+        for (let c = 0; c < 3; c++) {
+          let k = 0, u = 0;
+          for (let m = 0; m < 3; m++) {
+            k += o[4 * r + m] * K[3 * m + c];
+            u += o[4 * r + m] * U[3 * m + c];
+          }
+          originCross[9 * i + 3 * r + c] = k;
+          originOuter[9 * i + 3 * r + c] = u;
+        }
+      }
       const offset = Math.hypot(xyz[0], xyz[1], xyz[2]);
       lengthScale += offset + travel;
       reach += offset + travel;
@@ -121,6 +136,7 @@ export function createModel(spec: ArmKinematics): ArmModel {
     }
     lower[i] = min; upper[i] = max;
     if (j.maxSpeed !== undefined) maxSpeed[i] = j.maxSpeed as number;
+    if (j.maxAcceleration !== undefined) maxAcceleration[i] = j.maxAcceleration as number;
     if (j.maxTorque !== undefined) maxTorque[i] = j.maxTorque as number;
     if (j.mass !== undefined) mass[i] = j.mass as number;
     if (j.com !== undefined) {
@@ -141,8 +157,8 @@ export function createModel(spec: ArmKinematics): ArmModel {
     types: Object.freeze(types),
     prismatic,
     a, alpha, d, theta, cosAlpha, sinAlpha,
-    origin, axis,
-    lower, upper, maxSpeed, maxTorque, mass, com, radius,
+    origin, axis, originCross, originOuter,
+    lower, upper, maxSpeed, maxAcceleration, maxTorque, mass, com, radius,
     base, tool,
     axisFrameOffset: convention === "dh" ? 0 : 1,
     lengthScale: lengthScale > 0 ? lengthScale : 1,

@@ -53,6 +53,8 @@ export interface ArmModel {
   readonly upper: Float64Array;
   /** Max joint speed (rad/s or m/s), NaN where absent (length n). */
   readonly maxSpeed: Float64Array;
+  /** Max joint acceleration (rad/s² or m/s²), NaN where absent (length n). */
+  readonly maxAcceleration: Float64Array;
   /** Max joint torque (N·m) or force (N), NaN where absent (length n). */
   readonly maxTorque: Float64Array;
   /** Link mass (kg), 0 where absent (length n). */
@@ -77,6 +79,13 @@ export interface ArmModel {
    * the world frame after a forward-kinematics call.
    */
   readonly axis: Float64Array;
+  /**
+   * `chain` revolute joints: R_origin·[u]× and R_origin·u·uᵀ (9 numbers each per joint, row-major,
+   * length 9n), so that R_origin·Rot(u, q) = cos q·R_origin + sin q·originCross + (1 − cos q)·originOuter
+   * (Rodrigues' formula multiplied out once). Zero for other joints.
+   */
+  readonly originCross: Float64Array;
+  readonly originOuter: Float64Array;
   /**
    * Index offset into `frames` of the frame holding joint i's axis (0-based joint index):
    * 0 for `dh` (joint i+1 moves about z of frame i), 1 for `mdh` and `chain` (the axis is fixed in

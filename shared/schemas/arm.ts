@@ -22,6 +22,11 @@ const jointCommonShape = {
   max: finite,
   /** Max joint speed (rad/s or m/s). */
   maxSpeed: positive.optional(),
+  /**
+   * Max joint acceleration (rad/s² or m/s²), used by the cycle-time model; without it the model
+   * assumes one (docs/design.md#cycle-time) and marks the result an estimate.
+   */
+  maxAcceleration: positive.max(1e4, "must be at most 10 000 rad/s² (or m/s²)").optional(),
   /** Max joint torque (N·m) or force (N). */
   maxTorque: positive.optional(),
   /** Mass of the link moved by this joint (kg). */

@@ -92,11 +92,15 @@ export const createCommentInput = z.object({
   clientKey: z.string({ error: "must be text" }).regex(/^[A-Za-z0-9_-]{8,64}$/, "must be 8–64 letters, digits, - or _").optional(),
 });
 
+export type CreateCommentInput = z.output<typeof createCommentInput>;
+
 export const editCommentInput = z.object({
   body: bodySchema,
   /** The revision the edit is based on; a stale base is a conflict. */
   baseRevision: z.number({ error: "must be the revision your edit is based on" }).int().min(1).optional(),
 });
+
+export type EditCommentInput = z.output<typeof editCommentInput>;
 
 export const displayNameSchema = z
   .string({ error: "must be text" })

@@ -61,6 +61,41 @@ export const pathSchema = z.object({
 });
 export type PathSpec = z.infer<typeof pathSchema>;
 
+/** One step of a task sequence: a move to a target (then a dwell), a path followed, or a wait. */
+export const sequenceStepSchema = z.discriminatedUnion(
+  "kind",
+  [
+    z.object({
+      kind: z.literal("move"),
+      /** Name of a target of the set. */
+      target: nameText(80),
+      /** Time held at the target after the move (s). */
+      dwell: nonNegative.max(3600, "must be at most 3600 s").optional(),
+    }),
+    z.object({
+      kind: z.literal("path"),
+      /** Name of a path of the set. */
+      path: nameText(80),
+    }),
+    z.object({
+      kind: z.literal("wait"),
+      /** Time waited (s). */
+      seconds: nonNegative.max(3600, "must be at most 3600 s"),
+    }),
+  ],
+  { error: "must be a step of kind move, path or wait" },
+);
+export type SequenceStep = z.infer<typeof sequenceStepSchema>;
+
+/** A task sequence: a closed cycle of steps, with an optional required cycle time. */
+export const sequenceSchema = z.object({
+  name: nameText(80),
+  steps: z.array(sequenceStepSchema).min(1, "a sequence needs at least 1 step").max(200, "at most 200 steps"),
+  /** Required cycle time (s); a required rate in parts per hour is 3600 / rate. */
+  required: positive.max(86400, "must be at most 86 400 s").optional(),
+});
+export type Sequence = z.infer<typeof sequenceSchema>;
+
 /** Datasheet fields a spec requirement can test, with the SI unit they are stored in. */
 export const SPEC_FIELDS = {
   ratedPayload: { label: "Rated payload", unit: "kg", kind: "number" },
@@ -160,6 +195,8 @@ const requirementSetObject = z.object({
   /** Obstacles in the earlier form (read and converted into `cell.obstacles`; never written). */
   obstacles: z.array(legacyObstacleSchema).max(100, "at most 100 obstacles").optional(),
   weights: weightsSchema.default(DEFAULT_WEIGHTS),
+  /** Task sequences for the cycle time (docs/design.md#cycle-time). */
+  sequences: z.array(sequenceSchema).max(20, "at most 20 sequences").optional(),
 });
 
 /** Every obstacle name, the converted earlier ones included (as {@link convertLegacyObstacles} names them). */
@@ -197,6 +234,17 @@ export const requirementSetSchema = requirementSetObject
       });
     };
     rs.targets.forEach((t, i) => checkContact(t.contact, ["targets", i, "contact"], `target "${t.name}" contact`));
+    const targetNames = new Set(rs.targets.map((t) => t.name));
+    const pathNames = new Set(rs.paths.map((p) => p.name));
+    const sequences = new Map<string, number>();
+    rs.sequences?.forEach((q, i) => {
+      if (sequences.has(q.name)) ctx.addIssue({ code: "custom", path: ["sequences", i, "name"], message: `sequence name "${q.name}" is used twice (sequences ${sequences.get(q.name)! + 1} and ${i + 1})` });
+      else sequences.set(q.name, i);
+      q.steps.forEach((st, k) => {
+        if (st.kind === "move" && !targetNames.has(st.target)) ctx.addIssue({ code: "custom", path: ["sequences", i, "steps", k, "target"], message: `sequence "${q.name}" step ${k + 1} moves to target "${st.target}", but the set has no target of that name` });
+        if (st.kind === "path" && !pathNames.has(st.path)) ctx.addIssue({ code: "custom", path: ["sequences", i, "steps", k, "path"], message: `sequence "${q.name}" step ${k + 1} follows path "${st.path}", but the set has no path of that name` });
+      });
+    });
     rs.paths.forEach((p, i) => checkContact(p.contact, ["paths", i, "contact"], `path "${p.name}" contact`));
   })
   .transform(({ obstacles, ...rs }) => {

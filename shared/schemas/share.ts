@@ -13,4 +13,4 @@ export const createLinkInput = z.object({
   expiresInDays: z.number({ error: "must be a number of days" }).int("must be a whole number of days").min(1, "must be at least 1 day").max(MAX_LINK_DAYS, `must be at most ${MAX_LINK_DAYS} days`).nullable().optional(),
   hidePrices: z.boolean({ error: "must be true or false" }).optional(),
 });
-export type CreateLinkInput = z.input<typeof createLinkInput>;
+export type CreateLinkInput = z.output<typeof createLinkInput>;

@@ -13,7 +13,7 @@ export const createShortlistInput = z.object({
     .max(40, "at most 40 arms per shortlist")
     .refine((ids) => new Set(ids).size === ids.length, "an arm is listed twice"),
 });
-export type CreateShortlistInput = z.input<typeof createShortlistInput>;
+export type CreateShortlistInput = z.output<typeof createShortlistInput>;
 
 /** The query of a shortlist export: format, table (CSV), run (default: latest finished) and weights. */
 export const exportQuery = z.object({
@@ -43,3 +43,6 @@ export const weightsParam = (base: Weights) =>
       return out;
     })
     .pipe(weightsSchema);
+
+/** The query of one arm's 3-D view data in a run: the arm's id. */
+export const runViewQuery = z.object({ arm: z.string({ error: "must name an arm of the run" }).min(1, "must name an arm of the run").max(100) });

@@ -2,7 +2,7 @@
 // stored one (written before the limit existed) no longer breaks the discussion for members or
 // link guests: the lists answer 200 and the comment shows as plain text.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
+import { createTestDb, type TestDb, armDoc, requirementDoc } from "../db/helpers";
 import * as comments from "@/app/api/shortlists/[id]/comments/route";
 import * as shareComments from "@/app/api/share/[token]/comments/route";
 import { createArm } from "@/lib/db/arms";
@@ -22,8 +22,8 @@ let token: string;
 beforeAll(async () => {
   t = createTestDb();
   acc = await makeAccounts();
-  const armId = (await createArm(acc.ids.admin, sampleArm())).id;
-  const setId = (await createRequirementSet(acc.ids.admin, sampleRequirementSet())).id;
+  const armId = (await createArm(acc.ids.admin, armDoc())).id;
+  const setId = (await createRequirementSet(acc.ids.admin, requirementDoc())).id;
   shortlistId = (await createShortlist(acc.ids.editor, { name: "Stress", requirementSetId: setId, armIds: [armId] })).id;
   token = (await createShareLink(acc.ids.editor, shortlistId, { access: "comment" })).token;
 }, 120_000);

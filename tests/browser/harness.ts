@@ -25,8 +25,8 @@ const CHROMIUM_ARGS = [
   "--disable-sync",
 ];
 
-function run(cmd: string, args: string[], env: NodeJS.ProcessEnv, what: string): void {
-  const r = spawnSync(cmd, args, { cwd: ROOT, env, encoding: "utf8", timeout: 240_000 });
+function run(cmd: string, args: string[], env: NodeJS.ProcessEnv, what: string, timeoutMs = 240_000): void {
+  const r = spawnSync(cmd, args, { cwd: ROOT, env, encoding: "utf8", timeout: timeoutMs });
   if (r.status !== 0) throw new Error(`${what} failed (exit ${r.status}):\n${r.stdout}\n${r.stderr}`);
 }
 
@@ -46,7 +46,9 @@ function freePort(): Promise<number> {
 /** Builds the production server when it is missing or older than the sources (`npm test` builds first). */
 export function ensureBuild(): void {
   if (!buildIsStale(ROOT)) return;
-  run(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, "next build");
+  // A production build takes minutes on a loaded machine: allow 15. The browser project builds
+  // once in its global set-up (tests/browser/global-setup.ts), outside any hook's time limit.
+  run(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, "next build", 900_000);
 }
 
 export interface TrackedPage {
@@ -67,7 +69,8 @@ export interface Harness {
   baseUrl: string;
   dbPath: string;
   serverLog(): string;
-  browser(): Promise<Browser>;
+  /** A fresh Chromium profile; `args` adds command-line switches (e.g. `--disable-webgl`). */
+  browser(opts?: { args?: string[] }): Promise<Browser>;
   close(): Promise<void>;
 }
 
@@ -155,12 +158,12 @@ export async function startHarness(opts: HarnessOptions = {}): Promise<Harness> 
     baseUrl,
     dbPath,
     serverLog,
-    async browser() {
+    async browser(opts = {}) {
       const profile = mkdtempSync(path.join(dir, "profile-"));
       const context = await chromium.launchPersistentContext(profile, {
         executablePath: CHROMIUM,
         headless: true,
-        args: CHROMIUM_ARGS,
+        args: [...CHROMIUM_ARGS, ...(opts.args ?? [])],
         baseURL: baseUrl,
         viewport: { width: 1280, height: 900 },
       });

@@ -59,9 +59,9 @@ describe("shortlist page", () => {
     await p.getByLabel("Requirement set").selectOption({ label: `${SCENARIO} (rev 1; 9 targets, 0 paths)` });
     // Filters narrow the catalog (demo reaches are between a few hundred and a few thousand mm).
     await p.getByLabel("Reach at least").fill("100000");
-    await p.getByText("0 of 7 arms shown").waitFor();
+    await p.getByText("0 of 9 arms shown").waitFor();
     await p.getByLabel("Reach at least").fill("");
-    await p.getByText("7 of 7 arms shown, 0 chosen").waitFor();
+    await p.getByText("9 of 9 arms shown, 0 chosen").waitFor();
     await p.getByRole("button", { name: "Choose all shown" }).click();
     await p.getByRole("button", { name: "Create shortlist and analyse" }).click();
     await p.waitForURL(/\/shortlists\/[0-9a-f-]{36}$/);

@@ -3,13 +3,15 @@
 // guest names cleaned, and the audit trail.
 import { spawn } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "./helpers";
+import { createTestDb, type TestDb, armDoc, requirementDoc } from "./helpers";
 import { createArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
 import { createShortlist } from "@/lib/db/shortlists";
 import { createUser } from "@/lib/db/users";
 import { listAuditEvents } from "@/lib/db/audit-read";
 import { ConflictError, ValidationError } from "@/lib/db/errors";
+import { toFieldErrors } from "@/shared/schemas";
+import { createCommentInput, guestCommentInput, type Anchor } from "@/shared/schemas/comments";
 import { createShareLink } from "@/lib/db/shares";
 import {
   createComment, deleteComment, editComment, listCommentRevisions, listCommentThreads, markDiscussionRead, setCommentResolved, unreadCounts,
@@ -23,8 +25,8 @@ beforeAll(async () => {
   t = createTestDb();
   ada = (await createUser({ email: "ada@example.test", name: "Ada", passwordHash: "x" })).id;
   bob = (await createUser({ email: "bob.lee@example.test", name: "Bob", passwordHash: "x" })).id;
-  armId = (await createArm(null, sampleArm())).id;
-  const set = (await createRequirementSet(null, sampleRequirementSet({ paths: [{ name: "seam", waypoints: [{ position: [0.4, 0, 0.2], rpy: [Math.PI, 0, 0] }, { position: [0.4, 0.1, 0.2], rpy: [Math.PI, 0, 0] }], mode: "point", step: 0.01, speed: 0.1 }] }))).id;
+  armId = (await createArm(null, armDoc())).id;
+  const set = (await createRequirementSet(null, requirementDoc({ paths: [{ name: "seam", waypoints: [{ position: [0.4, 0, 0.2], rpy: [Math.PI, 0, 0] }, { position: [0.4, 0.1, 0.2], rpy: [Math.PI, 0, 0] }], mode: "point", step: 0.01, speed: 0.1 }] }))).id;
   shortlistId = (await createShortlist(ada, { name: "Cell 7", requirementSetId: set, armIds: [armId] })).id;
   linkId = (await createShareLink(ada, shortlistId, { access: "comment" })).link.id;
 });
@@ -32,17 +34,19 @@ afterAll(async () => t.cleanup());
 
 describe("discussion", () => {
   it("anchors to the shortlist, an arm, a target, a path or a compliance row of the pins only", async () => {
-    for (const anchor of [undefined, { type: "arm", id: armId }, { type: "target", id: "pick" }, { type: "path", id: "seam" }, { type: "compliance", id: `${armId}#0` }]) {
+    const anchors: (Anchor | undefined)[] = [undefined, { type: "arm", id: armId }, { type: "target", id: "pick" }, { type: "path", id: "seam" }, { type: "compliance", id: `${armId}#0` }];
+    for (const anchor of anchors) {
       const r = await createComment(member(ada), shortlistId, { body: "ok", anchor });
       expect(r.created).toBe(true);
     }
-    for (const anchor of [{ type: "arm", id: "nope" }, { type: "target", id: "nowhere" }, { type: "path", id: "pick" }, { type: "compliance", id: `${armId}#9` }, { type: "shortlist", id: "x" }, { type: "target" }]) {
+    const wrong: Anchor[] = [{ type: "arm", id: "nope" }, { type: "target", id: "nowhere" }, { type: "path", id: "pick" }, { type: "compliance", id: `${armId}#9` }, { type: "shortlist", id: "x" }, { type: "target" }];
+    for (const anchor of wrong) {
       const e = await createComment(member(ada), shortlistId, { body: "x", anchor }).catch((x) => x);
       expect(e, JSON.stringify(anchor)).toBeInstanceOf(ValidationError);
       expect(e.fieldErrors[0].path).toBe("anchor.id");
     }
-    const e = await createComment(member(ada), shortlistId, { body: "   " }).catch((x) => x);
-    expect(e.fieldErrors[0].path).toBe("body");
+    // The body's own rules are the schema's, checked at the edge (shared/schemas/comments.ts).
+    expect(toFieldErrors(createCommentInput.safeParse({ body: "   " }).error!)[0].path).toBe("body");
   });
 
   it("threads replies (a reply to a reply joins the thread, keeping the anchor)", async () => {
@@ -98,7 +102,7 @@ describe("discussion", () => {
   });
 
   it("counts unread comments for several shortlists at once, each since its own last read", async () => {
-    const set = (await createRequirementSet(null, sampleRequirementSet())).id;
+    const set = (await createRequirementSet(null, requirementDoc())).id;
     const other = (await createShortlist(ada, { name: "Cell 8", requirementSetId: set, armIds: [armId] })).id;
     const never = (await createShortlist(ada, { name: "Cell 9", requirementSetId: set, armIds: [armId] })).id;
     await createComment(member(ada), other, { body: "before bob read it" });
@@ -122,10 +126,12 @@ describe("discussion", () => {
     const b = await createComment(member(ada), shortlistId, { body: "once", clientKey: "key-00000001" });
     expect(b).toEqual({ id: a.id, created: false });
     expect(await t.client.comment.count({ where: { clientKey: "key-00000001" } })).toBe(1);
-    const g = await createComment({ kind: "guest", linkId, name: "  Eve\u202E\u200B  Moneypenny " }, shortlistId, { body: "hi" });
+    // A guest's name is cleaned by the post schema at the edge, then stored as given.
+    const { name, ...post } = guestCommentInput.parse({ name: "  Eve\u202E\u200B  Moneypenny ", body: "hi" });
+    const g = await createComment({ kind: "guest", linkId, name }, shortlistId, post);
     expect((await t.client.comment.findUnique({ where: { id: g.id } }))!.authorLabel).toBe("Eve Moneypenny");
-    const e = await createComment({ kind: "guest", linkId, name: "\u200B\u202E" }, shortlistId, { body: "hi" }).catch((x) => x);
-    expect(e).toBeInstanceOf(ValidationError);
+    const e = guestCommentInput.safeParse({ name: "\u200B\u202E", body: "hi" });
+    expect(toFieldErrors(e.error!)).toEqual([{ path: "name", message: "give a display name" }]);
   });
 
   it("writes an audit event for every change", async () => {

@@ -3,6 +3,7 @@ import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { createDb, type Db } from "@/lib/db/client";
+import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
 
 const root = path.resolve(__dirname, "..", "..");
 
@@ -77,3 +78,9 @@ export function sampleRequirementSet(overrides: Record<string, unknown> = {}) {
     ...overrides,
   };
 }
+
+/** sampleArm() as the data layer takes it: validated with armSchema, as the API edge does. */
+export const armDoc = (overrides: Record<string, unknown> = {}): ArmDocument => armSchema.parse(sampleArm(overrides));
+
+/** sampleRequirementSet() validated (defaults applied), as the API edge hands it to the data layer. */
+export const requirementDoc = (overrides: Record<string, unknown> = {}): RequirementSet => requirementSetSchema.parse(sampleRequirementSet(overrides));

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleRequirementSet, type TestDb } from "./helpers";
+import { createTestDb, requirementDoc, type TestDb } from "./helpers";
 import {
   createRequirementSet,
   getRequirementRevision,
@@ -20,14 +20,14 @@ afterAll(async () => t.cleanup());
 
 describe("requirement sets", () => {
   it("stores revisions with defaults applied, detects conflicts, soft-deletes and restores", async () => {
-    const { id, requirementSet } = await createRequirementSet(null, sampleRequirementSet());
+    const { id, requirementSet } = await createRequirementSet(null, requirementDoc());
     expect(requirementSet.weights).toEqual({ coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, price: 1 });
     expect(requirementSet.targets[0].positionTolerance).toBe(1e-5);
 
-    const edited = sampleRequirementSet({ payload: { mass: 2.5, cog: [0, 0, 0.02] } });
+    const edited = requirementDoc({ payload: { mass: 2.5, cog: [0, 0, 0.02] } });
     expect((await updateRequirementSet(null, id, 1, edited)).revision).toBe(2);
 
-    const err = await updateRequirementSet(null, id, 1, sampleRequirementSet({ name: "Other edit" })).catch((e) => e);
+    const err = await updateRequirementSet(null, id, 1, requirementDoc({ name: "Other edit" })).catch((e) => e);
     expect(err).toBeInstanceOf(ConflictError);
     expect(err.changes).toEqual([{ path: "payload.mass", base: 1, current: 2.5 }]);
 
@@ -43,7 +43,7 @@ describe("requirement sets", () => {
   });
 
   it("refuses UPDATE and DELETE on requirement revision rows (database triggers)", async () => {
-    const { id } = await createRequirementSet(null, sampleRequirementSet());
+    const { id } = await createRequirementSet(null, requirementDoc());
     await expect(t.client.$executeRawUnsafe(`UPDATE "RequirementRevision" SET "summary" = 'x' WHERE "setId" = ?`, id)).rejects.toThrow(/immutable/);
     await expect(t.client.requirementRevision.deleteMany({ where: { setId: id } })).rejects.toThrow();
     expect(await t.client.requirementRevision.count({ where: { setId: id } })).toBe(1);

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "./helpers";
+import { createTestDb, type TestDb, armDoc, requirementDoc } from "./helpers";
 import { seedDemo } from "@/lib/db/seed";
 import { createArm, listArms, listArmRevisions } from "@/lib/db/arms";
 import { createRequirementSet, listRequirementSets } from "@/lib/db/requirements";
@@ -13,12 +13,12 @@ afterAll(async () => t.cleanup());
 
 describe("demo seed", () => {
   it("seeds an empty database once and never again", async () => {
-    const first = await seedDemo([sampleArm({ name: "Invented seed arm" })], [sampleRequirementSet()]);
+    const first = await seedDemo([armDoc({ name: "Invented seed arm" })], [requirementDoc()]);
     expect(first).toEqual({ seeded: true, arms: 1, requirementSets: 1 });
     const arms = await listArms();
     expect(arms.map((a) => a.name)).toEqual(["Invented seed arm"]);
     expect((await listArmRevisions(arms[0].id))?.[0]).toMatchObject({ revision: 1, author: null, summary: "imported" });
-    expect((await seedDemo([sampleArm()], [])).seeded).toBe(false);
+    expect((await seedDemo([armDoc()], [])).seeded).toBe(false);
     expect(await listArms()).toHaveLength(1);
     expect(await listRequirementSets()).toHaveLength(1);
   });

@@ -1,13 +1,14 @@
 // Share links on a temporary database: token strength and storage, the same null for unknown,
 // malformed, expired and revoked tokens, revocation at once, and audit events.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "./helpers";
+import { createTestDb, type TestDb, armDoc, requirementDoc } from "./helpers";
 import { createArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
 import { createShortlist } from "@/lib/db/shortlists";
 import { createUser } from "@/lib/db/users";
 import { listAuditEvents } from "@/lib/db/audit-read";
-import { ValidationError } from "@/lib/db/errors";
+import { toFieldErrors } from "@/shared/schemas";
+import { createLinkInput } from "@/shared/schemas/share";
 import { createShareLink, hashShareToken, listShareLinks, resolveShareToken, revokeShareLink, TOKEN_RE } from "@/lib/db/shares";
 import { can } from "@/lib/auth/permissions";
 
@@ -16,8 +17,8 @@ let shortlistId: string, editorId: string;
 beforeAll(async () => {
   t = createTestDb();
   editorId = (await createUser({ email: "ed@example.test", name: "Ed", passwordHash: "x" })).id;
-  const arm = (await createArm(null, sampleArm())).id;
-  const set = (await createRequirementSet(null, sampleRequirementSet())).id;
+  const arm = (await createArm(null, armDoc())).id;
+  const set = (await createRequirementSet(null, requirementDoc())).id;
   shortlistId = (await createShortlist(editorId, { name: "Cell 4", requirementSetId: set, armIds: [arm] })).id;
 });
 afterAll(async () => t.cleanup());
@@ -64,10 +65,9 @@ describe("share links", () => {
     expect(await resolveShareToken("'; DROP TABLE ShareLink; --")).toBeNull();
   });
 
-  it("validates input naming the field", async () => {
-    const e = await createShareLink(editorId, shortlistId, { access: "edit", expiresInDays: 0 }).catch((x) => x);
-    expect(e).toBeInstanceOf(ValidationError);
-    expect(e.fieldErrors.map((f: { path: string }) => f.path).sort()).toEqual(["access", "expiresInDays"]);
+  it("validates input naming the field (the schema the API parses with)", () => {
+    const e = createLinkInput.safeParse({ access: "edit", expiresInDays: 0 });
+    expect(toFieldErrors(e.error!).map((f) => f.path).sort()).toEqual(["access", "expiresInDays"]);
   });
 
   it("lists links with their state and records create and revoke in the audit trail", async () => {

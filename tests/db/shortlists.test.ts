@@ -1,14 +1,17 @@
 // Shortlists and analysis runs on a temporary database: pinning, the result cache, stale runs,
 // re-pinning that keeps earlier results readable, and the runner's progress and failure paths.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "./helpers";
+import { createTestDb, type TestDb, armDoc, requirementDoc } from "./helpers";
 import { createArm, updateArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
 import { ValidationError } from "@/lib/db/errors";
+import { toFieldErrors } from "@/shared/schemas";
+import { createShortlistInput } from "@/shared/schemas/shortlists";
 import { sqliteDateTime } from "@/lib/db/analysis-progress";
 import {
-  createShortlist, getRun, getRunResult, getShortlist, listRuns, listShortlists, loadPinnedInputs, repinShortlist, requestAnalysisRun, STALE_RUN_MS,
+  createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, loadPinnedInputs, repinShortlist, requestAnalysisRun, STALE_RUN_MS,
 } from "@/lib/db/shortlists";
+import { NotFoundError } from "@/lib/db/errors";
 import { executeRun } from "@/lib/jobs/analysis-runner";
 import { analyzeShortlist } from "@/lib/analysis/shortlist";
 import { analysisKey } from "@/lib/analysis/key";
@@ -17,21 +20,22 @@ let t: TestDb;
 let armA: string, armB: string, setId: string;
 beforeAll(async () => {
   t = createTestDb();
-  armA = (await createArm(null, sampleArm())).id;
-  armB = (await createArm(null, sampleArm({ name: "Test arm TB-3", modelCode: "TB-3", specs: { ratedPayload: 2, reach: 0.7, price: 18000, currency: "EUR" } }))).id;
-  setId = (await createRequirementSet(null, sampleRequirementSet())).id;
+  armA = (await createArm(null, armDoc())).id;
+  armB = (await createArm(null, armDoc({ name: "Test arm TB-3", modelCode: "TB-3", specs: { ratedPayload: 2, reach: 0.7, price: 18000, currency: "EUR" } }))).id;
+  setId = (await createRequirementSet(null, requirementDoc())).id;
 });
 afterAll(async () => t.cleanup());
 
 describe("shortlists and analysis runs", () => {
   it("refuses bad input naming the field", async () => {
-    const e1 = await createShortlist(null, { name: "", requirementSetId: setId, armIds: [armA] }).catch((e) => e);
-    expect(e1).toBeInstanceOf(ValidationError);
-    expect(e1.fieldErrors[0].path).toBe("name");
+    // The shape is the schema's, parsed at the edge; what exists is the data layer's to say.
+    const e1 = createShortlistInput.safeParse({ name: "", requirementSetId: setId, armIds: [armA] });
+    expect(toFieldErrors(e1.error!)[0].path).toBe("name");
+    const e3 = createShortlistInput.safeParse({ name: "x", requirementSetId: setId, armIds: [] });
+    expect(toFieldErrors(e3.error!)[0].path).toBe("armIds");
     const e2 = await createShortlist(null, { name: "x", requirementSetId: setId, armIds: [armA, "nope"] }).catch((e) => e);
+    expect(e2).toBeInstanceOf(ValidationError);
     expect(e2.fieldErrors).toEqual([{ path: "armIds.1", message: "arm nope does not exist" }]);
-    const e3 = await createShortlist(null, { name: "x", requirementSetId: setId, armIds: [] }).catch((e) => e);
-    expect(e3.fieldErrors[0].path).toBe("armIds");
   });
 
   it("pins revisions, analyses out of band, reuses a finished run with the same key, and keeps old results after a re-pin", async () => {
@@ -67,7 +71,7 @@ describe("shortlists and analysis runs", () => {
     expect(await getRunResult(reused.run.id)).toEqual(stored);
 
     // An arm edit makes the pins stale; the shortlist says which and from which revision.
-    await updateArm(null, armA, 1, sampleArm({ specs: { ratedPayload: 6, reach: 0.7, price: 21000, currency: "EUR" } }));
+    await updateArm(null, armA, 1, armDoc({ specs: { ratedPayload: 6, reach: 0.7, price: 21000, currency: "EUR" } }));
     const s = await getShortlist(id);
     expect(s!.stale).toEqual(["arm Test arm TA-3: revision 1 → 2"]);
     expect(s!.arms.find((a) => a.armId === armA)).toMatchObject({ revision: 1, currentRevision: 2 });
@@ -89,6 +93,32 @@ describe("shortlists and analysis runs", () => {
 
     const list = await listShortlists();
     expect(list.find((x) => x.id === id)).toMatchObject({ arms: 2, requirementRevision: 1, latestRun: { id: second.run.id, status: "done" } });
+  });
+
+  it("gives the 3-D view one arm of a run with the revisions that run was pinned to, not the current ones", async () => {
+    const arm = (await createArm(null, armDoc({ name: "Test arm TV-3", modelCode: "TV-3" }))).id;
+    const { id, pins } = await createShortlist(null, { name: "View pins", requirementSetId: setId, armIds: [armB, arm] });
+    const run = await requestAnalysisRun(id);
+    expect(await executeRun(run.run.id)).toBe("done");
+    await updateArm(null, arm, 1, armDoc({ name: "Test arm TV-3 (edited)", modelCode: "TV-3" }));
+    const view = await getRunArmView(id, run.run.id, arm);
+    const inputs = await loadPinnedInputs(pins);
+    expect(view.revision).toBe(1);
+    expect(view.arm).toEqual(inputs.arms[1].arm);
+    expect(view.arm.name).toBe("Test arm TV-3");
+    expect(view.requirementSet).toEqual(inputs.requirementSet);
+    expect(view.analysis).toEqual((await getRunResult(run.run.id))!.arms[1]);
+    // Another shortlist's run, an arm not in the run, an unknown run: not found, with the reason.
+    const other = await createShortlist(null, { name: "Other", requirementSetId: setId, armIds: [armB] });
+    for (const [sl, r, a, why] of [
+      [other.id, run.run.id, arm, /has no analysis run/],
+      [id, run.run.id, armA, /does not include arm/],
+      [id, "no-such-run", arm, /has no analysis run/],
+    ] as const) {
+      const e = await getRunArmView(sl, r, a).catch((x: unknown) => x);
+      expect(e).toBeInstanceOf(NotFoundError);
+      expect((e as Error).message).toMatch(why);
+    }
   });
 
   it("fails a run whose process stopped reporting, and a run whose inputs cannot be loaded", async () => {

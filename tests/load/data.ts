@@ -1,7 +1,7 @@
 // Data for the load and fault tests, written through lib/db before the server starts: one
 // shortlist and `members` signed-in viewers (session rows made as sign-in makes them).
 import { randomBytes } from "node:crypto";
-import { sampleArm, sampleRequirementSet } from "../db/helpers";
+import { armDoc, requirementDoc } from "../db/helpers";
 import { db } from "@/lib/db/client";
 import { createArm } from "@/lib/db/arms";
 import { createRequirementSet } from "@/lib/db/requirements";
@@ -17,8 +17,8 @@ export interface LoadData {
 
 export async function prepare(members: number): Promise<LoadData> {
   const owner = await createUser({ email: "owner@example.test", name: "Owner", passwordHash: "unused" });
-  const arm = (await createArm(owner.id, sampleArm())).id;
-  const set = (await createRequirementSet(owner.id, sampleRequirementSet())).id;
+  const arm = (await createArm(owner.id, armDoc())).id;
+  const set = (await createRequirementSet(owner.id, requirementDoc())).id;
   const { id: shortlistId } = await createShortlist(owner.id, { name: "Load cell", requirementSetId: set, armIds: [arm] });
   const cookies: string[] = [];
   for (let i = 0; i < members; i++) {

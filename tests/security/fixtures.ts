@@ -2,7 +2,7 @@
 // signed in through the real API, a second editor, an arm, a requirement set, a shortlist with a
 // finished analysis, and share links that are live (view, comment), expired and revoked.
 import { randomBytes } from "node:crypto";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
+import { createTestDb, type TestDb, armDoc, requirementDoc } from "../db/helpers";
 import { makeAccounts, type Accounts } from "../api/setup";
 import { createArm, softDeleteArm } from "@/lib/db/arms";
 import { createRequirementSet, softDeleteRequirementSet } from "@/lib/db/requirements";
@@ -58,9 +58,9 @@ export async function createFixture(): Promise<Fixture> {
   const acc = await makeAccounts();
   const editor2 = (await createUser({ email: "second.editor@example.test", name: "Second Editor", passwordHash: "x" })).id;
   await setUserRole(acc.ids.admin, editor2, "editor");
-  const armId = (await createArm(acc.ids.admin, sampleArm())).id;
+  const armId = (await createArm(acc.ids.admin, armDoc())).id;
   const setId = (
-    await createRequirementSet(acc.ids.admin, sampleRequirementSet({
+    await createRequirementSet(acc.ids.admin, requirementDoc({
       specs: [
         { field: "ratedPayload", comparator: "atLeast", value: 3, priority: "must" },
         { field: "price", comparator: "atMost", value: 25000, priority: "want" },
@@ -92,12 +92,12 @@ export async function createFixture(): Promise<Fixture> {
       return `armsift_session=${token}`;
     },
     async freshArm(deleted = false) {
-      const id = (await createArm(acc.ids.admin, sampleArm({ name: `Matrix arm ${seq()}` }))).id;
+      const id = (await createArm(acc.ids.admin, armDoc({ name: `Matrix arm ${seq()}` }))).id;
       if (deleted) await softDeleteArm(acc.ids.admin, id);
       return id;
     },
     async freshRequirementSet(deleted = false) {
-      const id = (await createRequirementSet(acc.ids.admin, sampleRequirementSet({ name: `Matrix cell ${seq()}` }))).id;
+      const id = (await createRequirementSet(acc.ids.admin, requirementDoc({ name: `Matrix cell ${seq()}` }))).id;
       if (deleted) await softDeleteRequirementSet(acc.ids.admin, id);
       return id;
     },

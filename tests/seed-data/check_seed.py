@@ -2,6 +2,9 @@
 
   /usr/bin/python3 tests/seed-data/check_seed.py
 
+The arms are seed-data/arms/*.json and the URDF-authored arms of seed-data/urdf (read from the
+URDF file with numpy by seedkin.load_urdf_seed, not by the product's importer).
+
 1. Reach: the datasheet `specs.reach` must lie within 5 % of the largest horizontal distance from
    the joint-1 axis to the arm's tool point (DH chain plus the arm's own `tool` transform = the
    flange centre), maximised over the joint range. This definition is the one seed-data/README.md
@@ -20,7 +23,7 @@ import numpy as np
 from scipy.optimize import minimize
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from seedkin import frames, hold_torque, load_json  # noqa: E402
+from seedkin import frames, hold_torque, load_json, load_urdf_seed  # noqa: E402
 
 ROOT = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..")
 
@@ -49,9 +52,11 @@ def main():
     rng = np.random.default_rng(7)
     ok = True
     files = sorted(glob.glob(os.path.join(ROOT, "seed-data", "arms", "*.json")))
+    # URDF-authored arms: read from the URDF file by seedkin's own numpy reader (side file = specs).
+    files += sorted(glob.glob(os.path.join(ROOT, "seed-data", "urdf", "*.json")))
     print(f"{'arm':22s} {'reach':>6s} {'FK max':>7s} {'dev %':>6s}  torque ratios at stretched pose (rated payload)   max ratio over random poses")
     for path in files:
-        arm = load_json(path)
+        arm = load_urdf_seed(path) if os.sep + "urdf" + os.sep in path else load_json(path)
         spec = arm["specs"]
         r_fk, q_star = max_reach(arm, rng)
         dev = (spec["reach"] - r_fk) / r_fk * 100

@@ -1,8 +1,8 @@
 // Route handlers for the discussion of a shortlist (members), its share links, and the share
 // view of link guests. Every handler asks lib/auth/permissions `can()` (directly or through
 // requireUser) before it touches data.
-import { z } from "zod";
-import { resolveCommentInput } from "@/shared/schemas/comments";
+import { createCommentInput, editCommentInput, guestCommentInput, resolveCommentInput } from "@/shared/schemas/comments";
+import { createLinkInput } from "@/shared/schemas/share";
 import { can, type LinkGuest, type SessionUser } from "@/lib/auth/permissions";
 import { commentPosts } from "@/lib/auth/rate-limit";
 import { lookUpShareToken } from "@/lib/auth/share-access";
@@ -66,9 +66,9 @@ export const listComments = route<IdParams>(async (req, ctx) => {
 export const postComment = route<IdParams>(async (req, ctx) => {
   const user = await requireUser(req, "comment:write");
   const { id } = await ctx.params;
-  const body = await readJsonObject(req);
+  const raw = await readJsonObject(req);
   limitCommentPosts(`member:${user.id}`);
-  const r = await createComment({ kind: "member", userId: user.id }, id, body);
+  const r = await createComment({ kind: "member", userId: user.id }, id, parseWith(createCommentInput, raw));
   return json(r, r.created ? 201 : 200);
 });
 
@@ -85,7 +85,7 @@ export const editOwnComment = route<CommentParams>(async (req, ctx) => {
   const { id, commentId } = await ctx.params;
   const c = await commentOf(id, commentId);
   requireOn(user, "comment:edit", { ownerId: c.authorId, shortlistId: id }, "only the author may edit a comment");
-  return json(await editComment(user.id, commentId, await readJsonObject(req)));
+  return json(await editComment(user.id, commentId, parseWith(editCommentInput, await readJsonObject(req))));
 });
 
 export const deleteOwnComment = route<CommentParams>(async (req, ctx) => {
@@ -130,7 +130,7 @@ export const createLink = route<IdParams>(async (req, ctx) => {
   const user = await requireUser(req, "share:manage");
   const { id } = await ctx.params;
   await existingShortlist(id);
-  const { link, token } = await createShareLink(user.id, id, await readJsonObject(req));
+  const { link, token } = await createShareLink(user.id, id, parseWith(createLinkInput, await readJsonObject(req)));
   return json({ link, token, path: `/share/${token}` }, 201);
 });
 
@@ -174,15 +174,13 @@ export const shareComments = route<TokenParams>(async (req, ctx) => {
   return json({ threads: (await listCommentThreads(guest.shortlistId)).map(threadForGuest) });
 });
 
-const guestPostBody = z.object({ name: z.string({ error: "give a display name" }) }).passthrough();
-
 export const sharePostComment = route<TokenParams>(async (req, ctx) => {
   const { token } = await ctx.params;
   const guest = await guestOf(req, token);
   if (!can(guest, "comment:write", { shortlistId: guest.shortlistId })) throw forbidden("this link allows reading only");
   const raw = await readJsonObject(req);
-  const { name, ...rest } = parseWith(guestPostBody, raw);
   limitCommentPosts(`link:${guest.linkId}:${clientAddress(req)}`);
+  const { name, ...rest } = parseWith(guestCommentInput, raw);
   const r = await createComment({ kind: "guest", linkId: guest.linkId, name }, guest.shortlistId, rest);
   return json(r, r.created ? 201 : 200);
 });

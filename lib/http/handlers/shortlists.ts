@@ -1,7 +1,7 @@
-import { exportQuery, weightsParam } from "@/shared/schemas/shortlists";
+import { createShortlistInput, exportQuery, runViewQuery, weightsParam } from "@/shared/schemas/shortlists";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import {
-  createShortlist, getRun, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
+  createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
 } from "@/lib/db";
 import { startRunProcess } from "@/lib/jobs/analysis-runner";
 import { shortlistExport } from "@/lib/export";
@@ -23,7 +23,7 @@ export const list = route(async (req) => {
 
 export const create = route(async (req) => {
   const user = await requireUser(req, "shortlist:write");
-  const { id, pins } = await createShortlist(user.id, await readJsonObject(req));
+  const { id, pins } = await createShortlist(user.id, parseWith(createShortlistInput, await readJsonObject(req)));
   const { run, cached } = await runNow(id);
   return json({ id, pins, run, cached }, 201);
 });
@@ -61,6 +61,14 @@ export const runStatus = route<{ id: string; runId: string }>(async (req, ctx) =
   await requireUser(req, "shortlist:read");
   const { id, runId } = await ctx.params;
   return json({ run: await runOf(id, runId) });
+});
+
+/** One arm of a finished run with the pinned documents: what the 3-D view of the shortlist page draws. */
+export const runArmView = route<{ id: string; runId: string }>(async (req, ctx) => {
+  await requireUser(req, "shortlist:read");
+  const { id, runId } = await ctx.params;
+  const q = parseWith(runViewQuery, Object.fromEntries(new URL(req.url).searchParams));
+  return json(await getRunArmView(id, runId, q.arm));
 });
 
 export const exportResult = route<{ id: string }>(async (req, ctx) => {

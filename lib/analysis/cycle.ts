@@ -1,0 +1,310 @@
+/**
+ * Cycle time of a task sequence (docs/design.md#cycle-time): synchronised point-to-point joint
+ * moves under speed and acceleration limits (trapezoidal, or triangular when too short to reach
+ * full speed), path steps at the speed they are actually followed at, waits, over a closed cycle;
+ * the branch of every move step chosen over the whole sequence by dynamic programming over a
+ * layered graph. Pure: no I/O, SI units (s, rad or m, rad/s or m/s, rad/s² or m/s²).
+ */
+import type { ArmDocument } from "@/shared/schemas/arm";
+import type { RequirementSet, Sequence } from "@/shared/schemas/requirements";
+import type { ArmAnalysis } from "./shortlist";
+
+/**
+ * Time a joint without an acceleration limit is assumed to take to reach full speed (s): an
+ * assumed value, no source (docs/design.md#cycle-time). Results resting on it are estimates.
+ */
+export const ASSUMED_ACCELERATION_TIME = 0.5;
+
+/** Joint limits the model uses: NaN (or ≤ 0) where the arm states none. */
+export interface CycleLimits {
+  n: number;
+  maxSpeed: ArrayLike<number>;
+  maxAcceleration: ArrayLike<number>;
+}
+
+/** Speed and acceleration per joint with the assumed values filled in. */
+export interface EffectiveLimits {
+  n: number;
+  speed: Float64Array;
+  acceleration: Float64Array;
+  /** 1-based joints whose acceleration was assumed. */
+  assumedAcceleration: number[];
+  /** 1-based joints with no speed limit (the cycle is then unknown). */
+  missingSpeed: number[];
+}
+
+export function effectiveLimits(limits: CycleLimits): EffectiveLimits {
+  const { n } = limits;
+  const speed = new Float64Array(n), acceleration = new Float64Array(n);
+  const assumedAcceleration: number[] = [], missingSpeed: number[] = [];
+  for (let j = 0; j < n; j++) {
+    const v = limits.maxSpeed[j], a = limits.maxAcceleration[j];
+    speed[j] = v > 0 ? v : NaN;
+    if (!(v > 0)) missingSpeed.push(j + 1);
+    if (a > 0) acceleration[j] = a;
+    else {
+      acceleration[j] = v > 0 ? v / ASSUMED_ACCELERATION_TIME : NaN;
+      assumedAcceleration.push(j + 1);
+    }
+  }
+  return { n, speed, acceleration, assumedAcceleration, missingSpeed };
+}
+
+/**
+ * Rest-to-rest time of one joint moving d ≥ 0 with speed limit v and acceleration limit a:
+ * d/v + v/a when d ≥ v²/a (trapezoidal), else 2·√(d/a) (triangular)
+ * (docs/references.md#biagiotti-and-melchiorri-trajectory-planning).
+ */
+export function jointMoveTime(d: number, v: number, a: number): number {
+  if (d <= 0) return 0;
+  return d >= (v * v) / a ? d / v + v / a : 2 * Math.sqrt(d / a);
+}
+
+/** Out-parameter of {@link moveTime}: the 1-based limiting joint (null when nothing moves). */
+export interface MoveOut {
+  limitingJoint: number | null;
+}
+
+/**
+ * Time of the synchronised move qa → qb (all joints end together): maxⱼ tⱼ. Allocation-free;
+ * writes the joint with the largest tⱼ (the lowest on a tie) into `out` when given.
+ */
+export function moveTime(lim: EffectiveLimits, qa: ArrayLike<number>, qb: ArrayLike<number>, out?: MoveOut): number {
+  let best = 0, joint: number | null = null;
+  for (let j = 0; j < lim.n; j++) {
+    const t = jointMoveTime(Math.abs(qb[j] - qa[j]), lim.speed[j], lim.acceleration[j]);
+    if (t > best) { best = t; joint = j + 1; }
+  }
+  if (out) out.limitingJoint = joint;
+  return best;
+}
+
+/** A path as the model needs it: its end configurations and the time to follow it. */
+export interface CyclePath {
+  /** Joint values at the first and last samples, or null when the path is not followed. */
+  first: number[] | null;
+  last: number[] | null;
+  /** Path length (m). */
+  length: number;
+  /** Speed it is followed at (m/s): required × achievable fraction (≤ 1); null when unknown. */
+  followedSpeed: number | null;
+  /** 1-based joint limiting the path speed when it is slowed below the required speed, else null. */
+  limitingJoint: number | null;
+}
+
+/** What the sequence refers to: the reached branches of each target and the paths. */
+export interface CycleInputs {
+  /** Reached branches (IK solutions) of each target by name; empty when not reached. */
+  targets: ReadonlyMap<string, readonly (readonly number[])[]>;
+  paths: ReadonlyMap<string, CyclePath>;
+}
+
+export interface CycleStep {
+  kind: "move" | "path" | "wait";
+  /** The target's or the path's name; "wait" for a wait. */
+  name: string;
+  /** Configuration at the end of the step (rad or m). */
+  q: number[];
+  /** Time of the step (s). */
+  time: number;
+  /** 1-based joint the step's time rests on, or null (waits, no motion, a path at full speed). */
+  limitingJoint: number | null;
+  /** Index into the target's branches used (move steps), else null. */
+  branch: number | null;
+}
+
+export interface CycleResult {
+  name: string;
+  /** Cycle time (s), null when unknown. */
+  time: number | null;
+  /** Parts per hour, 3600 / time; null when unknown. */
+  partsPerHour: number | null;
+  required: number | null;
+  verdict: "meets" | "fails" | "unknown";
+  /** True when the time rests on an assumed acceleration of a joint. */
+  estimate: boolean;
+  /** 1-based joints whose acceleration was assumed. */
+  assumedAcceleration: number[];
+  reason: string;
+  /** The steps (empty when unknown). */
+  steps: CycleStep[];
+}
+
+/** A layer of the graph: one node per option, each with its entry and exit configuration and a fixed time. */
+interface Layer {
+  step: number;
+  entry: (readonly number[])[];
+  exit: (readonly number[])[];
+  fixed: number[];
+}
+
+const fmtS = (t: number) => `${t.toFixed(2)} s`;
+
+/**
+ * Evaluates a sequence for the given branch of each layer (one index per move or path step, in
+ * order; paths have the one option 0). Used to build the returned steps and by tests as the
+ * brute-force reference.
+ */
+export function evaluateChoice(lim: EffectiveLimits, seq: Sequence, inputs: CycleInputs, choice: readonly number[]): CycleStep[] {
+  const layers = buildLayers(seq, inputs);
+  if (!layers) throw new RangeError(`sequence "${seq.name}" has a target not reached or a path not followed`);
+  if (choice.length !== layers.length) throw new RangeError(`expected ${layers.length} branch choices, got ${choice.length}`);
+  let current: readonly number[] = layers.length ? layers[layers.length - 1].exit[choice[layers.length - 1]] : [];
+  const steps: CycleStep[] = [];
+  const out: MoveOut = { limitingJoint: null };
+  let k = 0;
+  for (const st of seq.steps) {
+    if (st.kind === "wait") {
+      steps.push({ kind: "wait", name: "wait", q: [...current], time: st.seconds, limitingJoint: null, branch: null });
+      continue;
+    }
+    const layer = layers[k], o = choice[k];
+    k++;
+    const approach = moveTime(lim, current, layer.entry[o], out);
+    if (st.kind === "move") {
+      steps.push({ kind: "move", name: st.target, q: [...layer.exit[o]], time: approach + (st.dwell ?? 0), limitingJoint: out.limitingJoint, branch: o });
+    } else {
+      const p = inputs.paths.get(st.path)!;
+      const follow = layer.fixed[o];
+      const limiting = follow > approach && p.limitingJoint !== null ? p.limitingJoint : out.limitingJoint;
+      steps.push({ kind: "path", name: st.path, q: [...layer.exit[o]], time: approach + follow, limitingJoint: limiting, branch: null });
+    }
+    current = layer.exit[o];
+  }
+  return steps;
+}
+
+/** The layers of the sequence, or null when a target has no branch or a path is not followed. */
+function buildLayers(seq: Sequence, inputs: CycleInputs): Layer[] | null {
+  const layers: Layer[] = [];
+  for (let i = 0; i < seq.steps.length; i++) {
+    const st = seq.steps[i];
+    if (st.kind === "move") {
+      const b = inputs.targets.get(st.target);
+      if (!b || b.length === 0) return null;
+      layers.push({ step: i, entry: [...b], exit: [...b], fixed: b.map(() => st.dwell ?? 0) });
+    } else if (st.kind === "path") {
+      const p = inputs.paths.get(st.path);
+      if (!p || !p.first || !p.last || p.followedSpeed === null || !(p.followedSpeed > 0)) return null;
+      layers.push({ step: i, entry: [p.first], exit: [p.last], fixed: [p.length / p.followedSpeed] });
+    }
+  }
+  return layers;
+}
+
+/**
+ * The branch choice minimising the closed cycle: for each option s of the last layer (where the
+ * cycle starts), a shortest path through layers 0 … m−1 ending at s, by dynamic programming.
+ * Ties go to the lowest indices. Returns the choice and its motion time (waits excluded).
+ */
+export function bestChoice(lim: EffectiveLimits, layers: readonly Layer[]): { choice: number[]; time: number } {
+  const m = layers.length;
+  if (m === 0) return { choice: [], time: 0 };
+  const last = layers[m - 1];
+  let bestTime = Infinity, bestChoiceList: number[] = [];
+  for (let s = 0; s < last.exit.length; s++) {
+    if (m === 1) {
+      const t = moveTime(lim, last.exit[s], last.entry[s]) + last.fixed[s];
+      if (t < bestTime) { bestTime = t; bestChoiceList = [s]; }
+      continue;
+    }
+    // dist[k][o]: least time from the start (last layer's option s) through layer k ending at option o.
+    const dist: Float64Array[] = [], from: Int32Array[] = [];
+    const l0 = layers[0];
+    dist.push(Float64Array.from(l0.entry, (e, o) => moveTime(lim, last.exit[s], e) + l0.fixed[o]));
+    from.push(new Int32Array(l0.entry.length).fill(-1));
+    for (let k = 1; k < m; k++) {
+      const L = layers[k], P = layers[k - 1];
+      const opts = k === m - 1 ? [s] : L.entry.map((_, o) => o);
+      const d = new Float64Array(L.entry.length).fill(Infinity), f = new Int32Array(L.entry.length).fill(-1);
+      for (const o of opts) {
+        for (let p = 0; p < P.exit.length; p++) {
+          const t = dist[k - 1][p] + moveTime(lim, P.exit[p], L.entry[o]) + L.fixed[o];
+          if (t < d[o]) { d[o] = t; f[o] = p; }
+        }
+      }
+      dist.push(d); from.push(f);
+    }
+    const t = dist[m - 1][s];
+    if (t < bestTime) {
+      bestTime = t;
+      const choice = new Array<number>(m);
+      choice[m - 1] = s;
+      for (let k = m - 1; k > 0; k--) choice[k - 1] = from[k][choice[k]];
+      bestChoiceList = choice;
+    }
+  }
+  return { choice: bestChoiceList, time: bestTime };
+}
+
+/** Cycle time of one sequence for one arm (docs/design.md#cycle-time). */
+export function analyzeCycle(limits: CycleLimits, seq: Sequence, inputs: CycleInputs): CycleResult {
+  const lim = effectiveLimits(limits);
+  const required = seq.required ?? null;
+  const unknown = (reason: string): CycleResult => ({ name: seq.name, time: null, partsPerHour: null, required, verdict: "unknown", estimate: false, assumedAcceleration: lim.assumedAcceleration, reason, steps: [] });
+  const moves = seq.steps.some((s) => s.kind !== "wait");
+  if (moves && lim.missingSpeed.length) return unknown(`joint${lim.missingSpeed.length > 1 ? "s" : ""} ${lim.missingSpeed.join(", ")} without a speed limit: the cycle time is unknown`);
+  for (const st of seq.steps) {
+    if (st.kind === "move" && !(inputs.targets.get(st.target)?.length)) return unknown(`target "${st.target}" is not reached: the cycle time is unknown`);
+    if (st.kind === "path") {
+      const p = inputs.paths.get(st.path);
+      if (!p || !p.first || !p.last) return unknown(`path "${st.path}" is not followed: the cycle time is unknown`);
+      if (p.followedSpeed === null || !(p.followedSpeed > 0)) return unknown(`the speed path "${st.path}" is followed at is unknown, so is the cycle time`);
+    }
+  }
+  const layers = buildLayers(seq, inputs)!;
+  const { choice } = bestChoice(lim, layers);
+  const steps = evaluateChoice(lim, seq, inputs, choice);
+  let time = 0;
+  for (const s of steps) time += s.time;
+  const estimate = moves && lim.assumedAcceleration.length > 0;
+  const verdict = required === null ? "unknown" : time <= required ? "meets" : "fails";
+  let reason = required === null ? `cycle ${fmtS(time)}, no required time` : `cycle ${fmtS(time)} ${time <= required ? "within" : "over"} the required ${fmtS(required)}`;
+  if (estimate) reason += `; an estimate: joint${lim.assumedAcceleration.length > 1 ? "s" : ""} ${lim.assumedAcceleration.join(", ")} without an acceleration limit, assumed to reach full speed in ${ASSUMED_ACCELERATION_TIME} s`;
+  return { name: seq.name, time, partsPerHour: time > 0 ? 3600 / time : null, required, verdict, estimate, assumedAcceleration: lim.assumedAcceleration, reason, steps };
+}
+
+/** The joint limits of an arm document, NaN where absent. */
+export function cycleLimitsOf(arm: Pick<ArmDocument, "joints">): CycleLimits {
+  return {
+    n: arm.joints.length,
+    maxSpeed: arm.joints.map((j) => j.maxSpeed ?? NaN),
+    maxAcceleration: arm.joints.map((j) => j.maxAcceleration ?? NaN),
+  };
+}
+
+/**
+ * The model's inputs from an arm's analysis: every reached branch of each target, and each path
+ * fully reached with its end samples and the speed it is followed at (required × achievable
+ * fraction).
+ */
+export function cycleInputsOf(analysis: Pick<ArmAnalysis, "targets" | "paths">, req: Pick<RequirementSet, "targets" | "paths">): CycleInputs {
+  const targets = new Map<string, number[][]>();
+  req.targets.forEach((t, i) => {
+    const a = analysis.targets[i];
+    targets.set(t.name, a && a.reached ? a.solutions.map((s) => s.q) : []);
+  });
+  const paths = new Map<string, CyclePath>();
+  req.paths.forEach((p, i) => {
+    const a = analysis.paths[i];
+    const all = a !== undefined && a.samples > 0 && a.reached === a.samples;
+    const f = a?.speed.achievableFraction ?? null;
+    paths.set(p.name, {
+      first: all ? a.q[0] : null,
+      last: all ? a.q[a.q.length - 1] : null,
+      length: a?.length ?? 0,
+      followedSpeed: f === null ? null : a.speed.required * Math.min(1, f),
+      limitingJoint: f !== null && f < 1 ? a.speed.limitingJoint : null,
+    });
+  });
+  return { targets, paths };
+}
+
+/** Every sequence of the requirement set for one analysed arm, in order. */
+export function analyzeCycles(arm: Pick<ArmDocument, "joints">, analysis: Pick<ArmAnalysis, "targets" | "paths">, req: Pick<RequirementSet, "targets" | "paths" | "sequences">): CycleResult[] {
+  const sequences = req.sequences ?? [];
+  if (sequences.length === 0) return [];
+  const limits = cycleLimitsOf(arm);
+  const inputs = cycleInputsOf(analysis, req);
+  return sequences.map((s) => analyzeCycle(limits, s, inputs));
+}
