@@ -1,9 +1,13 @@
 /**
  * Analysis benchmark (`npm run bench`, called by bench/run.ts): the demo requirement sets against
  * all demo arms, and a synthetic shortlist of 8 arms × 50 targets × 3 paths of 200 samples,
- * timed cold and per part (IK, dexterity, statics, paths, workspace, spec), with peak memory.
+ * timed cold and per part (IK, dexterity, statics, paths, workspace, spec), with peak memory; then
+ * the same shortlist in a cell of 20 obstacles with collision capsules on the arms and the tool
+ * (the time against the run without the cell, and cold in a fresh process).
  * Timings are wall-clock on this machine and vary with load; they are reported, never asserted.
  */
+import { spawnSync } from "node:child_process";
+import path from "node:path";
 import { performance } from "node:perf_hooks";
 import { analyzeShortlist, type ShortlistArm } from "@/lib/analysis";
 import { createData, createModel, createRng, forwardKinematics, randomConfiguration, type Rng } from "@/lib/kinematics";
@@ -84,6 +88,41 @@ function syntheticSet(): { arms: ShortlistArm[]; req: RequirementSet } {
   return { arms: docs.map((arm, i) => ({ id: `syn-${i + 1}`, revision: 1, arm })), req };
 }
 
+/**
+ * The synthetic shortlist in a cell: capsules derived from the arms' tables (radius 8 % of the arm
+ * scale, joint by joint smaller), a tool capsule, and 20 seeded obstacles (boxes, spheres,
+ * cylinders, capsules) around the workspace: some in the arms' way, most near it.
+ */
+function withCell({ arms, req }: { arms: ShortlistArm[]; req: RequirementSet }): { arms: ShortlistArm[]; req: RequirementSet } {
+  const rng = createRng(777);
+  const kinds = ["box", "sphere", "cylinder", "capsule"] as const;
+  const obstacles = Array.from({ length: 20 }, (_, k) => {
+    const ang = rng() * 2 * Math.PI, rad = 0.9 + rng() * 1.1, z = rng() * 1.6;
+    const c: [number, number, number] = [rad * Math.cos(ang), rad * Math.sin(ang), z];
+    const size = 0.05 + rng() * 0.25;
+    const pose = [Math.cos(ang), -Math.sin(ang), 0, c[0], Math.sin(ang), Math.cos(ang), 0, c[1], 0, 0, 1, c[2], 0, 0, 0, 1];
+    const name = `obstacle ${k + 1}`;
+    switch (kinds[k % 4]) {
+      case "box": return { name, shape: "box" as const, pose, size: [size, size * 0.6, size * 1.4] as [number, number, number] };
+      case "sphere": return { name, shape: "sphere" as const, center: c, radius: size / 2 };
+      case "cylinder": return { name, shape: "cylinder" as const, pose, radius: size / 3, length: size * 2 };
+      default: return { name, shape: "capsule" as const, from: c, to: [c[0], c[1], c[2] + size * 2] as [number, number, number], radius: size / 4 };
+    }
+  });
+  const capsuleArms = arms.map((a) => {
+    const scale = a.arm.specs?.reach ?? 1;
+    return { ...a, arm: { ...a.arm, joints: a.arm.joints.map((j, i) => ({ ...j, radius: 0.06 * scale * (1 - 0.1 * i) })) } as ArmDocument };
+  });
+  return {
+    arms: capsuleArms,
+    req: requirementSetSchema.parse({
+      ...req,
+      tool: { ...req.tool, collision: [{ shape: "capsule", from: [0, 0, 0.03], to: [0, 0, 0.09], radius: 0.025 }] },
+      cell: { clearance: 0.01, obstacles },
+    }),
+  };
+}
+
 function table(rows: (string | number)[][]): void {
   const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => String(r[c]).length)));
   for (const r of rows) console.log(r.map((v, c) => String(v).padStart(widths[c])).join("  "));
@@ -142,6 +181,50 @@ export async function run(): Promise<void> {
   ]);
   console.log(`targets reached ${reached}/${arms.length * req.targets.length}, paths followed ${followed}/${arms.length * req.paths.length}; JSON ${(JSON.stringify(r.result).length / 1e6).toFixed(2)} MB`);
   console.log(`peak memory: rss ${(r.peakRss / 2 ** 20).toFixed(0)} MiB, heapUsed ${(r.peakHeap / 2 ** 20).toFixed(0)} MiB`);
+
+  // the same shortlist in a cell of 20 obstacles
+  const cell = withCell({ arms, req });
+  const c = timed(cell.arms, cell.req);
+  const cReached = c.result.arms.reduce((s, a) => s + a.targets.filter((t) => t.reached).length, 0);
+  const cFollowed = c.result.arms.reduce((s, a) => s + a.paths.filter((p) => p.verdict !== "fails").length, 0);
+  const colliding = c.result.arms.reduce((s, a) => s + a.targets.filter((t) => t.cell && !t.cell.collisionFree).length, 0);
+  const evaluations = c.result.arms.reduce((s, a) => s + a.paths.reduce((t, p) => t + (p.cell?.evaluations ?? 0), 0), 0);
+  const pairs = c.result.arms.reduce((s, a) => s + (a.cell?.checkedPairs ?? 0), 0) / c.result.arms.length;
+  console.log(`\nsynthetic in a cell: 20 obstacles, capsules on every link and the tool (${pairs.toFixed(0)} pairs per arm checked)`);
+  const cold = coldRun("cell"), coldPlain = coldRun("plain");
+  table([
+    ["run", "ms"],
+    ["without the cell (above)", r.total.toFixed(0)],
+    ["with the cell", `${c.total.toFixed(0)} (${(c.total / r.total).toFixed(2)}× the run without; target ≤ 1.5×)`],
+    ["with the cell, cold (fresh process)", cold === null ? "–" : `${cold.toFixed(0)} (target ≤ 1500)`],
+    ["without the cell, cold (fresh process)", coldPlain === null ? "–" : coldPlain.toFixed(0)],
+    ["  of which IK (targets)", `${c.parts.ik.toFixed(0)} (without: ${p.ik.toFixed(0)})`],
+    ["  of which dexterity and the cell (targets)", `${c.parts.dexterity.toFixed(0)} (without: ${p.dexterity.toFixed(0)})`],
+    ["  of which paths", `${c.parts.paths.toFixed(0)} (without: ${p.paths.toFixed(0)})`],
+  ]);
+  console.log(`targets reached ${cReached}/${cell.arms.length * cell.req.targets.length} (${colliding} collide in every branch found), paths not failing ${cFollowed}/${cell.arms.length * cell.req.paths.length}; ${evaluations} configurations evaluated between path samples`);
 }
 
-if (process.argv[1] && /bench[\\/]analysis\.ts$/.test(process.argv[1])) void run();
+/** The synthetic run alone in a fresh process (cold: nothing compiled yet), ms; null when it cannot run. */
+function coldRun(which: "cell" | "plain"): number | null {
+  if (process.env.ARMSIFT_BENCH_CELL_ONLY) return null;
+  const root = path.resolve(__dirname, "..");
+  const r = spawnSync(process.execPath, [path.join(root, "node_modules/tsx/dist/cli.mjs"), path.join(root, "bench/analysis.ts")], {
+    cwd: root, encoding: "utf8", timeout: 300_000, env: { ...process.env, ARMSIFT_BENCH_CELL_ONLY: which },
+  });
+  const m = /cell-only ms (\d+(\.\d+)?)/.exec(r.stdout ?? "");
+  return m ? Number(m[1]) : null;
+}
+
+/** Entry of the fresh process: one synthetic run (in the cell, or without), first thing after loading. */
+function cellOnly(): void {
+  const cell = process.env.ARMSIFT_BENCH_CELL_ONLY === "plain" ? syntheticSet() : withCell(syntheticSet());
+  const t0 = performance.now();
+  analyzeShortlist(cell.arms, cell.req);
+  console.log(`cell-only ms ${(performance.now() - t0).toFixed(1)}`);
+}
+
+if (process.argv[1] && /bench[\\/]analysis\.ts$/.test(process.argv[1])) {
+  if (process.env.ARMSIFT_BENCH_CELL_ONLY) cellOnly();
+  else void run();
+}

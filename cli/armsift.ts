@@ -12,6 +12,7 @@ const COMMANDS: Record<string, () => Promise<CliCommand>> = {
   ik: () => import("./commands/ik").then((m) => m.command),
   statics: () => import("./commands/statics").then((m) => m.command),
   analyze: () => import("./commands/analyze").then((m) => m.command),
+  clearance: () => import("./commands/clearance").then((m) => m.command),
   "import-urdf": () => import("./commands/import-urdf").then((m) => m.command),
   "export-urdf": () => import("./commands/export-urdf").then((m) => m.command),
   cycle: () => import("./commands/cycle").then((m) => m.command),

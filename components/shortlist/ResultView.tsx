@@ -5,6 +5,71 @@ import { RankingPanel, type RankingArm } from "./RankingPanel";
 import { TaskMatrix } from "./TaskMatrix";
 import { fmtNum, VerdictTag } from "./verdict";
 import { matrixColumns, matrixRows, pathProfile, workspaceData } from "./view";
+import { armClearance } from "@/lib/analysis/clearance";
+import { CellCaution } from "../CellCaution";
+
+const mmText = (m: number | null | undefined, d = 1) => (m === null || m === undefined ? "–" : fmtNum(m * 1000, d));
+
+/** The cell at each target and along each path of one arm: collision-free or not, clearance and the closest pair. */
+function CellTable({ arm, required }: { arm: ArmAnalysis; required: number }) {
+  const c = arm.cell;
+  if (!c) return null;
+  if (c.checkedPairs === 0) return <p className="sub">Nothing checked for this arm: no collision geometry on it, the tool or the payload, or nothing to collide with.</p>;
+  return (
+    <>
+      <div className="table-wrap">
+        <table className="printable" data-testid="cell-table">
+          <caption>Collisions and clearance in the cell (required clearance {mmText(required)} mm; {c.checkedPairs} pairs of bodies checked)</caption>
+          <thead>
+            <tr>
+              <th scope="col">Target or path</th>
+              <th scope="col">Collision-free</th>
+              <th scope="col" className="num">Clearance (mm)</th>
+              <th scope="col">Closest pair, or what hits what</th>
+              <th scope="col" className="num">Branches colliding</th>
+            </tr>
+          </thead>
+          <tbody>
+            {arm.targets.map((t) =>
+              t.cell ? (
+                <tr key={`t:${t.name}`}>
+                  <th scope="row">{t.name}</th>
+                  <td>{t.cell.collisionFree ? "yes" : "no"}</td>
+                  <td className="num">{t.cell.collisionFree ? mmText(t.cell.clearance) : "–"}</td>
+                  <td>
+                    {t.cell.collisionFree
+                      ? t.cell.closest ? `${t.cell.closest.a} – ${t.cell.closest.b}` : "–"
+                      : `${t.cell.collision!.a} hits ${t.cell.collision!.b} (overlap ${mmText(t.cell.collision!.depth)} mm)`}
+                  </td>
+                  <td className="num">
+                    {t.cell.colliding} of {t.cell.branches}
+                  </td>
+                </tr>
+              ) : null,
+            )}
+            {arm.paths.map((p) =>
+              p.cell ? (
+                <tr key={`p:${p.name}`}>
+                  <th scope="row">path {p.name}</th>
+                  <td>{p.cell.collisionFree ? "yes (samples and between)" : "no"}</td>
+                  <td className="num">{p.cell.collisionFree ? mmText(p.cell.clearance) : "–"}</td>
+                  <td>
+                    {p.cell.firstCollision
+                      ? `${p.cell.firstCollision.a} hits ${p.cell.firstCollision.b} at ${fmtNum(p.cell.firstCollision.s * 1000, 0)} mm${p.cell.firstCollision.between ? " (between samples)" : ""}`
+                      : p.cell.closest ? `${p.cell.closest.a} – ${p.cell.closest.b} at ${fmtNum(p.cell.closest.s * 1000, 0)} mm` : "–"}
+                  </td>
+                  <td className="num">–</td>
+                </tr>
+              ) : null,
+            )}
+          </tbody>
+        </table>
+      </div>
+      {c.skipped.length > 0 && <p className="sub">Not checked: {c.skipped.map((s) => `${s.a} – ${s.b} (${s.why === "ignored" ? "ignored pair" : "derived capsules that always touch"})`).join(", ")}.</p>}
+      {c.unmodelled.length > 0 && <p className="sub">No collision geometry, not checked: {c.unmodelled.join(", ")}.</p>}
+    </>
+  );
+}
 import { SolutionViewPanel } from "../view3d/launchers";
 
 const norm = (v: readonly number[]) => Math.hypot(...v);
@@ -109,7 +174,7 @@ function PayloadTable({ arm }: { arm: ArmAnalysis }) {
   );
 }
 
-function ArmSection({ arm, index, shortlistId, runId }: { arm: ArmAnalysis; index: number; shortlistId: string; runId: string }) {
+function ArmSection({ arm, index, shortlistId, runId, required }: { arm: ArmAnalysis; index: number; shortlistId: string; runId: string; required: number }) {
   const ws = workspaceData(arm);
   return (
     <section className="panel arm-section" aria-labelledby={`arm-${index}-h`} data-testid="arm-section">
@@ -128,6 +193,12 @@ function ArmSection({ arm, index, shortlistId, runId }: { arm: ArmAnalysis; inde
           <h4>Payload</h4>
           <p className="sub">{arm.subScores.payload.note}</p>
           <PayloadTable arm={arm} />
+          {arm.cell && (
+            <>
+              <h4>Cell</h4>
+              <CellTable arm={arm} required={required} />
+            </>
+          )}
           {arm.paths.length > 0 && <h4>Path profiles</h4>}
           {arm.paths.map((p) => (
             <div key={p.name}>
@@ -152,9 +223,45 @@ function ArmSection({ arm, index, shortlistId, runId }: { arm: ArmAnalysis; inde
 export function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
   const specs = analysis.requirementSet.specs;
   const first = analysis.arms.find((a) => a.specs.length === specs.length);
+  const cell = analysis.cell;
   return (
     <section className="panel" aria-labelledby="compliance-h" data-testid="compliance">
       <h2 id="compliance-h">Compliance table</h2>
+      {cell && (
+        <div className="table-wrap">
+          <table className="compliance printable" data-testid="compliance-clearance">
+            <thead>
+              <tr>
+                <th scope="col">Requirement</th>
+                <th scope="col">Required</th>
+                <th scope="col">Unit</th>
+                {analysis.arms.map((a) => (
+                  <th scope="col" key={a.id} data-arm-id={a.id}>
+                    {a.name}
+                  </th>
+                ))}
+              </tr>
+            </thead>
+            <tbody>
+              <tr>
+                <th scope="row">Clearance in the cell (targets and paths)</th>
+                <td className="num">≥ {mmText(cell.clearance)}</td>
+                <td>mm</td>
+                {analysis.arms.map((a) => {
+                  const c = armClearance(a, cell.clearance);
+                  return (
+                    <td key={a.id} className="ccell" title={c.reason} data-arm-id={a.id}>
+                      <span className="cval">{c.value === null ? "–" : `${mmText(c.value)} mm`}</span>
+                      <br />
+                      <VerdictTag v={c.verdict} />
+                    </td>
+                  );
+                })}
+              </tr>
+            </tbody>
+          </table>
+        </div>
+      )}
       {specs.length === 0 || !first ? (
         <p className="sub">The requirement set has no spec requirements.</p>
       ) : (
@@ -226,6 +333,12 @@ export function ResultView(props: {
   }));
   return (
     <>
+      {!analysis.cell && (
+        <p className="notice warn" data-testid="made-without-cell">
+          Made without the cell: this result comes from analysis {analysis.version}, before collisions with obstacles and the arm itself were checked. Run the analysis again to include them.
+        </p>
+      )}
+      {analysis.cell && <CellCaution />}
       <RankingPanel
         shortlistId={props.shortlistId}
         runId={props.runId}
@@ -239,7 +352,7 @@ export function ResultView(props: {
       <ComplianceTable analysis={analysis} />
       <h2 className="print-break">Per arm</h2>
       {analysis.arms.map((a, i) => (
-        <ArmSection key={a.id} arm={a} index={i} shortlistId={props.shortlistId} runId={props.runId} />
+        <ArmSection key={a.id} arm={a} index={i} shortlistId={props.shortlistId} runId={props.runId} required={analysis.cell?.clearance ?? 0} />
       ))}
     </>
   );

@@ -13,6 +13,7 @@ const mm = (m: number) => m * 1000;
 const deg = (r: number) => (r * 180) / Math.PI;
 
 function limitingText(t: TargetAnalysis): string {
+  if (t.cell && !t.cell.collisionFree) return `collision: ${t.cell.collision!.a} hits ${t.cell.collision!.b}`;
   if (!t.reached || !t.dexterity) return `not reached: ${t.reason}`;
   const l = t.dexterity.limiting;
   const what = l.factor === "translation" ? "translational conditioning (position singularity nearby)"
@@ -31,6 +32,13 @@ function targetCell(t: TargetAnalysis): MatrixCell {
       : `orientation ${fmtNum(d.orientation.inverseCondition, 3)}`;
     details.push(`translational inverse condition ${fmtNum(d.translation.inverseCondition, 3)}, ${orientation}, joint-limit margin ${fmtNum(d.jointLimits.margin, 3)}`);
   }
+  if (t.cell) {
+    const c = t.cell;
+    details.push(c.collisionFree
+      ? `cell: collision-free${c.clearance !== null && c.closest ? `, clearance ${fmtNum(mm(c.clearance), 1)} mm (${c.closest.a} to ${c.closest.b}; required ${fmtNum(mm(c.required), 1)} mm)` : ""}; ${c.colliding} of ${c.branches} branch${c.branches === 1 ? "" : "es"} collide`
+      : `cell: every branch found collides (${c.branches}); least overlap ${fmtNum(mm(c.collision!.depth), 1)} mm between ${c.collision!.a} and ${c.collision!.b}`);
+    if (c.contact.length) details.push(`contact allowed for the tool and payload with: ${c.contact.join(", ")}`);
+  }
   if (t.holding) details.push(`holding: ${t.holding.verdict} — ${t.holding.reason}`);
   if (t.force) details.push(`force: ${t.force.verdict} — ${t.force.reason}`);
   if (t.wrist) details.push(`wrist: ${t.wrist.verdict} — ${t.wrist.reason}`);
@@ -43,7 +51,13 @@ function pathCell(p: PathAnalysis): MatrixCell {
   if (p.firstUnreached) details.push(`first sample not reached at ${fmtNum(mm(p.firstUnreached.s), 0)} mm: ${p.firstUnreached.detail}`);
   for (const f of p.flips.slice(0, 5)) details.push(`configuration flip at ${fmtNum(mm(f.s), 0)} mm: ${f.detail}`);
   if (p.limitHits.length) details.push(`${p.limitHits.length} sample${p.limitHits.length === 1 ? "" : "s"} at a joint limit`);
+  if (p.cell) {
+    const c = p.cell;
+    if (c.firstCollision) details.push(`cell: collides ${c.firstCollision.between ? "between samples" : "at a sample"} at ${fmtNum(mm(c.firstCollision.s), 0)} mm: ${c.firstCollision.a} hits ${c.firstCollision.b}`);
+    else details.push(`cell: collision-free at every sample and between them${c.clearance !== null && c.closest ? `; clearance ${fmtNum(mm(c.clearance), 1)} mm (${c.closest.a} to ${c.closest.b}) at ${fmtNum(mm(c.closest.s), 0)} mm` : ""}`);
+  }
   const limiting = p.reached < p.samples ? "part of the path is not reached"
+    : p.cell?.firstCollision ? `collision: ${p.cell.firstCollision.a} hits ${p.cell.firstCollision.b}`
     : p.flips.length ? "configuration flip along the path"
     : p.speed.limitingJoint !== null ? `joint ${p.speed.limitingJoint} ${p.speed.limitingAtPositionLimit ? "at its position limit" : "speed"} (${p.speed.achievableFraction !== null ? `${fmtNum(p.speed.achievableFraction * 100, 0)} % of the required tool speed possible` : "unknown"})`
     : p.speed.note;

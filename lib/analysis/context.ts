@@ -13,6 +13,7 @@ import { computeJacobian, createData, createModel, createRng, randomConfiguratio
 import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
 import { IDENTITY_4, invertRigid, mul4, transformPoint } from "./geometry";
 import type { PointLoad } from "./statics";
+import { createCellCheck, createCellData, createCellModel, type CellCheck, type CellData, type CellModel } from "./cell";
 
 export interface ArmContext {
   model: ArmModel;
@@ -35,6 +36,10 @@ export interface ArmContext {
   /** True when at least one joint has a maxTorque / maxSpeed. */
   hasTorqueLimits: boolean;
   hasSpeedLimits: boolean;
+  /** The cell: bodies, obstacles, checked pairs (cell.ts), its buffers and a reusable check result. */
+  cell: CellModel;
+  cellData: CellData;
+  check: CellCheck;
 }
 
 /**
@@ -72,8 +77,10 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
     if (model.maxTorque[i] > 0) hasTorqueLimits = true;
     if (model.maxSpeed[i] > 0) hasSpeedLimits = true;
   }
+  const cell = createCellModel(arm, req, model);
   return {
     model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n, toolPoses), toolCogInTcp, loads,
     loadMass: req.tool.mass + req.payload.mass, toolMass: req.tool.mass, payloadMass: req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
+    cell, cellData: createCellData(cell, req.base), check: createCellCheck(),
   };
 }

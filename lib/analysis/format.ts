@@ -9,3 +9,8 @@ function trim(v: number, d: number): string {
   const s = v.toFixed(d);
   return /^-0(\.0+)?$/.test(s) ? s.slice(1) : s;
 }
+
+/** An obstacle's name in quotes for a reason; arm bodies ("base", "link 3", "tool", "payload") as they are. */
+export function quoteBody(name: string): string {
+  return /^(base|tool|payload|link \d+)$/.test(name) ? name : `'${name}'`;
+}

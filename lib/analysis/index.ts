@@ -14,5 +14,6 @@ export * from "./paths";
 export * from "./workspace";
 export * from "./shortlist";
 export { createArmContext, placedArmKinematics, type ArmContext } from "./context";
+export { armClearance, type ArmClearance } from "./clearance";
 export * from "./copies";
 export * from "./speed";

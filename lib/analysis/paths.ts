@@ -3,18 +3,21 @@
  * continuation from the previous sample, configuration flips and limit hits, the exact achievable
  * tool speed at every sample (the largest multiple of the required task velocity the joints can
  * give under their speed limits and position limits, speed.ts), the speed the returned joint
- * trajectory itself allows, and profiles of the smallest singular value and the dexterity margin.
+ * trajectory itself allows, profiles of the smallest singular value and the dexterity margin, and
+ * the cell: every sample checked for collisions and the motion between samples checked
+ * conservatively (cell.ts), with the clearance along the path.
  */
 import type { PathSpec } from "@/shared/schemas/requirements";
 import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount, taskVelocityInto, type ArmModel, type IkResult } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
 import { centredCopy } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
-import { deg, mm, num, pct } from "./format";
+import { deg, mm, num, pct, quoteBody } from "./format";
 import { poseFromQuaternion, poseFromRpy, quaternionOf, relativeRotation, slerp } from "./geometry";
 import { determinant } from "./linalg";
 import { AT_LIMIT_FRACTION, maxSpeedScale, speedBounds, type SpeedScale } from "./speed";
-import type { Verdict } from "./types";
+import { worseVerdict, type Verdict } from "./types";
+import { checkCell, checkMotion, contactMask, pairNames } from "./cell";
 
 /** A joint jump between neighbouring samples larger than this (rad) is a configuration flip. */
 export const FLIP_JUMP = (30 * Math.PI) / 180;
@@ -117,6 +120,8 @@ export interface PathAnalysis {
   };
   /** Smallest dexterity margin over the reached samples (null when none). */
   minDexterityMargin: number | null;
+  /** The collision check in the cell (null when the cell checks nothing for this arm). */
+  cell: PathCell | null;
   /** Per-sample profiles (same length as `samples`; null where a sample was not reached). */
   profile: {
     s: number[];
@@ -126,9 +131,31 @@ export interface PathAnalysis {
     speedRatio: (number | null)[];
     /** The ratio the returned joint trajectory allows at each sample (its adjacent segments). */
     trajectorySpeedRatio: (number | null)[];
+    /** Clearance at each reached sample (m; 0 when colliding), null where not reached or nothing is checked. */
+    clearance: (number | null)[];
   };
   /** Joint values at each sample (rad or m), for plotting; null where not reached. */
   q: (number[] | null)[];
+}
+
+/** The cell along a path. */
+export interface PathCell {
+  /** No collision at any reached sample nor between consecutive reached samples. */
+  collisionFree: boolean;
+  /** Required clearance (m). */
+  required: number;
+  /** Smallest distance along the path over the counted pairs (m): exact where evaluated, else the proven bound; null when nothing is counted. */
+  clearance: number | null;
+  /** The pair at that distance and where along the path (m). */
+  closest: { a: string; b: string; distance: number; s: number } | null;
+  /** The first collision: at a sample, or between two samples (`between`), with the pair and the overlap (m). */
+  firstCollision: { index: number; s: number; between: boolean; a: string; b: string; depth: number } | null;
+  /** Configurations evaluated between samples by the motion check. */
+  evaluations: number;
+  /** The motion check settled for its bound somewhere (too tight to resolve within its budget). */
+  unresolved: boolean;
+  /** Obstacle names the tool and payload may touch along the path (its contact list). */
+  contact: string[];
 }
 
 interface Sample {
@@ -182,19 +209,25 @@ export function analyzePath(ctx: ArmContext, path: PathSpec, budget: PathBudget,
     .filter((r) => r.status === "reached");
   // Try start branches in order of their dexterity margin; keep the first that carries through.
   // Each start as its in-limit copy farthest from the joint limits (copies.ts): the most room to move.
+  const exempt = ctx.cell.active ? contactMask(ctx.cell, path.contact) : null;
+  const freeAt = (q: Float64Array) => !ctx.cell.active || checkCell(ctx.cell, ctx.cellData, model, data, q, exempt, ctx.check).collisionFree;
+  // Collision-free starts first, then by dexterity margin.
   const ranked = starts.map((r0) => {
     const r = { ...r0, q: centredCopy(model, r0.q).q };
     computeJacobian(model, data, r.q, ctx.jac);
-    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks, data.toolPose).margin };
-  }).sort((a, b) => b.m - a.m);
+    return { r, m: dexterityAt(ctx.jac, model.n, model, r.q, path.mode, ctx.ranks, data.toolPose).margin, free: freeAt(r.q) };
+  }).sort((a, b) => Number(b.free) - Number(a.free) || b.m - a.m);
   let best: Traversal | null = null;
   for (const st of ranked.slice(0, Math.max(1, budget.startBranches))) {
     const tr = traverse(ctx, path, samples, st.r, opts, budget, seed);
+    // colliding samples count against a traversal like unreached ones
+    if (ctx.cell.active) for (const q of tr.qs) if (q && !freeAt(q)) tr.score--;
     if (!best || tr.score > best.score) best = tr;
-    if (tr.unreached === 0 && tr.flips.length === 0) break;
+    if (tr.unreached === 0 && tr.flips.length === 0 && tr.score === samples.length) break;
   }
   if (!best) best = traverse(ctx, path, samples, null, opts, budget, seed);
-  return summarise(ctx, path, samples, best, length, step, coarsened);
+  const cell = ctx.cell.active ? pathCell(ctx, path, samples, best.qs, exempt) : null;
+  return summarise(ctx, path, samples, best, length, step, coarsened, cell);
 }
 
 interface Traversal {
@@ -287,10 +320,75 @@ function taskJacobian(ctx: ArmContext, q: Float64Array, mode: PathSpec["mode"]):
   return { matrix: m, rows };
 }
 
-function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Traversal, length: number, step: number, coarsened: boolean): PathAnalysis {
+/**
+ * Checks every reached sample and the motion between consecutive reached samples (allocates the
+ * result; the checks themselves do not).
+ */
+function pathCell(ctx: ArmContext, path: PathSpec, samples: Sample[], qs: (Float64Array | null)[], exempt: Uint8Array | null): PathCell & { profile: (number | null)[] } {
+  const { model, data, cell, cellData: cd } = ctx;
+  const np = cell.pairs.length;
+  const required = cell.clearance;
+  const profile: (number | null)[] = [];
+  let prevQ: Float64Array | null = null, prevK = -1;
+  const prevD = new Float64Array(np), prevEx = new Uint8Array(np), curD = new Float64Array(np), curEx = new Uint8Array(np);
+  let clearance = Infinity;
+  let closest: PathCell["closest"] = null;
+  let firstCollision: PathCell["firstCollision"] = null;
+  let evaluations = 0, unresolved = false;
+  // the smallest distance; where it is, the first place within 1 nm of it (ties along a path are common)
+  const note = (d: number, p: number, sAt: number) => {
+    if (p < 0 || !(d < clearance)) return;
+    if (closest === null || d < clearance - 1e-9) {
+      const [a, b] = pairNames(cell, p);
+      closest = { a, b, distance: d, s: sAt };
+    } else closest = { ...(closest as NonNullable<PathCell["closest"]>), distance: d };
+    clearance = d;
+  };
+  for (let k = 0; k < samples.length; k++) {
+    const q = qs[k];
+    if (!q) { profile.push(null); prevQ = null; continue; }
+    const c = checkCell(cell, cd, model, data, q, exempt, ctx.check);
+    curD.set(cd.pairDistance);
+    curEx.set(cd.pairExact);
+    profile.push(Number.isFinite(c.clearance) ? c.clearance : null);
+    note(c.clearance, c.clearancePair, samples[k].s);
+    if (!c.collisionFree && !firstCollision) {
+      const [a, b] = pairNames(cell, c.collisionPair);
+      firstCollision = { index: k, s: samples[k].s, between: false, a, b, depth: c.collisionDepth };
+    }
+    if (prevQ && !firstCollision) {
+      const m = checkMotion(cell, cd, model, data, prevQ, q, prevD, prevEx, curD, curEx, exempt, required);
+      evaluations += m.evaluations;
+      unresolved ||= m.unresolved;
+      const sAt = samples[prevK].s + (m.collision ? m.collision.fraction : 0.5) * (samples[k].s - samples[prevK].s);
+      note(m.lowest, m.lowestPair, sAt);
+      if (m.collision) {
+        const [a, b] = pairNames(cell, m.collision.pair);
+        firstCollision = { index: prevK, s: sAt, between: true, a, b, depth: m.collision.depth };
+      }
+    }
+    prevQ = q; prevK = k;
+    prevD.set(curD); prevEx.set(curEx);
+  }
+  return {
+    collisionFree: firstCollision === null, required, clearance: Number.isFinite(clearance) ? clearance : null, closest, firstCollision,
+    evaluations, unresolved, contact: path.contact ?? [], profile,
+  };
+}
+
+function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Traversal, length: number, step: number, coarsened: boolean, cellFull: (PathCell & { profile: (number | null)[] }) | null): PathAnalysis {
   const { model } = ctx;
   const n = model.n;
-  const prof = { s: [] as number[], sigmaMinTranslation: [] as (number | null)[], dexterityMargin: [] as (number | null)[], speedRatio: [] as (number | null)[], trajectorySpeedRatio: [] as (number | null)[] };
+  const prof = {
+    s: [] as number[], sigmaMinTranslation: [] as (number | null)[], dexterityMargin: [] as (number | null)[], speedRatio: [] as (number | null)[],
+    trajectorySpeedRatio: [] as (number | null)[], clearance: cellFull ? cellFull.profile : samples.map(() => null),
+  };
+  let cell: PathCell | null = null;
+  if (cellFull) {
+    const { profile: _profile, ...rest } = cellFull;
+    void _profile;
+    cell = rest;
+  }
   const limitHits: PathEvent[] = [];
   let ratio: number | null = null, limSample: number | null = null;
   let limiting: { task: Float64Array; rows: number; b: Float64Array; q: Float64Array } | null = null;
@@ -367,6 +465,21 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
     if (verdict === "meets") verdict = "marginal";
     parts.push(`dexterity margin drops to ${num(minMargin)}`);
   }
+  if (cell) {
+    const fc = cell.firstCollision;
+    if (fc) {
+      verdict = "fails";
+      parts.push(`${fc.between ? `collides between samples ${fc.index + 1} and ${fc.index + 2}` : `collides at sample ${fc.index + 1}`}, ${mm(fc.s)} along the path: ${fc.a} hits ${quoteBody(fc.b)}${fc.depth > 0 ? `, overlap ${mm(fc.depth)}` : ""}`);
+    } else if (cell.unresolved && cell.clearance !== null && cell.clearance <= 0) {
+      verdict = "fails";
+      parts.push("the motion between two samples could not be shown to stay clear (the bound allows contact): check with a finer step");
+    } else if (cell.closest && cell.clearance !== null) {
+      if (cell.clearance < cell.required) {
+        verdict = worseVerdict(verdict, "marginal");
+        parts.push(`clearance drops to ${mm(cell.clearance)} between ${cell.closest.a} and ${quoteBody(cell.closest.b)} at ${mm(cell.closest.s)} along the path, below the required ${mm(cell.required)}${cell.unresolved ? " (a bound between samples)" : ""}`);
+      } else parts.push(`clearance at least ${mm(cell.clearance)} along the path (${cell.closest.a} to ${quoteBody(cell.closest.b)}), motion between samples checked`);
+    }
+  }
   if (coarsened) parts.push(`step coarsened to ${mm(step)} (sample cap)`);
   if (tr.budgetSpent) parts.push("restart budget spent: later samples tried by continuation only");
   return {
@@ -377,7 +490,7 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
       limitingJoint: limJoint, limitingAtPositionLimit: limJointInfo.atLimit, limitingSample: limSample,
       trajectoryRatio: traj.min, trajectoryLimitingJoint: traj.joint, rotationOnlySegments: rotationOnly, note: speedNote,
     },
-    minDexterityMargin: minMargin, profile: prof, q: tr.qs.map((q) => (q ? Array.from(q) : null)),
+    minDexterityMargin: minMargin, cell, profile: prof, q: tr.qs.map((q) => (q ? Array.from(q) : null)),
   };
 }
 

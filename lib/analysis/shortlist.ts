@@ -19,11 +19,11 @@ import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, typ
 import type { Verdict } from "./types";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.4.0";
+export const ANALYSIS_VERSION = "analysis-1.5.0";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
-  "Armsift is a kinematic and static screening aid. It is not a substitute for the maker's data, a risk assessment (ISO 12100, ISO 10218-2), the collaborative-operation limits of ISO/TS 15066, or local codes and licensed engineering practice. Dynamics, deflection, collisions with the cell and cycle time are not analysed.";
+  "Armsift is a kinematic and static screening aid. It is not a substitute for the maker's data, a risk assessment (ISO 12100, ISO 10218-2), the collaborative-operation limits of ISO/TS 15066, or local codes and licensed engineering practice. Collisions are checked only between the rigid capsules and primitives entered (links, base, tool, payload, obstacles): no cable packs, dress packs or people unless modelled, and the check is not a safety function. Dynamics, deflection and cycle time are not analysed.";
 
 /** One arm of the shortlist: a pinned revision of an arm document. */
 export interface ShortlistArm {
@@ -78,6 +78,8 @@ export interface ArmAnalysis {
   /** One entry per spec requirement, same order (the compliance table). */
   specs: SpecResult[];
   workspace: WorkspaceAnalysis | null;
+  /** What the cell checks for this arm (null when the arm could not be analysed). */
+  cell: ArmCell | null;
   subScores: Record<SubScoreKey, SubScore>;
   /** Labels of failed `must` spec requirements (non-empty: disqualified). */
   failedMusts: string[];
@@ -88,11 +90,39 @@ export interface ArmAnalysis {
   summary: string;
 }
 
+/** What the cell checks for one arm. */
+export interface ArmCell {
+  /** Pairs of bodies checked at every configuration. */
+  checkedPairs: number;
+  /** Pairs not checked, by name, and why (the arm's ignored pairs, or derived capsules that always touch). */
+  skipped: { a: string; b: string; why: "ignored" | "always touching" }[];
+  /** Links without collision geometry (not checked). */
+  unmodelled: string[];
+  /** Where each link's capsules come from. */
+  linkSources: ("collision" | "derived" | "none")[];
+}
+
+/**
+ * The cell the analysis used (absent in results made before collisions were checked: such a
+ * result was made without the cell).
+ */
+export interface ShortlistCell {
+  /** Obstacle names, in the requirement set's order. */
+  obstacles: string[];
+  /** Required clearance (m). */
+  clearance: number;
+  /** The tool and the payload have collision shapes. */
+  toolShapes: number;
+  payloadShapes: number;
+}
+
 /** The result of {@link analyzeShortlist}. */
 export interface ShortlistAnalysis {
   version: string;
   caution: string;
   requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[] };
+  /** The cell the analysis used (absent in older results: made without the cell). */
+  cell?: ShortlistCell;
   /** Weights the ranking used (from the requirement set); re-rank with rerank(result, weights). */
   weights: Weights;
   arms: ArmAnalysis[];
@@ -104,6 +134,8 @@ export interface ShortlistAnalysis {
     forceMarginalFraction: number;
     speedMarginalRatio: number;
     ipRule: string;
+    /** Required clearance (m), absent in older results. */
+    clearance?: number;
   };
   budget: AnalysisBudget;
 }
@@ -177,10 +209,11 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     version: ANALYSIS_VERSION,
     caution: CAUTION,
     requirementSet: { name: req.name, targets: req.targets.map((t) => t.name), paths: req.paths.map((p) => p.name), specs: req.specs.map((s) => s.field) },
+    cell: { obstacles: req.cell.obstacles.map((o) => o.name), clearance: req.cell.clearance, toolShapes: req.tool.collision?.length ?? 0, payloadShapes: req.payload.collision?.length ?? 0 },
     weights: { ...req.weights },
     arms: results,
     ranking,
-    thresholds: { dexterityMarginal: DEXTERITY_MARGINAL_THRESHOLD, forceMarginalFraction: FORCE_MARGINAL_FRACTION, speedMarginalRatio: SPEED_MARGINAL_RATIO, ipRule: IEC_60529_NOTE },
+    thresholds: { dexterityMarginal: DEXTERITY_MARGINAL_THRESHOLD, forceMarginalFraction: FORCE_MARGINAL_FRACTION, speedMarginalRatio: SPEED_MARGINAL_RATIO, ipRule: IEC_60529_NOTE, clearance: req.cell.clearance },
     budget,
   };
 }
@@ -209,7 +242,10 @@ function finishArm(
     ? `not analysed: ${error}`
     : `${reached} of ${targets.length} targets reached, ${paths.filter((p) => p.verdict === "meets" || p.verdict === "marginal").length} of ${paths.length} paths followed` +
       (failedMusts.length ? `; fails must: ${failedMusts.join(", ")}` : "") + (unknownMusts.length ? `; unknown must: ${unknownMusts.join(", ")}` : "");
-  return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, workspace, subScores: sub, failedMusts, unknownMusts, counts, summary };
+  const cell: ArmCell | null = ctx && !error
+    ? { checkedPairs: ctx.cell.pairs.length, skipped: [...ctx.cell.skipped], unmodelled: [...ctx.cell.unmodelled], linkSources: ctx.cell.links.map((l) => l.source) }
+    : null;
+  return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, workspace, cell, subScores: sub, failedMusts, unknownMusts, counts, summary };
 }
 
 /**

@@ -109,12 +109,45 @@ const pathSpeed: SubScoreRule = {
     let worst = 1, note = "";
     for (const p of paths) {
       let v: number, why: string;
-      if (p.verdict === "fails" && (p.reached < p.samples || p.flips.some((f) => f.joint !== null))) { v = 0; why = `${p.name} not followed`; }
+      if (p.verdict === "fails" && (p.reached < p.samples || p.flips.some((f) => f.joint !== null) || p.cell?.collisionFree === false)) { v = 0; why = `${p.name} not followed`; }
       else if (p.speed.achievableFraction === null) { v = 0; why = `${p.name}: speed unknown (no joint speed limits), scored 0`; }
       else { v = p.speed.achievableFraction; why = `${p.name}: ${(v * 100).toFixed(0)} % of the required speed`; }
       if (v < worst || note === "") { worst = Math.min(worst, v); note = why; }
     }
     return { value: worst, applicable: true, note };
+  },
+};
+
+/** The clearance that scores 1: twice the required one, and at least this (m). */
+export const CLEARANCE_SCORE_FLOOR = 0.02;
+
+/**
+ * clearance: min over the reached targets (chosen branch) and the paths of c / c₁ clipped to
+ * [0, 1], with c the smallest distance over the checked pairs (a colliding path scores 0) and
+ * c₁ = max(2 × required clearance, 20 mm): ½ at the required clearance, 0 in contact. Applies
+ * when the cell has obstacles, the tool or payload has shapes, or any candidate arm has collision
+ * geometry; an arm with nothing checked scores 0 (unknown is never a pass).
+ */
+const clearance: SubScoreRule = {
+  score({ ctx, targets, paths, req, candidates }) {
+    const modelled = req.cell.obstacles.length > 0 || (req.tool.collision?.length ?? 0) > 0 || (req.payload.collision?.length ?? 0) > 0 ||
+      candidates.some((a) => (a.baseCollision?.length ?? 0) > 0 || a.joints.some((j) => (j.collision?.length ?? 0) > 0 || (j.radius ?? 0) > 0));
+    if (!modelled) return notApplicable("no collision geometry in the cell or on the arms");
+    if (!ctx.cell.active) return zeroScore("nothing checked for this arm (no collision geometry on it, the tool or the payload): scored 0");
+    const ref = Math.max(2 * req.cell.clearance, CLEARANCE_SCORE_FLOOR);
+    let worst = Infinity, note = "";
+    const consider = (c: number, why: string) => { if (c < worst) { worst = c; note = why; } };
+    targets.forEach((t) => {
+      if (!t.reached || !t.cell || t.cell.clearance === null || !t.cell.closest) return;
+      consider(t.cell.clearance, `${t.name}: ${(t.cell.clearance * 1000).toFixed(1)} mm (${t.cell.closest.a} to ${t.cell.closest.b})`);
+    });
+    paths.forEach((p) => {
+      if (!p.cell) return;
+      if (!p.cell.collisionFree) consider(0, `${p.name}: collides`);
+      else if (p.cell.clearance !== null && p.cell.closest) consider(p.cell.clearance, `${p.name}: ${(p.cell.clearance * 1000).toFixed(1)} mm (${p.cell.closest.a} to ${p.cell.closest.b})`);
+    });
+    if (worst === Infinity) return zeroScore("no reached target or path to measure: scored 0");
+    return { value: clamp01(worst / ref), applicable: true, note: `smallest clearance ${note}; scores 1 at ${(ref * 1000).toFixed(0)} mm` };
   },
 };
 
@@ -146,4 +179,4 @@ const price: SubScoreRule = {
 };
 
 /** One rule per row of the sub-score table. */
-export const SUB_SCORE_RULES: Readonly<Record<SubScoreKey, SubScoreRule>> = { coverage, dexterity, payload, force, pathSpeed, price };
+export const SUB_SCORE_RULES: Readonly<Record<SubScoreKey, SubScoreRule>> = { coverage, dexterity, payload, force, pathSpeed, clearance, price };

@@ -1,16 +1,18 @@
 /**
- * Per-target analysis: every distinct IK branch, the dexterity of each, the branch with the best
- * dexterity margin chosen, and the statics of the chosen one (holding the tool and payload,
- * payload capacity, force ellipsoid at the payload CoG, the exact capability for a required
- * force/moment, and the wrist load check).
+ * Per-target analysis: every distinct IK branch, the dexterity of each and its collision check in
+ * the cell, the branch chosen (collision-free first, then the required clearance, then the best
+ * dexterity margin), and the statics of the chosen one (holding the tool and payload, payload
+ * capacity, force ellipsoid at the payload CoG, the exact capability for a required force/moment,
+ * and the wrist load check). A target is reached only by a branch with no collision.
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Target } from "@/shared/schemas/requirements";
-import { computeJacobian, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
+import { computeJacobian, createRng, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, maxJointDistance, randomConfiguration, solveIk, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
+import { checkCell, contactMask, pairNames, type CellCheck } from "./cell";
 import type { ArmContext } from "./context";
 import { centredCopy, type JointCopyChoice } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
-import { deg, mm, num, pct } from "./format";
+import { deg, mm, num, pct, quoteBody } from "./format";
 import { poseFromRpy, rotationOf, transformPoint, mul4 } from "./geometry";
 import {
   capacityAlong, ellipsoidEstimateAlong, forceEllipsoid, gravityTorque, payloadCapacity, transposeTimes, wristAxisLoad,
@@ -58,6 +60,44 @@ export interface SolutionSummary {
   /** `axis` targets: σ₂/σ₁ of that block on the tool's x and y axes, the factor the margin uses; null otherwise. */
   axisOrientationInverseCondition: number | null;
   jointLimitMargin: number;
+  /** No collision in the cell at this configuration (null when the cell checks nothing for this arm). */
+  collisionFree: boolean | null;
+  /** Smallest distance over the checked pairs (m; 0 when colliding), or null. */
+  clearance: number | null;
+}
+
+/** A pair of bodies by name (arm bodies "base", "link k", "tool", "payload", or an obstacle's name). */
+export interface BodyPairDistance {
+  a: string;
+  b: string;
+  /** Separation (m), 0 when they touch or overlap. */
+  distance: number;
+  /** Closest points in the cell frame (m) when known. */
+  pointA: number[] | null;
+  pointB: number[] | null;
+}
+
+/** The cell at a target: the chosen (or least-colliding) configuration's collision check. */
+export interface TargetCell {
+  /** The configuration reported has no collision. */
+  collisionFree: boolean;
+  /** Required clearance (m) and the smallest distance over the counted pairs (m; null when nothing is counted). */
+  required: number;
+  clearance: number | null;
+  /** The pair at that distance. */
+  closest: BodyPairDistance | null;
+  /** The deepest overlap (when colliding): the pair and the depth (m). */
+  collision: { a: string; b: string; depth: number } | null;
+  /** Branches found and how many of them collide. */
+  branches: number;
+  colliding: number;
+  /**
+   * When every branch collides: the collision-free configuration of the search closest to the
+   * target, by its position and rotation errors (m, rad); null when none was found.
+   */
+  freeMiss: { positionError: number; rotationError: number } | null;
+  /** Obstacle names the tool and payload may touch here (the target's contact list). */
+  contact: string[];
 }
 
 /** Holding the tool and payload still at the chosen configuration. */
@@ -158,7 +198,12 @@ export interface TargetAnalysis {
   holding: HoldingCheck | null;
   force: ForceCheck | null;
   wrist: WristCheck | null;
+  /** The collision check in the cell (null when the cell checks nothing for this arm, or the target is not reached by IK at all). */
+  cell: TargetCell | null;
 }
+
+/** Extra random starts (IK descents) tried for a collision-free near miss when every branch collides. */
+export const FREE_MISS_ATTEMPTS = 16;
 
 /** The target's pose in the cell frame (row-major 4×4). */
 export function targetPose(t: Pick<Target, "position" | "rpy">): Float64Array {
@@ -202,28 +247,75 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
       (target.mode === "point" ? "" : `, rotation error ${deg(best.rotationError)}`) + ` (${missText(best, model)})`;
     return {
       ...base, verdict: "fails", reason, reached: false, positionError: best.positionError, rotationError: best.rotationError,
-      ikReason: best.reason, solutions: [], chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null,
+      ikReason: best.reason, solutions: [], chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null, cell: null,
     };
   }
+  const cellOn = ctx.cell.active;
+  const exempt = cellOn ? contactMask(ctx.cell, target.contact) : null;
+  const required = ctx.cell.clearance;
+  const checks: CellSummary[] = [];
+  const checkOf = (q: Float64Array): CellSummary => summarise(ctx, checkCell(ctx.cell, ctx.cellData, model, data, q, exempt, ctx.check));
   // Each solution as its in-limit copy farthest from the joint limits (copies.ts): same pose, larger margin.
   const centred = reached.map((r) => centredCopy(model, r.q));
+  if (cellOn) for (const c of centred) checks.push(checkOf(c.q));
+  if (cellOn && !checks.some((c) => c.free)) {
+    // Every branch found collides: look wider for a free one before saying so.
+    const more = solveIkMulti(model, data, pose, {
+      mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
+      maxRestarts: 2 * budget.restarts, maxSolutions: 2 * budget.maxSolutions, maxIterations: budget.maxIterations, seed: seed + 0x51ed2701,
+    }).filter((r) => r.status === "reached");
+    for (const r of more) {
+      const c = centredCopy(model, r.q);
+      if (centred.some((x) => maxJointDistance(model, x.q, c.q) < 0.1)) continue;
+      reached.push(r);
+      centred.push(c);
+      checks.push(checkOf(c.q));
+    }
+  }
   const reports: DexterityReport[] = centred.map((c) => {
     computeJacobian(model, data, c.q, ctx.jac);
     return dexterityAt(ctx.jac, model.n, model, c.q, target.mode, ctx.ranks, data.toolPose);
   });
-  let chosen = 0;
-  for (let i = 1; i < reports.length; i++) if (reports[i].margin > reports[chosen].margin) chosen = i;
+  // collision-free first, then the required clearance, then the dexterity margin
+  const rank = (i: number) => (cellOn ? (checks[i].free ? 2 : 0) + (checks[i].free && checks[i].clearance >= required ? 1 : 0) : 0);
+  let chosen = 0, bestMargin = 0;
+  for (let i = 1; i < reports.length; i++) {
+    if (rank(i) > rank(chosen) || (rank(i) === rank(chosen) && reports[i].margin > reports[chosen].margin)) chosen = i;
+    if (reports[i].margin > reports[bestMargin].margin) bestMargin = i;
+  }
   const solutions: SolutionSummary[] = reached.map((_, i) => ({
     q: Array.from(centred[i].q), copies: centred[i].copies, margin: reports[i].margin, limiting: reports[i].limiting,
     translationInverseCondition: reports[i].translation.inverseCondition,
     orientationInverseCondition: reports[i].orientation.inverseCondition,
     axisOrientationInverseCondition: reports[i].axisOrientation?.inverseCondition ?? null,
     jointLimitMargin: reports[i].jointLimits.margin,
+    collisionFree: cellOn ? checks[i].free : null,
+    clearance: cellOn ? (checks[i].free ? checks[i].clearance : 0) : null,
   }));
   const q = centred[chosen].q;
   const dex = reports[chosen];
   const n = model.n;
   lap("dexterity");
+
+  if (cellOn && !checks[chosen].free) {
+    // Every branch collides: not reached. Report the least overlap and the nearest free configuration.
+    let least = 0;
+    for (let i = 1; i < checks.length; i++) if (checks[i].depth < checks[least].depth) least = i;
+    const miss = freeMiss(ctx, pose, target, budget, seed, exempt);
+    const col = checks[least];
+    const cell: TargetCell = {
+      collisionFree: false, required, clearance: null, closest: null, collision: { a: col.a, b: col.b, depth: col.depth },
+      branches: checks.length, colliding: checks.length, freeMiss: miss, contact: target.contact ?? [],
+    };
+    const every = checks.length === 1 ? "the only branch found collides" : `every branch found collides (${checks.length}), the least`;
+    const reason = `reached by inverse kinematics, but ${every}: ${col.a} hits ${quoteBody(col.b)}, overlap ${mm(col.depth)}` +
+      (miss ? `; the nearest collision-free configuration the search found misses the target by ${mm(miss.positionError)}${target.mode === "point" ? "" : ` and ${deg(miss.rotationError)}`}` : "; the search found no collision-free configuration near the target");
+    return {
+      ...base, verdict: "fails", reason, reached: false,
+      positionError: miss ? miss.positionError : reached[least].positionError, rotationError: miss ? miss.rotationError : reached[least].rotationError,
+      ikReason: reached[least].reason, solutions, chosen: null, dexterity: null, forceEllipsoid: null, holding: null, force: null, wrist: null, cell,
+    };
+  }
 
   // Statics at the chosen configuration.
   const tauHold = gravityTorque(model, data, q, ctx.loads, ctx.jac);
@@ -243,6 +335,25 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   if (dex.marginal || dex.limiting.value < 0.5) parts.push(`limiting: ${describeLimit(dex)}`);
   if (dex.marginal) parts.push(`below the ${num(DEXTERITY_MARGINAL_THRESHOLD, 1)} threshold`);
   if (reached.length > 1) parts.push(`${reached.length} branches found`);
+  let cell: TargetCell | null = null;
+  if (cellOn) {
+    const c = checks[chosen];
+    const colliding = checks.filter((x) => !x.free).length;
+    cell = {
+      collisionFree: true, required, clearance: Number.isFinite(c.clearance) ? c.clearance : null,
+      closest: c.closest, collision: null, branches: checks.length, colliding, freeMiss: null, contact: target.contact ?? [],
+    };
+    if (colliding > 0) {
+      const first = checks.find((x) => !x.free)!;
+      parts.push(`${colliding} of ${checks.length} branches collide (${first.a} hits ${quoteBody(first.b)}, overlap ${mm(first.depth)})${chosen !== bestMargin && !checks[bestMargin].free ? ": chose a collision-free one over the best-dexterity one" : ""}`);
+    }
+    if (c.closest && Number.isFinite(c.clearance)) {
+      if (c.clearance < required) {
+        verdict = worseVerdict(verdict, "marginal");
+        parts.push(`clearance ${mm(c.clearance)} between ${c.closest.a} and ${quoteBody(c.closest.b)}, below the required ${mm(required)}`);
+      } else parts.push(`clearance ${mm(c.clearance)} (${c.closest.a} to ${quoteBody(c.closest.b)})`);
+    }
+  }
   for (const c of centred[chosen].copies) {
     const room = (v: number) => Math.min(v - model.lower[c.joint - 1], model.upper[c.joint - 1] - v);
     const tie = c.others.every((o) => room(o) >= room(c.chosen) - 1e-9);
@@ -255,8 +366,55 @@ export function analyzeTarget(ctx: ArmContext, arm: ArmDocument, req: Requiremen
   return {
     ...base, verdict, reason: parts.join("; "), reached: true,
     positionError: reached[chosen].positionError, rotationError: reached[chosen].rotationError, ikReason: reached[chosen].reason,
-    solutions, chosen, dexterity: dex, forceEllipsoid: ellipsoid, holding, force, wrist,
+    solutions, chosen, dexterity: dex, forceEllipsoid: ellipsoid, holding, force, wrist, cell,
   };
+}
+
+/** One configuration's check, by names (allocates; not a hot path). */
+interface CellSummary {
+  free: boolean;
+  clearance: number;
+  closest: BodyPairDistance | null;
+  /** The deepest overlapping pair and its depth (when colliding). */
+  a: string;
+  b: string;
+  depth: number;
+}
+
+function summarise(ctx: ArmContext, c: CellCheck): CellSummary {
+  const cd = ctx.cellData;
+  let closest: BodyPairDistance | null = null;
+  if (c.clearancePair >= 0) {
+    const [a, b] = pairNames(ctx.cell, c.clearancePair);
+    const pp = 6 * c.clearancePair, P = cd.pairPoints;
+    closest = { a, b, distance: c.clearance, pointA: [P[pp], P[pp + 1], P[pp + 2]], pointB: [P[pp + 3], P[pp + 4], P[pp + 5]] };
+  }
+  const [a, b] = c.collisionPair >= 0 ? pairNames(ctx.cell, c.collisionPair) : ["", ""];
+  return { free: c.collisionFree, clearance: c.clearance, closest, a, b, depth: c.collisionDepth };
+}
+
+
+/**
+ * The collision-free configuration closest to the target among seeded IK descents (each from a
+ * random in-limit start, reached or not), by position error then rotation error; null when every
+ * one collides.
+ */
+function freeMiss(ctx: ArmContext, pose: Float64Array, target: Target, budget: TargetBudget, seed: number, exempt: Uint8Array | null): { positionError: number; rotationError: number } | null {
+  const { model, data } = ctx;
+  const rng = createRng((seed ^ 0x2545f491) >>> 0 || 1);
+  const start = new Float64Array(model.n);
+  let best: { positionError: number; rotationError: number } | null = null;
+  for (let k = 0; k < FREE_MISS_ATTEMPTS; k++) {
+    randomConfiguration(model, rng, start);
+    const r = solveIk(model, data, pose, {
+      mode: target.mode, positionTolerance: target.positionTolerance, rotationTolerance: target.rotationTolerance,
+      initial: start, maxRestarts: 0, maxIterations: budget.maxIterations,
+    });
+    if (!checkCell(ctx.cell, ctx.cellData, model, data, r.q, exempt, ctx.check).collisionFree) continue;
+    const rot = target.mode === "point" ? 0 : r.rotationError;
+    if (!best || r.positionError < best.positionError || (r.positionError === best.positionError && rot < best.rotationError)) best = { positionError: r.positionError, rotationError: rot };
+  }
+  return best;
 }
 
 /** A miss this close (m) is reported as close: more search might reach it. */

@@ -6,6 +6,7 @@ import type { Weights } from "@/shared/schemas/requirements";
 import { subScoreOf, type RankedArm } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import { SUB_SCORES } from "@/shared/sub-scores";
+import { armClearance } from "@/lib/analysis/clearance";
 
 /** What every export states about where its numbers come from. */
 export interface ExportMeta {
@@ -77,14 +78,24 @@ export function complianceTable(analysis: ShortlistAnalysis): Table {
       ]);
     }
   }
+  // the cell's required clearance, against each arm's smallest clearance (absent in results made without the cell)
+  if (analysis.cell) {
+    const req = analysis.cell.clearance;
+    for (const a of analysis.arms) {
+      const c = armClearance(a, req);
+      rows.push(["Clearance in the cell (targets and paths)", "must", COMPARATOR_WORDS.atLeast, round(req * 1000, 1), "mm", a.name, a.revision, c.value === null ? "no data" : round(c.value * 1000, 1), c.value === null ? null : "mm", c.verdict, c.reason]);
+    }
+  }
   return { title: "Compliance", columns, rows };
 }
 
 /**
  * Arms × targets and paths (the page's task matrix): one row per arm and, per target then per
- * path, three columns: the verdict word, the dexterity margin D (0–1, dimensionless; the chosen
- * branch at a target, the smallest over the reached samples of a path; empty when not reached)
- * and the reason in words. An arm that could not be analysed reads "not analysed".
+ * path, four columns: the verdict word, the dexterity margin D (0–1, dimensionless; the chosen
+ * branch at a target, the smallest over the reached samples of a path; empty when not reached),
+ * the reason in words, and the clearance in the cell (mm; the smallest distance over the checked
+ * pairs at the chosen configuration or along the path, 0 when colliding, empty when nothing is
+ * checked or in results made without the cell). An arm that could not be analysed reads "not analysed".
  */
 export function taskMatrixTable(analysis: ShortlistAnalysis): Table {
   const tasks = [
@@ -97,15 +108,19 @@ export function taskMatrixTable(analysis: ShortlistAnalysis): Table {
       `${t.kind} ${t.name}: verdict`,
       `${t.kind} ${t.name}: ${t.kind === "Path" ? "smallest " : ""}dexterity margin D (0–1)`,
       `${t.kind} ${t.name}: reason`,
+      `${t.kind} ${t.name}: clearance (mm)`,
     ]),
   ];
   const rows = analysis.arms.map((a): Cell[] => [
     a.name, a.revision,
     ...tasks.flatMap((t): Cell[] => {
       const r = t.kind === "Target" ? a.targets[t.i] : a.paths[t.i];
-      if (!r) return ["not analysed", null, a.error ?? "not analysed"];
+      if (!r) return ["not analysed", null, a.error ?? "not analysed", null];
       const margin = t.kind === "Target" ? a.targets[t.i].dexterity?.margin ?? null : a.paths[t.i].minDexterityMargin;
-      return [r.verdict, margin === null ? null : round(margin), r.reason];
+      const clearance = t.kind === "Target"
+        ? (a.targets[t.i].cell ? (a.targets[t.i].cell!.collisionFree ? a.targets[t.i].cell!.clearance : 0) : null)
+        : (a.paths[t.i].cell ? (a.paths[t.i].cell!.collisionFree ? a.paths[t.i].cell!.clearance : 0) : null);
+      return [r.verdict, margin === null ? null : round(margin), r.reason, clearance === null || clearance === undefined ? null : round(clearance * 1000, 1)];
     }),
   ]);
   return { title: "Task matrix", columns, rows };

@@ -12,8 +12,8 @@
  * Spheres and capsules enter GJK as their core (centre, segment) with the radius added
  * afterwards, so the iteration only sees polytopes, segments and cylinders.
  */
-import { capsuleBox, capsuleCapsule, finishFromCores, sphereCylinder } from "./closest";
-import { epaCore, gjkCore, gjkOut } from "./gjk";
+import * as closest from "./closest";
+import * as gjk from "./gjk";
 import { packShape } from "./packed";
 import { createDistanceResult, type DistanceResult, type Shape } from "./types";
 // Layout constants of packed.ts, repeated as local constants so the hot code reads literals
@@ -26,6 +26,9 @@ const O_RADIUS = 1;
 const STRIDE = 24;
 /** Same as closest.ts CORE_TOUCH. */
 const CORE_TOUCH = 1e-15;
+// The functions as local bindings: an imported binding is a property load on every use.
+const { capsuleBox, capsuleCapsule, finishFromCores, sphereCylinder } = closest;
+const { epaCore, gjkCore, gjkOut } = gjk;
 
 /** Swaps A and B in a result (points exchanged, normal reversed). */
 function swapResult(out: DistanceResult): void {

@@ -35,7 +35,7 @@ const jointCommonShape = {
   com: vec3.optional(),
   /**
    * Collision radius of the link (m): without `collision`, the link's capsules are derived from
-   * its kinematic description with this radius (lib/geometry/derived.ts documents how).
+   * its kinematic description with this radius (lib/geometry/arm.ts and docs/design.md#derived-capsules say how).
    */
   radius: nonNegative.optional(),
   /** Collision capsules of the link in its frame (after this joint's transform, the frame of `com`). */

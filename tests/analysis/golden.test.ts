@@ -21,6 +21,8 @@ const GOLDEN: Record<string, string> = {
   // 1.4.0: axis targets' orientation factor over the constrained rotations, copies 2π apart, exact path
   // speed with the trajectory's own ratio, structured IK causes, labels of the payload and ellipsoid figures.
   "analysis-1.4.0": "152c81a3065862794c1b0bbd374156ec6262f7b8ff8d8f032d744467d7980269",
+  // 1.5.0: the cell: collisions and clearance at targets and along paths, a clearance sub-score (the input gained a cell).
+  "analysis-1.5.0": "f0a3cf5199f44f173ea3ab9a5bfb3e0fe8c17c89150c8b35ff5ccb1a925ae5b4",
 };
 
 const DEG = Math.PI / 180;
@@ -89,7 +91,20 @@ const req = requirementSetSchema.parse({
     { field: "ratedPayload", comparator: "atLeast", value: 4, priority: "must" },
     { field: "reach", comparator: "atLeast", value: 0.8, priority: "want" },
   ],
+  // since 1.5.0: a cell (a table, a post, a ball) and tool and payload shapes
+  cell: {
+    clearance: 0.01,
+    obstacles: [
+      { name: "table", shape: "box", pose: [1, 0, 0, 0.5, 0, 1, 0, 0, 0, 0, 1, -0.03, 0, 0, 0, 1], size: [0.8, 1.0, 0.06] },
+      { name: "post", shape: "cylinder", pose: [1, 0, 0, 0.55, 0, 1, 0, -0.35, 0, 0, 1, 0.3, 0, 0, 0, 1], radius: 0.03, length: 0.6 },
+      { name: "ball", shape: "sphere", center: [0.1, 0.45, 0.5], radius: 0.06 },
+    ],
+  },
 });
+req.tool.collision = [{ shape: "capsule", from: [0, 0, 0.02], to: [0, 0, 0.07], radius: 0.025 }];
+req.payload.collision = [{ shape: "box", pose: I4, size: [0.04, 0.04, 0.04] }];
+// since 1.5.0: the six-axis arm has capsules derived from its table and link radii
+(arms[0].arm.joints as { radius?: number }[]).forEach((j, i) => { j.radius = [0.06, 0.05, 0.045, 0.04, 0.035, 0.03][i]; });
 const budget = { ...DEFAULT_BUDGET, workspace: { ...DEFAULT_BUDGET.workspace, samples: 400 } };
 
 describe("golden analysis output", () => {

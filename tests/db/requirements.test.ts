@@ -21,7 +21,7 @@ afterAll(async () => t.cleanup());
 describe("requirement sets", () => {
   it("stores revisions with defaults applied, detects conflicts, soft-deletes and restores", async () => {
     const { id, requirementSet } = await createRequirementSet(null, requirementDoc());
-    expect(requirementSet.weights).toEqual({ coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, price: 1 });
+    expect(requirementSet.weights).toEqual({ coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, clearance: 1, price: 1 });
     expect(requirementSet.targets[0].positionTolerance).toBe(1e-5);
 
     const edited = requirementDoc({ payload: { mass: 2.5, cog: [0, 0, 0.02] } });
@@ -44,7 +44,7 @@ describe("requirement sets", () => {
 
   it("refuses UPDATE and DELETE on requirement revision rows (database triggers)", async () => {
     const { id } = await createRequirementSet(null, requirementDoc());
-    await expect(t.client.$executeRawUnsafe(`UPDATE "RequirementRevision" SET "summary" = 'x' WHERE "setId" = ?`, id)).rejects.toThrow(/immutable/);
+    await expect(t.client.$executeRaw`UPDATE "RequirementRevision" SET "summary" = 'x' WHERE "setId" = ${id}`).rejects.toThrow(/immutable/);
     await expect(t.client.requirementRevision.deleteMany({ where: { setId: id } })).rejects.toThrow();
     expect(await t.client.requirementRevision.count({ where: { setId: id } })).toBe(1);
   });

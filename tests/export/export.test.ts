@@ -6,6 +6,7 @@ import Papa from "papaparse";
 import { beforeAll, describe, expect, it } from "vitest";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { analyzeShortlist, rankArms, type ShortlistAnalysis } from "@/lib/analysis";
+import { armClearance } from "@/lib/analysis/clearance";
 import { complianceTable, csvField, rankingTable, taskMatrixTable, toCsv, toShortlistJson, toXlsx, type ExportMeta } from "@/lib/export";
 import { parseCsvRows, readCsvExport, readXlsx, sheetRecords } from "./parse";
 import type { ArmDocument } from "@/shared/schemas";
@@ -79,7 +80,15 @@ describe("CSV", () => {
     const text = toCsv(complianceTable(analysis), meta);
     const { meta: lines, columns, records } = readCsvExport(text);
     expect(columns).toEqual(["Requirement", "Priority", "Comparator", "Required value", "Required unit", "Arm", "Arm revision", "Arm value", "Arm value unit", "Verdict", "Reason"]);
-    expect(records).toHaveLength(analysis.arms.length * analysis.requirementSet.specs.length);
+    // the spec requirements, then the cell's required clearance, each against every arm
+    expect(records).toHaveLength(analysis.arms.length * (analysis.requirementSet.specs.length + 1));
+    for (const a of analysis.arms) {
+      const rec = records.find((r) => r.Arm === a.name && r.Requirement === "Clearance in the cell (targets and paths)")!;
+      const c = armClearance(a, analysis.cell!.clearance);
+      expect(rec.Verdict).toBe(c.verdict);
+      expect(rec["Required value"]).toBe(String(analysis.cell!.clearance * 1000));
+      expect(rec["Arm value"]).toBe(c.value === null ? "no data" : String(Math.round(c.value * 1e4) / 10));
+    }
     expect(lines).toContain(`Analysis version: ${analysis.version}`);
     expect(lines).toContain(`Requirement set: ${meta.requirement.name} (req-1) revision 3`);
     expect(lines.filter((l) => l.startsWith("Arm: "))).toHaveLength(analysis.arms.length);
@@ -148,7 +157,8 @@ describe("XLSX task matrix", () => {
     expect(Object.keys(sheets)).toEqual(["Ranking", "Task matrix", "Compliance", "Metadata"]);
     const head = sheets["Task matrix"][0] as string[];
     const { targets, paths } = analysis.requirementSet;
-    expect(head).toHaveLength(2 + 3 * (targets.length + paths.length));
+    expect(head).toHaveLength(2 + 4 * (targets.length + paths.length));
+    expect(head[5]).toBe(`Target ${targets[0]}: clearance (mm)`);
     expect(head.slice(0, 5)).toEqual(["Arm", "Arm revision", `Target ${targets[0]}: verdict`, `Target ${targets[0]}: dexterity margin D (0–1)`, `Target ${targets[0]}: reason`]);
     const rows = sheetRecords(sheets["Task matrix"]);
     expect(rows.map((r) => r.Arm)).toEqual(analysis.arms.map((a) => a.name));
@@ -161,6 +171,8 @@ describe("XLSX task matrix", () => {
         expect(row[`Target ${name}: verdict`]).toBe(t.verdict);
         expect(["meets", "marginal", "fails", "unknown"]).toContain(row[`Target ${name}: verdict`]);
         expect(row[`Target ${name}: reason`]).toBe(t.reason);
+        const c = row[`Target ${name}: clearance (mm)`];
+        if (t.cell) expect(c).toBe(t.cell.collisionFree ? (t.cell.clearance === null ? null : Math.round(t.cell.clearance * 1e4) / 10) : 0);
         const m = row[`Target ${name}: dexterity margin D (0–1)`];
         if (t.dexterity) {
           reached++;

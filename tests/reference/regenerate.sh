@@ -19,3 +19,4 @@ tmp=$(mktemp -d)
 trap 'rm -rf "$tmp"' EXIT
 g++ -O2 -std=c++17 fcl_fixtures.cpp -I/usr/include/eigen3 -lfcl -lccd -o "$tmp/fcl_fixtures"
 "$tmp/fcl_fixtures" > fixtures/fcl.json
+"$tmp/fcl_fixtures" cell > fixtures/fcl_cell.json

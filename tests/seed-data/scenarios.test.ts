@@ -1,5 +1,7 @@
 // Designed outcomes of the demo scenarios (which seed arms reach which targets and follow which
-// paths), checked through the product's analysis (analyzeShortlist) on the seed data.
+// paths), checked through the product's analysis (analyzeShortlist) on the seed data: first in free
+// space (the cell's obstacles and every collision shape left out, the question the numpy screen
+// below answers), then in the cell (obstacles, link capsules, tool and payload shapes).
 //
 // Independent source: tests/seed-data/check_scenarios.py, a numpy/scipy screen
 // (scipy.optimize.least_squares bounded by the joint limits, 24 seeded random starts per target,
@@ -12,6 +14,8 @@ import { analyzeShortlist, DEFAULT_BUDGET, type ShortlistAnalysis } from "@/lib/
 import { createArmContext } from "@/lib/analysis/context";
 import { forwardKinematics } from "@/lib/kinematics";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
+import type { ArmDocument } from "@/shared/schemas/arm";
+import type { RequirementSet } from "@/shared/schemas/requirements";
 
 /** Reached (true) or missed (false) per arm and target/path name; "*" stands for every one. */
 const EXPECTED: Record<string, Record<string, Record<string, boolean>>> = {
@@ -66,7 +70,13 @@ const arms = loadSeedArms();
 const reqs = loadSeedRequirementSets();
 // The workspace envelope plays no part in reachability: a small sample keeps the test fast.
 const budget = { ...DEFAULT_BUDGET, workspace: { ...DEFAULT_BUDGET.workspace, samples: 200 } };
+/** The same arms and requirement sets with no collision geometry at all (free space). */
+const freeArms = arms.map((a): ArmDocument => ({ ...a, baseCollision: undefined, ignoredPairs: undefined, joints: a.joints.map((j) => ({ ...j, collision: undefined, radius: undefined })) } as ArmDocument));
+const freeReq = (r: RequirementSet): RequirementSet => ({ ...r, cell: { obstacles: [], clearance: r.cell.clearance }, tool: { ...r.tool, collision: undefined }, payload: { ...r.payload, collision: undefined } });
 const results = new Map<string, ShortlistAnalysis>(
+  reqs.map((req) => [req.name, analyzeShortlist(freeArms.map((arm, i) => ({ id: `seed-${i}`, revision: 1, arm })), freeReq(req), { budget })]),
+);
+const inCell = new Map<string, ShortlistAnalysis>(
   reqs.map((req) => [req.name, analyzeShortlist(arms.map((arm, i) => ({ id: `seed-${i}`, revision: 1, arm })), req, { budget })]),
 );
 
@@ -138,5 +148,55 @@ describe("demo scenarios: designed reachability", () => {
       });
     }
     expect(verified).toBeGreaterThan(30);
+  });
+});
+
+describe("demo scenarios: designed outcomes in the cell", () => {
+  const arm = (scenario: string, name: string) => inCell.get(reqs.find((r) => r.name.startsWith(scenario))!.name)!.arms.find((a) => a.name === name)!;
+  const free = (scenario: string, name: string) => results.get(reqs.find((r) => r.name.startsWith(scenario))!.name)!.arms.find((a) => a.name === name)!;
+
+  it("the cell only takes away: whatever is reached or followed in the cell is so in free space too", () => {
+    for (const [name, result] of inCell) {
+      result.arms.forEach((a, i) => {
+        const f = results.get(name)!.arms[i];
+        a.targets.forEach((t, k) => { if (t.reached) expect(f.targets[k].reached, `${a.name} / ${t.name}`).toBe(true); });
+        a.paths.forEach((p, k) => { if (p.reached === p.samples && p.cell?.collisionFree) expect(f.paths[k].reached, `${a.name} / ${p.name}`).toBe(f.paths[k].samples); });
+      });
+    }
+  });
+
+  it("an arm that reaches a target in free space but not in the cell: the industrial arm's forearm hits the feeder hopper", () => {
+    const t = arm("Bench", "Foundry Six 12").targets.find((x) => x.name === "feeder-pick")!;
+    expect(free("Bench", "Foundry Six 12").targets.find((x) => x.name === "feeder-pick")!.reached).toBe(true);
+    expect(t.reached).toBe(false);
+    expect(t.verdict).toBe("fails");
+    expect(t.cell!.collisionFree).toBe(false);
+    expect(t.cell!.collision).toMatchObject({ a: "link 4", b: "feeder hopper" });
+    expect(t.reason).toMatch(/every branch found collides .*link 4 hits 'feeder hopper', overlap \d/);
+  });
+
+  it("an arm whose best-dexterity branch collides and whose next branch is free: the offset-wrist cobot at the feeder", () => {
+    const t = arm("Bench", "Reach Cobot 10").targets.find((x) => x.name === "feeder-pick")!;
+    expect(t.reached).toBe(true);
+    const best = t.solutions.reduce((b, s, i) => (s.margin > t.solutions[b].margin ? i : b), 0);
+    expect(t.solutions[best].collisionFree).toBe(false);
+    expect(t.solutions[t.chosen!].collisionFree).toBe(true);
+    expect(t.chosen).not.toBe(best);
+    expect(t.reason).toMatch(/branches collide \(link \d hits 'feeder hopper'.*chose a collision-free one over the best-dexterity one/);
+  });
+
+  it("a path that collides midway: the cobot's forearm meets the coolant nozzle on the top seam", () => {
+    const p = arm("Deburring", "Reach Cobot 10").paths.find((x) => x.name === "top-seam")!;
+    expect(p.reached).toBe(p.samples); // every sample reached by the kinematics
+    expect(p.verdict).toBe("fails");
+    const c = p.cell!.firstCollision!;
+    expect(c).toMatchObject({ b: "coolant nozzle" });
+    expect(c.s / p.length).toBeGreaterThan(0.25);
+    expect(c.s / p.length).toBeLessThan(0.85);
+    expect(p.reason).toMatch(/collides (at sample|between samples) .*along the path: link \d hits 'coolant nozzle'/);
+    // the industrial arm follows the same seam clear of everything, with the motion between samples checked
+    const f = arm("Deburring", "Foundry Six 12").paths.find((x) => x.name === "top-seam")!;
+    expect(f.cell!.collisionFree).toBe(true);
+    expect(f.verdict).not.toBe("fails");
   });
 });
