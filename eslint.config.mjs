@@ -15,7 +15,7 @@ const noDbInComponents = {
   regex: "(^|/)lib/db(/|$)",
   message: "Components get their data as props from the page; they never read the database (lib/db).",
 };
-const noPrisma = { group: ["@prisma/*", "**/generated/client", "**/generated/client/*"], message: "Only lib/db uses Prisma." };
+const noPrisma = { group: ["@prisma/*", "**/generated/client", "**/generated/client/*", "**/generated-pg/client", "**/generated-pg/client/*"], message: "Only lib/db uses Prisma." };
 const noDbAbove = {
   regex: "^(@/|(\\.\\./)+)(lib/)?(auth|http|jobs|views|export)(/|$)|^@/(app|components)(/|$)",
   message: "lib/db is the bottom layer: it never imports lib/auth, lib/http, lib/jobs, lib/views, lib/export, app or components.",
@@ -27,7 +27,7 @@ const pure = {
 const restrict = (...patterns) => ({ "no-restricted-imports": ["error", { patterns }] });
 
 export default tseslint.config(
-  { ignores: ["node_modules/**", ".next/**", "lib/db/generated/**", "data/**", "next-env.d.ts", "test-results/**"] },
+  { ignores: ["node_modules/**", ".next/**", "dist/**", "lib/db/generated/**", "lib/db/generated-pg/**", "data/**", "next-env.d.ts", "test-results/**"] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

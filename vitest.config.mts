@@ -7,8 +7,11 @@ const __dirname = path.dirname(fileURLToPath(import.meta.url));
 // `server-only` guards app code against client bundles; under vitest it resolves to its empty module.
 const alias = { "@": path.resolve(__dirname), "server-only": path.resolve(__dirname, "node_modules/server-only/empty.js") };
 
-// Three projects: pure unit tests, database tests on temporary SQLite files, and browser tests
-// against a built server in headless chromium. `npm test` runs them in that order.
+// Projects: pure unit tests; database, API and security tests on temporary SQLite files (`db`)
+// and the same files on temporary PostgreSQL databases (`db-pg`); queue tests with real worker
+// processes on PostgreSQL (`queue`); browser tests against a built server in headless chromium.
+// `npm test` runs them in that order (the PostgreSQL ones when a server is reachable).
+const dbFiles = ["tests/db/**/*.test.ts", "tests/api/**/*.test.ts", "tests/security/**/*.test.ts"];
 export default defineConfig({
   resolve: { alias },
   test: {
@@ -18,7 +21,7 @@ export default defineConfig({
         test: {
           name: "unit",
           include: ["tests/**/*.test.ts"],
-          exclude: ["tests/db/**", "tests/browser/**", "tests/api/**", "tests/security/**", "tests/load/**"],
+          exclude: ["tests/db/**", "tests/browser/**", "tests/api/**", "tests/security/**", "tests/load/**", "tests/queue/**"],
           environment: "node",
           // The command-line tests start a process each; a loaded machine needs more than 5 s.
           testTimeout: 30_000,
@@ -28,14 +31,42 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: "db",
-          include: ["tests/db/**/*.test.ts", "tests/api/**/*.test.ts", "tests/security/**/*.test.ts"],
+          include: dbFiles,
           exclude: ["tests/security/**/*.browser.test.ts"],
           environment: "node",
           pool: "forks",
           testTimeout: 30_000,
-          // Set-up hooks migrate a fresh database per file; on a loaded machine that can take
-          // longer than vitest's 10 s default, which then fails the file without a failing test.
+          // Each file migrates its own database first: allow for a busy machine.
           hookTimeout: 60_000,
+          globalSetup: ["tests/helpers/build-jobs-setup.ts"],
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "db-pg",
+          include: dbFiles,
+          exclude: ["tests/security/**/*.browser.test.ts"],
+          environment: "node",
+          pool: "forks",
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+          env: { ARMSIFT_TEST_PROVIDER: "postgres" },
+          globalSetup: ["tests/helpers/build-jobs-setup.ts", "tests/helpers/postgres-setup.ts"],
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: "queue",
+          include: ["tests/queue/**/*.test.ts"],
+          environment: "node",
+          pool: "forks",
+          fileParallelism: false,
+          testTimeout: 300_000,
+          hookTimeout: 120_000,
+          env: { ARMSIFT_TEST_PROVIDER: "postgres" },
+          globalSetup: ["tests/helpers/build-jobs-setup.ts", "tests/helpers/postgres-setup.ts"],
         },
       },
       {

@@ -15,7 +15,7 @@ export function TopBar({ user }: { user: TopBarUser | null }) {
         { href: "/arms", label: "Arms" },
         { href: "/requirements", label: "Requirement sets" },
         { href: "/shortlists", label: "Shortlists" },
-        ...(user.role === "admin" ? [{ href: "/admin/users", label: "Users" }, { href: "/admin/audit", label: "Audit trail" }] : []),
+        ...(user.role === "admin" ? [{ href: "/admin/users", label: "Users" }, { href: "/admin/audit", label: "Audit trail" }, { href: "/admin/system", label: "System" }] : []),
       ]
     : [];
   return (

@@ -34,11 +34,13 @@ export function ensureInstalled(env = process.env) {
   }
 }
 
-/** prisma generate when the generated client is missing or older than the schema. */
+/** prisma generate (both providers' clients) when one is missing or older than the schema. */
 export function ensureGenerated(env = process.env, force = false) {
-  const client = path.join(root, "lib", "db", "generated", "client.ts");
-  if (force || mtime(client) < mtime(path.join(root, "prisma", "schema.prisma"))) {
-    mustRun("prisma generate", process.execPath, [path.join(root, "scripts", "prisma.mjs"), "generate"], env);
+  const schema = Math.max(...["models.prisma", "sqlite/schema.prisma", "postgres/schema.prisma"].map((f) => mtime(path.join(root, "prisma", f))));
+  const oldest = Math.min(...["generated", "generated-pg"].map((d) => mtime(path.join(root, "lib", "db", d, "client.ts"))));
+  if (force || oldest < schema) {
+    const { DATABASE_URL: _url, ...rest } = env;
+    mustRun("prisma generate", process.execPath, [path.join(root, "scripts", "prisma.mjs"), "generate"], rest);
   }
 }
 

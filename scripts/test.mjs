@@ -1,10 +1,12 @@
-// `npm test`: install what is missing, generate the Prisma client, then type check, lint, unit
-// tests, database/API tests, production build and browser tests, stopping at the first failure.
+// `npm test`: install what is missing, generate the Prisma clients, then type check, lint, unit
+// tests, database/API tests (SQLite, then PostgreSQL), queue tests, production build and browser
+// tests, stopping at the first failure.
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
+import net from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { bin, ensureGenerated, ensureInstalled, nextBin, root, run } from "./ensure.mjs";
+import { bin, ensureGenerated, ensureInstalled, root, run } from "./ensure.mjs";
 
 const env = { ...process.env, NEXT_TELEMETRY_DISABLED: "1" };
 const started = Date.now();
@@ -21,12 +23,25 @@ const reports = mkdtempSync(path.join(tmpdir(), "armsift-test-"));
 const vitest = (project) => [
   "run", "--project", project, "--reporter=default", "--reporter=json", `--outputFile.json=${path.join(reports, `${project}.json`)}`,
 ];
+// The PostgreSQL suites run when the server of ARMSIFT_TEST_PG_URL (else a postgresql://
+// DATABASE_URL, else 127.0.0.1:5432) answers; under CI it must (.ci/run starts it).
+const pgUrl = new URL(process.env.ARMSIFT_TEST_PG_URL ?? (/^postgres(ql)?:/.test(process.env.DATABASE_URL ?? "") ? process.env.DATABASE_URL : "postgresql://127.0.0.1:5432/postgres"));
+const pgReachable = await new Promise((resolve) => {
+  const socket = net.connect({ host: pgUrl.hostname, port: Number(pgUrl.port || 5432) });
+  const done = (ok) => (socket.destroy(), resolve(ok));
+  socket.setTimeout(1500, () => done(false));
+  socket.once("connect", () => done(true));
+  socket.once("error", () => done(false));
+});
 const steps = [
   ["typecheck", bin("tsc"), ["--noEmit", "-p", "tsconfig.json"]],
   ["lint", bin("eslint"), ["--max-warnings=0", "."]],
   ["unit tests", bin("vitest"), vitest("unit")],
   ["database and API tests", bin("vitest"), vitest("db")],
-  ["next build", process.execPath, [nextBin(), "build"]],
+  ["database and API tests on PostgreSQL", bin("vitest"), vitest("db-pg")],
+  ["next build", "npm", ["run", "build"]],
+  // After the build: the queue project also restarts the built server during a run.
+  ["queue tests on PostgreSQL (worker processes)", bin("vitest"), vitest("queue")],
   ["browser tests", bin("vitest"), vitest("browser")],
 ];
 
@@ -50,7 +65,7 @@ function listed(project) {
  */
 function counts() {
   let passed = 0, failed = 0, skipped = notRun, brokenFiles = 0;
-  for (const project of ["unit", "db", "browser"]) {
+  for (const project of ["unit", "db", "db-pg", "queue", "browser"]) {
     const file = path.join(reports, `${project}.json`);
     if (!existsSync(file)) continue;
     const r = JSON.parse(readFileSync(file, "utf8"));
@@ -66,6 +81,18 @@ function counts() {
 }
 
 for (const [label, cmd, args] of steps) {
+  if (label.includes("PostgreSQL") && !pgReachable) {
+    if (ci) {
+      console.error(`\n✖ ${label}: PostgreSQL at ${pgUrl.host} is not reachable (required under CI; .ci/run starts it)`);
+      console.log(`\nnpm test: FAILED at ${label} after ${secs(Date.now() - started)}`);
+      process.exit(1);
+    }
+    const n = listed(args[args.indexOf("--project") + 1]);
+    notRun += n;
+    console.log(red(`\n⚠ SKIPPED ${n} ${label}: PostgreSQL at ${pgUrl.host} is not reachable (set ARMSIFT_TEST_PG_URL or start it). Under CI=true this is a failure.`));
+    timings.push(`${label} skipped`);
+    continue;
+  }
   if (label === "browser tests" && !existsSync(chromium)) {
     if (ci) {
       console.error(`\n✖ browser tests: ${chromium} is missing (required under CI; apt-get install -y chromium)`);
@@ -73,8 +100,9 @@ for (const [label, cmd, args] of steps) {
       console.log(`tests: ${counts()}`);
       process.exit(1);
     }
-    notRun += listed("browser");
-    console.log(red(`\n⚠ SKIPPED ${notRun} browser tests: ${chromium} is not installed (apt-get install -y chromium). Under CI=true this is a failure.`));
+    const n = listed("browser");
+    notRun += n;
+    console.log(red(`\n⚠ SKIPPED ${n} browser tests: ${chromium} is not installed (apt-get install -y chromium). Under CI=true this is a failure.`));
     timings.push(`${label} skipped`);
     continue;
   }
@@ -89,7 +117,7 @@ for (const [label, cmd, args] of steps) {
     process.exit(status);
   }
 }
-const closing = `npm test: ${notRun ? "every step that ran passed (browser tests SKIPPED)" : "all steps passed"} in ${secs(Date.now() - started)} [${timings.join(", ")}] (root ${root})`;
+const closing = `npm test: ${notRun ? "every step that ran passed (some tests SKIPPED)" : "all steps passed"} in ${secs(Date.now() - started)} [${timings.join(", ")}] (root ${root})`;
 console.log(`\n${notRun ? red(closing) : closing}`);
 console.log(`tests: ${counts()}`);
 rmSync(reports, { recursive: true, force: true });

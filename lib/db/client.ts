@@ -1,7 +1,22 @@
 import "server-only";
 import path from "node:path";
 import { PrismaBetterSQLite3 } from "@prisma/adapter-better-sqlite3";
+import { PrismaPg } from "@prisma/adapter-pg";
 import { PrismaClient } from "./generated/client";
+import { PrismaClient as PgPrismaClient } from "./generated-pg/client";
+
+// Two providers, one data model (prisma/models.prisma): DATABASE_URL=postgresql://… selects
+// PostgreSQL through the pg driver adapter; anything else is the embedded SQLite file. The two
+// generated clients have the same models and methods; the SQLite one serves as the type.
+//
+// Isolation: SQLite runs one writer at a time (transactions begin IMMEDIATE, see below), so every
+// transaction is serializable. PostgreSQL's default, Read Committed, would let two transactions
+// each read and then write on stale reads (two first sign-ups both becoming admin, two demotions
+// leaving no admin), so interactive transactions run at Serializable there, and a transaction
+// that loses a serialization conflict (SQLSTATE 40001, Prisma P2034) or a deadlock is run again
+// from the start, a few times with a short random pause. Revision saves additionally claim the
+// head row with a conditional UPDATE, which is exact at any isolation level: the second of two
+// racing saves from one base updates nothing and becomes a 409.
 
 export type Db = PrismaClient;
 /** The client handed to a `$transaction` callback. */
@@ -9,6 +24,18 @@ export type Tx = Parameters<Parameters<PrismaClient["$transaction"]>[0]>[0];
 
 /** Milliseconds a connection waits for another writer before giving up (SQLite busy_timeout). */
 export const BUSY_TIMEOUT_MS = 5000;
+
+export type DbProvider = "sqlite" | "postgres";
+
+/** "postgres" for a postgresql:// or postgres:// URL, else "sqlite". */
+export function providerOf(url: string): DbProvider {
+  return /^postgres(ql)?:\/\//i.test(url) ? "postgres" : "sqlite";
+}
+
+/** The provider this process uses (from DATABASE_URL). */
+export function dbProvider(env: NodeJS.ProcessEnv = process.env): DbProvider {
+  return providerOf(databaseUrl(env));
+}
 
 /**
  * Resolves the database URL: DATABASE_URL if set, else `file:` + ARMSIFT_DB
@@ -93,8 +120,47 @@ class ArmsiftSqliteAdapter extends PrismaBetterSQLite3 {
   }
 }
 
-/** Creates a client for the given SQLite URL (`file:<path>`). The app uses the shared one from `db()`. */
+/** Attempts of a PostgreSQL transaction that keeps losing serialization conflicts. */
+export const SERIALIZATION_ATTEMPTS = 8;
+
+const isRetryable = (err: unknown): boolean => {
+  const e = err as { code?: unknown; meta?: { driverAdapterError?: { cause?: { originalCode?: unknown } } } } | null;
+  const original = e?.meta?.driverAdapterError?.cause?.originalCode;
+  return e?.code === "P2034" || original === "40001" || original === "40P01";
+};
+
+/** Connections per process to PostgreSQL (pg's default); count them against max_connections. */
+export const PG_POOL_SIZE = 10;
+
+function createPgDb(url: string): Db {
+  const adapter = new PrismaPg({ connectionString: url, max: PG_POOL_SIZE });
+  const client = new PgPrismaClient({
+    adapter,
+    transactionOptions: { maxWait: 10_000, timeout: 20_000, isolationLevel: "Serializable" },
+  }) as unknown as Db;
+  const transaction = client.$transaction.bind(client) as (arg: unknown, opts?: unknown) => Promise<unknown>;
+  const retrying = async (arg: unknown, opts?: unknown): Promise<unknown> => {
+    // A batch (array of queries) runs once; a callback is run again after a lost conflict.
+    if (typeof arg !== "function") return transaction(arg, opts);
+    for (let attempt = 1; ; attempt++) {
+      try {
+        return await transaction(arg, opts);
+      } catch (err) {
+        if (attempt >= SERIALIZATION_ATTEMPTS || !isRetryable(err)) throw err;
+        await new Promise((r) => setTimeout(r, Math.random() * 10 * 2 ** attempt));
+      }
+    }
+  };
+  (client as unknown as { $transaction: typeof retrying }).$transaction = retrying;
+  return client;
+}
+
+/**
+ * Creates a client for a database URL: `file:<path>` (SQLite) or `postgresql://…`.
+ * The app uses the shared one from `db()`.
+ */
 export function createDb(url: string = databaseUrl()): Db {
+  if (providerOf(url) === "postgres") return createPgDb(url);
   const adapter = new ArmsiftSqliteAdapter({ url, timeout: BUSY_TIMEOUT_MS });
   // Interactive transactions queue on the adapter's single connection: allow for waiting.
   return new PrismaClient({ adapter, transactionOptions: { maxWait: 10_000, timeout: 20_000 } });
@@ -104,7 +170,7 @@ const globalCache = globalThis as unknown as { __armsiftDb?: Db };
 let instance: Db | undefined;
 
 /**
- * The one client of this process, created on first use from ARMSIFT_DB / DATABASE_URL.
+ * The one client of this process, created on first use from DATABASE_URL / ARMSIFT_DB.
  * In development it is cached on globalThis so hot reloads do not open new connections.
  */
 export function db(): Db {
@@ -117,6 +183,11 @@ export function db(): Db {
 }
 
 /** Closes this process's client (scripts call it before they exit). */
+/** Round trip to the database (health check); throws when it does not answer. */
+export async function pingDatabase(): Promise<void> {
+  await db().$queryRawUnsafe("SELECT 1");
+}
+
 export async function disconnectDb(): Promise<void> {
   await db().$disconnect();
 }

@@ -5,7 +5,7 @@ import { armSchema, requirementSetSchema, type ArmDocument, type ArmSpecs, type 
 import type { CreateShortlistInput } from "@/shared/schemas/shortlists";
 import { analysisKey } from "@/lib/analysis/key";
 import { ANALYSIS_VERSION, type ArmAnalysis, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
-import { db } from "./client";
+import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
 import { readStoredDocument, userRef, type UserRef } from "./documents";
@@ -13,8 +13,21 @@ import { listArms, type ArmSummary } from "./arms";
 import { listRequirementSets, type RequirementSummary } from "./requirements";
 import { unreadCounts, type UnreadCount } from "./comments";
 
-/** A running analysis that has not reported progress for this long is taken as dead. */
+/**
+ * A run analysed by a web server's own runner that has not reported progress for this long is
+ * taken as dead (its server stopped; a restarted server also fails such runs at once). Runs on
+ * the queue are never failed for silence: the queue gives a dead worker's job to another worker.
+ */
 export const STALE_RUN_MS = 2 * 60 * 1000;
+
+/** Prefix of the runner name of runs analysed inside a web server ("local:<host>:<pid>"). */
+export const LOCAL_RUNNER_PREFIX = "local:";
+
+/**
+ * Called inside the transaction that stores a new queued run, so the run and its queue job are
+ * committed together (or neither is).
+ */
+export type EnqueueInTx = (tx: Tx, runId: string) => Promise<void>;
 
 /** The revisions a shortlist (or one of its runs) is pinned to. */
 export interface Pins {
@@ -27,7 +40,7 @@ const pinsSchema = z.object({
   arms: z.array(z.object({ armId: z.string(), revision: z.number().int() })),
 });
 
-export type RunStatus = "queued" | "running" | "done" | "failed";
+export type RunStatus = "queued" | "running" | "done" | "failed" | "cancelled";
 
 /** One analysis run without its result. */
 export interface RunInfo {
@@ -44,6 +57,10 @@ export interface RunInfo {
   startedAt: Date | null;
   finishedAt: Date | null;
   reusedFromId: string | null;
+  /** Claims of the run so far (a queue job taken over after its worker died counts again). */
+  attempt: number;
+  /** For a queued run: its place in the queue of all queued runs (1 = next), else null. */
+  queuePosition: number | null;
 }
 
 /** A pinned item next to the current revision of what it pins. */
@@ -78,10 +95,14 @@ export interface ShortlistSummary {
   latestRun: { id: string; status: RunStatus; finishedAt: Date | null } | null;
 }
 
-function toRunInfo(r: {
+
+type RunRow = {
   id: string; shortlistId: string; key: string; analysisVersion: string; status: string; progress: number; stage: string | null;
   error: string | null; pins: string | null; createdAt: Date; startedAt: Date | null; finishedAt: Date | null; reusedFromId: string | null;
-}): RunInfo {
+  attempt: number;
+};
+
+function toRunInfo(r: RunRow, queuePosition: number | null = null): RunInfo {
   let pins: Pins | null = null;
   if (r.pins) {
     const p = pinsSchema.safeParse(JSON.parse(r.pins));
@@ -90,17 +111,37 @@ function toRunInfo(r: {
   return {
     id: r.id, shortlistId: r.shortlistId, key: r.key, analysisVersion: r.analysisVersion, status: r.status as RunStatus,
     progress: r.progress, stage: r.stage, error: r.error, pins, createdAt: r.createdAt, startedAt: r.startedAt,
-    finishedAt: r.finishedAt, reusedFromId: r.reusedFromId,
+    finishedAt: r.finishedAt, reusedFromId: r.reusedFromId, attempt: r.attempt,
+    queuePosition: r.status === "queued" ? queuePosition : null,
   };
 }
 
 const runSelect = {
   id: true, shortlistId: true, key: true, analysisVersion: true, status: true, progress: true, stage: true, error: true,
-  pins: true, createdAt: true, startedAt: true, finishedAt: true, reusedFromId: true,
+  pins: true, createdAt: true, startedAt: true, finishedAt: true, reusedFromId: true, attempt: true,
 } as const;
 
-/** Creates a shortlist pinned to the current revisions of the requirement set and the arms. */
-export async function createShortlist(userId: string | null, body: CreateShortlistInput): Promise<{ id: string; pins: Pins }> {
+/** Place in the queue of a queued run: queued runs are taken oldest first (then by id). */
+async function queuePosition(c: Tx, r: { id: string; createdAt: Date }): Promise<number> {
+  const ahead = await c.analysisRun.count({
+    where: { status: "queued", OR: [{ createdAt: { lt: r.createdAt } }, { createdAt: r.createdAt, id: { lt: r.id } }] },
+  });
+  return ahead + 1;
+}
+
+async function withPosition(c: Tx, r: RunRow): Promise<RunInfo> {
+  return toRunInfo(r, r.status === "queued" ? await queuePosition(c, r) : null);
+}
+
+/**
+ * Creates a shortlist pinned to the current revisions of the requirement set and the arms, and in
+ * the same transaction its first analysis run (so no shortlist is ever left without one).
+ */
+export async function createShortlist(
+  userId: string | null,
+  body: CreateShortlistInput,
+  opts: { enqueue?: EnqueueInTx } = {},
+): Promise<{ id: string; pins: Pins; run: RunInfo; cached: boolean; needsStart: boolean }> {
   const id = randomUUID();
   return db().$transaction(async (tx) => {
     const set = await tx.requirementSet.findUnique({ where: { id: body.requirementSetId } });
@@ -118,7 +159,9 @@ export async function createShortlist(userId: string | null, body: CreateShortli
       data: pins.arms.map((p, position) => ({ shortlistId: id, armId: p.armId, armRevision: p.revision, position })),
     });
     await recordAudit(tx, { actorId: userId, action: "shortlist.create", entityType: "shortlist", entityId: id, detail: pins });
-    return { id, pins };
+    const inputs = await loadPinnedInputs(pins, tx);
+    const first = await newRun(tx, id, pins, analysisKey(inputs.arms, inputs.requirementSet), opts.enqueue);
+    return { id, pins, ...first };
   });
 }
 
@@ -226,12 +269,12 @@ export async function repinShortlist(userId: string | null, id: string): Promise
 }
 
 /** Loads the pinned documents: the analysis input. */
-export async function loadPinnedInputs(pins: Pins): Promise<{ arms: ShortlistArm[]; requirementSet: RequirementSet }> {
-  const req = await db().requirementRevision.findUnique({ where: { setId_revision: { setId: pins.requirement.setId, revision: pins.requirement.revision } } });
+export async function loadPinnedInputs(pins: Pins, c: Tx = db()): Promise<{ arms: ShortlistArm[]; requirementSet: RequirementSet }> {
+  const req = await c.requirementRevision.findUnique({ where: { setId_revision: { setId: pins.requirement.setId, revision: pins.requirement.revision } } });
   if (!req) throw new NotFoundError(`requirement set ${pins.requirement.setId} has no revision ${pins.requirement.revision}`);
   const requirementSet = readStoredDocument(requirementSetSchema, req.document, `requirement set ${pins.requirement.setId} revision ${pins.requirement.revision}`);
   const revs = pins.arms.length
-    ? await db().armRevision.findMany({ where: { OR: pins.arms.map((a) => ({ armId: a.armId, revision: a.revision })) } })
+    ? await c.armRevision.findMany({ where: { OR: pins.arms.map((a) => ({ armId: a.armId, revision: a.revision })) } })
     : [];
   const byKey = new Map(revs.map((r) => [`${r.armId}@${r.revision}`, r]));
   const arms = pins.arms.map((p): ShortlistArm => {
@@ -244,52 +287,64 @@ export async function loadPinnedInputs(pins: Pins): Promise<{ arms: ShortlistArm
 }
 
 /**
+ * A new run of the pins in the transaction: a `done` copy of a finished run with the same key
+ * (analysis version + content hash: a cache hit), else a `queued` run handed to `enqueue`.
+ */
+async function newRun(tx: Tx, shortlistId: string, pins: Pins, key: string, enqueue?: EnqueueInTx): Promise<{ run: RunInfo; cached: boolean; needsStart: boolean }> {
+  const now = new Date();
+  const done = await tx.analysisRun.findFirst({ where: { key, status: "done", reusedFromId: null }, orderBy: { finishedAt: "desc" }, select: { id: true, resultJson: true } });
+  const id = randomUUID();
+  if (done) {
+    const row = await tx.analysisRun.create({
+      data: {
+        id, shortlistId, key, analysisVersion: ANALYSIS_VERSION, status: "done", progress: 1, stage: "reused an earlier result with the same inputs",
+        resultJson: done.resultJson, pins: JSON.stringify(pins), createdAt: now, startedAt: now, finishedAt: now, reusedFromId: done.id,
+      },
+      select: runSelect,
+    });
+    return { run: toRunInfo(row), cached: true, needsStart: false };
+  }
+  const row = await tx.analysisRun.create({
+    data: { id, shortlistId, key, analysisVersion: ANALYSIS_VERSION, status: "queued", progress: 0, stage: "queued", pins: JSON.stringify(pins), createdAt: now, heartbeatAt: now },
+    select: runSelect,
+  });
+  await enqueue?.(tx, id);
+  return { run: await withPosition(tx, row), cached: false, needsStart: true };
+}
+
+/**
  * Asks for an analysis of the shortlist's current pins. Returns, in this order of preference:
- * - this shortlist's unfinished run with the same key (not stale): nothing new starts;
+ * - this shortlist's unfinished run with the same key: nothing new starts;
  * - a finished run with the same key (analysis version + content hash): a `done` row is made for
  *   this shortlist that reuses the result (cache hit), unless the latest run of this shortlist is it;
- * - otherwise a new `queued` run, which the caller must start (`needsStart`).
+ * - otherwise a new `queued` run, handed to `enqueue` in the same transaction; the caller starts
+ *   it after the commit when it is not on a queue (`needsStart`).
  */
-export async function requestAnalysisRun(shortlistId: string): Promise<{ run: RunInfo; cached: boolean; needsStart: boolean }> {
+export async function requestAnalysisRun(shortlistId: string, opts: { enqueue?: EnqueueInTx } = {}): Promise<{ run: RunInfo; cached: boolean; needsStart: boolean }> {
   await failStaleRuns(shortlistId);
   const pins = await getPins(shortlistId);
   if (!pins) throw new NotFoundError(`shortlist ${shortlistId} does not exist`);
   const inputs = await loadPinnedInputs(pins);
   const key = analysisKey(inputs.arms, inputs.requirementSet);
-  const client = db();
-  return client.$transaction(async (tx) => {
+  return db().$transaction(async (tx) => {
     const own = await tx.analysisRun.findFirst({ where: { shortlistId, key }, orderBy: { createdAt: "desc" }, select: runSelect });
     if (own && (own.status === "queued" || own.status === "running" || own.status === "done")) {
       const latest = await tx.analysisRun.findFirst({ where: { shortlistId }, orderBy: [{ createdAt: "desc" }, { id: "desc" }], select: { id: true } });
-      if (own.status !== "done" || latest?.id === own.id) return { run: toRunInfo(own), cached: own.status === "done", needsStart: false };
+      if (own.status !== "done" || latest?.id === own.id) return { run: await withPosition(tx, own), cached: own.status === "done", needsStart: false };
     }
-    const now = new Date();
-    const done = await tx.analysisRun.findFirst({ where: { key, status: "done", reusedFromId: null }, orderBy: { finishedAt: "desc" }, select: { id: true, resultJson: true } });
-    const id = randomUUID();
-    if (done) {
-      const row = await tx.analysisRun.create({
-        data: {
-          id, shortlistId, key, analysisVersion: ANALYSIS_VERSION, status: "done", progress: 1, stage: "reused an earlier result with the same inputs",
-          resultJson: done.resultJson, pins: JSON.stringify(pins), createdAt: now, startedAt: now, finishedAt: now, reusedFromId: done.id,
-        },
-        select: runSelect,
-      });
-      return { run: toRunInfo(row), cached: true, needsStart: false };
-    }
-    const row = await tx.analysisRun.create({
-      data: { id, shortlistId, key, analysisVersion: ANALYSIS_VERSION, status: "queued", progress: 0, stage: "queued", pins: JSON.stringify(pins), createdAt: now, heartbeatAt: now },
-      select: runSelect,
-    });
-    return { run: toRunInfo(row), cached: false, needsStart: true };
+    return newRun(tx, shortlistId, pins, key, opts.enqueue);
   });
 }
 
-/** Marks queued or running runs without a sign of life for STALE_RUN_MS as failed. */
+/** Marks runs of a web server's runner without a sign of life for STALE_RUN_MS as failed. */
 export async function failStaleRuns(shortlistId?: string, now: Date = new Date()): Promise<number> {
   const cutoff = new Date(now.getTime() - STALE_RUN_MS);
   const r = await db().analysisRun.updateMany({
-    where: { ...(shortlistId ? { shortlistId } : {}), status: { in: ["queued", "running"] }, OR: [{ heartbeatAt: { lt: cutoff } }, { heartbeatAt: null, createdAt: { lt: cutoff } }] },
-    data: { status: "failed", error: `the analysis process stopped reporting progress for more than ${STALE_RUN_MS / 60000} minutes and was given up`, finishedAt: now },
+    where: {
+      ...(shortlistId ? { shortlistId } : {}), status: "running", runner: { startsWith: LOCAL_RUNNER_PREFIX },
+      OR: [{ heartbeatAt: { lt: cutoff } }, { heartbeatAt: null, createdAt: { lt: cutoff } }],
+    },
+    data: { status: "failed", error: `the analysis stopped reporting progress for more than ${STALE_RUN_MS / 60000} minutes and was given up`, finishedAt: now },
   });
   return r.count;
 }
@@ -298,17 +353,17 @@ export async function failStaleRuns(shortlistId?: string, now: Date = new Date()
 export async function getRun(runId: string): Promise<RunInfo | null> {
   const row = await db().analysisRun.findUnique({ where: { id: runId }, select: runSelect });
   if (!row) return null;
-  if (row.status === "queued" || row.status === "running") {
+  if (row.status === "running") {
     if (await failStaleRuns(row.shortlistId)) return getRun(runId);
   }
-  return toRunInfo(row);
+  return withPosition(db(), row);
 }
 
 /** Runs of a shortlist, newest first (stale ones failed first). */
 export async function listRuns(shortlistId: string): Promise<RunInfo[]> {
   await failStaleRuns(shortlistId);
   const rows = await db().analysisRun.findMany({ where: { shortlistId }, orderBy: [{ createdAt: "desc" }, { id: "desc" }], select: runSelect });
-  return rows.map(toRunInfo);
+  return Promise.all(rows.map((r) => withPosition(db(), r)));
 }
 
 /** Results of finished runs are immutable: keep the parsed form of the most recent few in memory. */
@@ -358,34 +413,111 @@ export async function getRunArmView(shortlistId: string, runId: string, armId: s
   return { runId, armId, revision: pin.revision, arm: inputs.arms[0].arm, requirementSet: inputs.requirementSet, analysis };
 }
 
-/** queued → running; false when someone else took it or it is no longer queued. */
-export async function claimRun(runId: string): Promise<boolean> {
+/**
+ * Claims a run for one attempt: queued → running with the attempt count raised by one; with
+ * `takeOver` also a running run (its queue job came back after the worker running it died).
+ * Returns the attempt number that owns the run now, or null when it is finished, cancelled or
+ * claimed by someone else meanwhile. Every later write names the attempt, so the writes of an
+ * earlier attempt that is still alive somewhere change nothing.
+ */
+export async function claimRun(runId: string, runner: string, opts: { takeOver?: boolean } = {}): Promise<number | null> {
+  const row = await db().analysisRun.findUnique({ where: { id: runId }, select: { status: true, attempt: true } });
+  if (!row || !(row.status === "queued" || (opts.takeOver && row.status === "running"))) return null;
   const now = new Date();
-  const r = await db().analysisRun.updateMany({ where: { id: runId, status: "queued" }, data: { status: "running", startedAt: now, heartbeatAt: now, stage: "starting" } });
+  const r = await db().analysisRun.updateMany({
+    where: { id: runId, attempt: row.attempt, status: row.status },
+    data: { status: "running", attempt: row.attempt + 1, runner, startedAt: now, heartbeatAt: now, progress: 0, stage: "starting", error: null },
+  });
+  return r.count === 1 ? row.attempt + 1 : null;
+}
+
+/** Progress of the current attempt; false when the run is no longer this attempt's (cancelled, failed, taken over). */
+export async function reportRunProgress(runId: string, attempt: number, progress: number, stage: string): Promise<boolean> {
+  const r = await db().analysisRun.updateMany({
+    where: { id: runId, status: "running", attempt },
+    data: { progress: Math.min(1, Math.max(0, progress)), stage: stage.slice(0, 300), heartbeatAt: new Date() },
+  });
   return r.count === 1;
 }
 
-export async function reportRunProgress(runId: string, progress: number, stage: string): Promise<void> {
-  await db().analysisRun.updateMany({
-    where: { id: runId, status: "running" },
-    data: { progress: Math.min(1, Math.max(0, progress)), stage, heartbeatAt: new Date() },
-  });
-}
-
-export async function finishRun(runId: string, result: ShortlistAnalysis): Promise<void> {
+/** Stores the result of the current attempt; false (nothing stored) when the run is no longer its own. */
+export async function finishRun(runId: string, attempt: number, result: ShortlistAnalysis): Promise<boolean> {
   const now = new Date();
-  await db().analysisRun.updateMany({
-    where: { id: runId, status: "running" },
+  const r = await db().analysisRun.updateMany({
+    where: { id: runId, status: "running", attempt },
     data: { status: "done", progress: 1, stage: "done", resultJson: JSON.stringify(result), finishedAt: now, heartbeatAt: now },
   });
+  return r.count === 1;
 }
 
-export async function failRun(runId: string, message: string): Promise<void> {
+/** Fails an unfinished run (only the given attempt's, when one is named). */
+export async function failRun(runId: string, message: string, attempt?: number): Promise<boolean> {
   const now = new Date();
-  await db().analysisRun.updateMany({
-    where: { id: runId, status: { in: ["queued", "running"] } },
+  const r = await db().analysisRun.updateMany({
+    where: { id: runId, status: { in: ["queued", "running"] }, ...(attempt !== undefined ? { attempt } : {}) },
     data: { status: "failed", error: message.slice(0, 2000), finishedAt: now, heartbeatAt: now },
   });
+  return r.count === 1;
+}
+
+/** Puts the current attempt's run back in the queue (it will be tried again), with a note. */
+export async function requeueRun(runId: string, attempt: number, note: string): Promise<boolean> {
+  const r = await db().analysisRun.updateMany({
+    where: { id: runId, status: "running", attempt },
+    data: { status: "queued", progress: 0, stage: note.slice(0, 300), heartbeatAt: new Date() },
+  });
+  return r.count === 1;
+}
+
+/**
+ * Cancels a queued or running run: its runner stops it at the next progress report. Returns the
+ * run afterwards (unchanged when it had already finished), or null when it does not exist.
+ */
+export async function cancelRun(userId: string | null, runId: string): Promise<RunInfo | null> {
+  const now = new Date();
+  const user = userId ? await db().user.findUnique({ where: { id: userId }, select: { name: true } }) : null;
+  const r = await db().analysisRun.updateMany({
+    where: { id: runId, status: { in: ["queued", "running"] } },
+    data: { status: "cancelled", error: `cancelled${user ? ` by ${user.name}` : ""}`, finishedAt: now, heartbeatAt: now },
+  });
+  if (r.count === 1) {
+    const row = await db().analysisRun.findUniqueOrThrow({ where: { id: runId }, select: { shortlistId: true } });
+    await recordAudit(db(), { actorId: userId, action: "shortlist.run.cancel", entityType: "shortlist", entityId: row.shortlistId, detail: { runId } });
+  }
+  return getRun(runId);
+}
+
+/** Ids of the queued runs, oldest first (the order they are taken in). */
+export async function listQueuedRunIds(): Promise<string[]> {
+  const rows = await db().analysisRun.findMany({ where: { status: "queued" }, orderBy: [{ createdAt: "asc" }, { id: "asc" }], select: { id: true } });
+  return rows.map((r) => r.id);
+}
+
+/** Ids of the queued and running runs. */
+export async function listUnfinishedRunIds(): Promise<string[]> {
+  const rows = await db().analysisRun.findMany({ where: { status: { in: ["queued", "running"] } }, select: { id: true } });
+  return rows.map((r) => r.id);
+}
+
+/** Runner names of the running runs whose runner name starts with `prefix`. */
+export async function listRunners(prefix: string): Promise<string[]> {
+  const rows = await db().analysisRun.findMany({ where: { status: "running", runner: { startsWith: prefix } }, distinct: ["runner"], select: { runner: true } });
+  return rows.map((r) => r.runner!).filter(Boolean);
+}
+
+/** Fails every running run of one runner (its process is gone). */
+export async function failRunsOfRunner(runner: string, message: string): Promise<number> {
+  const now = new Date();
+  const r = await db().analysisRun.updateMany({ where: { status: "running", runner }, data: { status: "failed", error: message, finishedAt: now, heartbeatAt: now } });
+  return r.count;
+}
+
+/** Counts of runs by state (health and admin page). */
+export async function countRunsByStatus(): Promise<Record<RunStatus, number>> {
+  const groups = await db().analysisRun.groupBy({ by: ["status"], _count: { _all: true } });
+  const out: Record<RunStatus, number> = { queued: 0, running: 0, done: 0, failed: 0, cancelled: 0 };
+  for (const g of groups) if (g.status in out) out[g.status as RunStatus] = g._count._all;
+  return out;
 }
 
 /**

@@ -17,10 +17,14 @@ beforeAll(() => {
 afterAll(async () => t.cleanup());
 
 describe("accounts over the API", () => {
-  it("answers the health check", async () => {
-    const res = health.GET();
-    expect(res.status).toBe(200);
-    expect(await res.json()).toEqual({ ok: true });
+  it("answers the health check: the database, the runner and the runs", async () => {
+    const r = await call(health.GET, "/api/health", { method: "GET" });
+    expect(r.status).toBe(200);
+    expect(r.body).toMatchObject({ ok: true, database: { provider: t.provider, ok: true }, runs: { queued: 0, running: 0, done: 0, failed: 0, cancelled: 0 } });
+    expect(r.body.database.latencyMs).toBeGreaterThanOrEqual(0);
+    // SQLite: the web server's own runner; PostgreSQL: the queue and its workers (none here).
+    if (t.provider === "sqlite") expect(r.body.runner).toMatchObject({ kind: "local", running: 0, waiting: 0 });
+    else expect(r.body.runner).toEqual({ kind: "queue", depth: { waiting: 0, active: 0, failed: 0 }, liveWorkers: 0 });
   });
 
   it("signs up (first admin, then viewer), signs in, reads /me and signs out", async () => {

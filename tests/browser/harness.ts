@@ -44,6 +44,7 @@ function freePort(): Promise<number> {
 
 /** Builds the production server when it is missing or older than the sources (`npm test` builds first). */
 export function ensureBuild(): void {
+  run(process.execPath, [path.join(ROOT, "scripts", "build-jobs.mjs")], process.env, "build the analysis programs");
   if (!buildIsStale(ROOT)) return;
   // A production build takes minutes on a loaded machine: allow 15. The browser project builds
   // once in its global set-up (tests/browser/global-setup.ts), outside any hook's time limit.
@@ -79,7 +80,7 @@ export async function startHarness(): Promise<Harness> {
   const dbPath = path.join(dir, "armsift.db");
   const env: NodeJS.ProcessEnv = { ...process.env, ARMSIFT_DB: dbPath, DATABASE_URL: `file:${dbPath}`, NEXT_TELEMETRY_DISABLED: "1" };
   run(process.execPath, [path.join(ROOT, "scripts", "prisma.mjs"), "migrate", "deploy"], env, "migrate deploy");
-  run(path.join(ROOT, "node_modules", ".bin", "tsx"), ["--conditions=react-server", path.join(ROOT, "scripts", "seed.ts")], env, "seed");
+  run(process.execPath, [path.join(ROOT, "dist", "jobs", "seed.mjs")], env, "seed");
 
   const port = await freePort();
   const logPath = path.join(dir, "server.log");

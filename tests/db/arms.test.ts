@@ -56,8 +56,8 @@ describe("arm revisions", () => {
     const rev = await t.client.armRevision.findUniqueOrThrow({ where: { armId_revision: { armId: id, revision: 1 } } });
     await expect(t.client.armRevision.update({ where: { id: rev.id }, data: { summary: "edited" } })).rejects.toThrow();
     await expect(t.client.armRevision.delete({ where: { id: rev.id } })).rejects.toThrow();
-    await expect(t.client.$executeRawUnsafe(`UPDATE "ArmRevision" SET "document" = '{}' WHERE "id" = ?`, rev.id)).rejects.toThrow(/immutable/);
-    await expect(t.client.$executeRawUnsafe(`DELETE FROM "ArmRevision" WHERE "armId" = ?`, id)).rejects.toThrow(/immutable/);
+    await expect(t.client.$executeRaw`UPDATE "ArmRevision" SET "document" = '{}' WHERE "id" = ${rev.id}`).rejects.toThrow(/immutable/);
+    await expect(t.client.$executeRaw`DELETE FROM "ArmRevision" WHERE "armId" = ${id}`).rejects.toThrow(/immutable/);
     const after = await t.client.armRevision.findUniqueOrThrow({ where: { id: rev.id } });
     expect(after).toEqual(rev);
   });

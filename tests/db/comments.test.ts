@@ -66,8 +66,8 @@ describe("discussion", () => {
     expect(stale).toMatchObject({ baseRevision: 1, currentRevision: 2, changes: [{ path: "body", base: "first", current: "second" }] });
     await editComment(bob, c.id, { body: "third" });
     expect((await listCommentRevisions(c.id))!.map((r) => [r.revision, r.body])).toEqual([[1, "first"], [2, "second"], [3, "third"]]);
-    await expect(t.client.$executeRawUnsafe(`UPDATE CommentRevision SET body = 'x' WHERE commentId = '${c.id}'`)).rejects.toThrow(/immutable/);
-    await expect(t.client.$executeRawUnsafe(`DELETE FROM CommentRevision WHERE commentId = '${c.id}'`)).rejects.toThrow(/immutable/);
+    await expect(t.client.$executeRaw`UPDATE "CommentRevision" SET "body" = 'x' WHERE "commentId" = ${c.id}`).rejects.toThrow(/immutable/);
+    await expect(t.client.$executeRaw`DELETE FROM "CommentRevision" WHERE "commentId" = ${c.id}`).rejects.toThrow(/immutable/);
     await deleteComment(bob, c.id);
     expect((await listCommentThreads(shortlistId)).some((x) => x.id === c.id)).toBe(false);
     expect((await listCommentRevisions(c.id))!.length).toBe(3);
@@ -145,9 +145,13 @@ describe("discussion", () => {
   it("posts reliably while another process writes to the database (the analysis runner does)", async () => {
     // A second process commits writes back to back (the analysis runner writes progress while it
     // runs). A deferred transaction that read before such a commit could not write after it.
-    const script = `const D = require("better-sqlite3"); const d = new D(${JSON.stringify(t.file)}); d.pragma("busy_timeout = 5000");
+    const script = t.provider === "sqlite"
+      ? `const D = require("better-sqlite3"); const d = new D(${JSON.stringify(t.file)}); d.pragma("busy_timeout = 5000");
       const s = new Int32Array(new SharedArrayBuffer(4)); process.stdout.write("ready\\n");
-      for (;;) { d.prepare("UPDATE Shortlist SET updatedAt = updatedAt").run(); Atomics.wait(s, 0, 0, 0); }`;
+      for (;;) { d.prepare("UPDATE Shortlist SET updatedAt = updatedAt").run(); Atomics.wait(s, 0, 0, 0); }`
+      : `const { Client } = require("pg"); const c = new Client({ connectionString: ${JSON.stringify(t.url)} });
+      (async () => { await c.connect(); process.stdout.write("ready\\n");
+        for (;;) await c.query('UPDATE "Shortlist" SET "updatedAt" = "updatedAt"'); })();`;
     const writer = spawn(process.execPath, ["-e", script], { cwd: process.cwd(), stdio: ["ignore", "pipe", "inherit"] });
     try {
       await new Promise<void>((resolve, reject) => {

@@ -2,14 +2,23 @@ import { execFileSync } from "node:child_process";
 import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { createDb, type Db } from "@/lib/db/client";
+import { createDb, db, type Db, type DbProvider } from "@/lib/db/client";
 import { armSchema, requirementSetSchema, type ArmDocument, type RequirementSet } from "@/shared/schemas";
+import { createDatabase } from "../helpers/postgres";
 
 const root = path.resolve(__dirname, "..", "..");
 
+/**
+ * The provider the database suites run on: SQLite, or PostgreSQL in the `db-pg` test project
+ * (ARMSIFT_TEST_PROVIDER=postgres), which runs the same files against a real server.
+ */
+export const testProvider: DbProvider = process.env.ARMSIFT_TEST_PROVIDER === "postgres" ? "postgres" : "sqlite";
+
 export interface TestDb {
-  /** `file:` URL of the temporary database. */
+  provider: DbProvider;
+  /** URL of the temporary database (`file:…` or `postgresql://…`). */
   url: string;
+  /** The SQLite file (empty on PostgreSQL). */
   file: string;
   /** A client of its own (the code under test uses the shared one from `db()`, same file). */
   client: Db;
@@ -17,11 +26,29 @@ export interface TestDb {
 }
 
 /**
- * Creates a temporary SQLite file, applies the real migrations with `prisma migrate deploy`, and
- * points ARMSIFT_DB/DATABASE_URL at it so the shared client of lib/db opens it on first use.
+ * Creates a temporary database with the real migrations applied (SQLite: a file migrated with
+ * `prisma migrate deploy`; PostgreSQL: a copy of the migrated template database) and points
+ * DATABASE_URL (and ARMSIFT_DB) at it so the shared client of lib/db opens it on first use.
  * Call once per test file, before anything touches the database.
  */
 export function createTestDb(): TestDb {
+  if (testProvider === "postgres") {
+    const pg = createDatabase();
+    process.env.DATABASE_URL = pg.url;
+    delete process.env.ARMSIFT_DB;
+    const client = createDb(pg.url);
+    return {
+      provider: "postgres",
+      url: pg.url,
+      file: "",
+      client,
+      async cleanup() {
+        await client.$disconnect();
+        await db().$disconnect();
+        pg.drop();
+      },
+    };
+  }
   const dir = mkdtempSync(path.join(os.tmpdir(), "armsift-test-"));
   const file = path.join(dir, "test.db");
   const url = `file:${file}`;
@@ -34,6 +61,7 @@ export function createTestDb(): TestDb {
   process.env.ARMSIFT_DB = file;
   const client = createDb(url);
   return {
+    provider: "sqlite",
     url,
     file,
     client,

@@ -44,7 +44,7 @@ describe("requirement sets", () => {
 
   it("refuses UPDATE and DELETE on requirement revision rows (database triggers)", async () => {
     const { id } = await createRequirementSet(null, requirementDoc());
-    await expect(t.client.$executeRawUnsafe(`UPDATE "RequirementRevision" SET "summary" = 'x' WHERE "setId" = ?`, id)).rejects.toThrow(/immutable/);
+    await expect(t.client.$executeRaw`UPDATE "RequirementRevision" SET "summary" = 'x' WHERE "setId" = ${id}`).rejects.toThrow(/immutable/);
     await expect(t.client.requirementRevision.deleteMany({ where: { setId: id } })).rejects.toThrow();
     expect(await t.client.requirementRevision.count({ where: { setId: id } })).toBe(1);
   });

@@ -7,7 +7,6 @@ import { createRequirementSet } from "@/lib/db/requirements";
 import { ValidationError } from "@/lib/db/errors";
 import { toFieldErrors } from "@/shared/schemas";
 import { createShortlistInput } from "@/shared/schemas/shortlists";
-import { sqliteDateTime } from "@/lib/db/analysis-progress";
 import {
   createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, loadPinnedInputs, repinShortlist, requestAnalysisRun, STALE_RUN_MS,
 } from "@/lib/db/shortlists";
@@ -39,11 +38,11 @@ describe("shortlists and analysis runs", () => {
   });
 
   it("pins revisions, analyses out of band, reuses a finished run with the same key, and keeps old results after a re-pin", async () => {
-    const { id, pins } = await createShortlist(null, { name: "Pick and place", requirementSetId: setId, armIds: [armB, armA] });
+    // The shortlist comes with its first run, stored in the same transaction.
+    const first = await createShortlist(null, { name: "Pick and place", requirementSetId: setId, armIds: [armB, armA] });
+    const { id, pins } = first;
     expect(pins).toEqual({ requirement: { setId, revision: 1 }, arms: [{ armId: armB, revision: 1 }, { armId: armA, revision: 1 }] });
-
-    const first = await requestAnalysisRun(id);
-    expect(first).toMatchObject({ cached: false, needsStart: true, run: { status: "queued", progress: 0 } });
+    expect(first).toMatchObject({ cached: false, needsStart: true, run: { status: "queued", progress: 0, queuePosition: 1, attempt: 0 } });
     // Asking again while it is queued returns the same run.
     expect((await requestAnalysisRun(id)).run.id).toBe(first.run.id);
 
@@ -65,9 +64,8 @@ describe("shortlists and analysis runs", () => {
     expect(again).toMatchObject({ cached: true, needsStart: false, run: { id: first.run.id } });
 
     // Another shortlist with the same inputs reuses the finished result.
-    const other = await createShortlist(null, { name: "Same inputs", requirementSetId: setId, armIds: [armB, armA] });
-    const reused = await requestAnalysisRun(other.id);
-    expect(reused).toMatchObject({ cached: true, needsStart: false, run: { status: "done", reusedFromId: first.run.id } });
+    const reused = await createShortlist(null, { name: "Same inputs", requirementSetId: setId, armIds: [armB, armA] });
+    expect(reused).toMatchObject({ cached: true, needsStart: false, run: { status: "done", reusedFromId: first.run.id, queuePosition: null } });
     expect(await getRunResult(reused.run.id)).toEqual(stored);
 
     // An arm edit makes the pins stale; the shortlist says which and from which revision.
@@ -121,18 +119,21 @@ describe("shortlists and analysis runs", () => {
     }
   });
 
-  it("fails a run whose process stopped reporting, and a run whose inputs cannot be loaded", async () => {
-    const { id } = await createShortlist(null, { name: "Stale", requirementSetId: setId, armIds: [armA] });
-    const r = await requestAnalysisRun(id);
+  it("fails a web server's run that stopped reporting, and a run whose inputs cannot be loaded", async () => {
+    const r = await createShortlist(null, { name: "Stale", requirementSetId: setId, armIds: [armA] });
+    const id = r.id;
     const old = new Date(Date.now() - STALE_RUN_MS - 1000);
-    await t.client.analysisRun.update({ where: { id: r.run.id }, data: { status: "running", heartbeatAt: old } });
+    await t.client.analysisRun.update({ where: { id: r.run.id }, data: { status: "running", runner: "local:elsewhere:1", heartbeatAt: old } });
     const stale = await getRun(r.run.id);
     expect(stale!.status).toBe("failed");
     expect(stale!.error).toMatch(/stopped reporting progress/);
-    // A heartbeat inside the window keeps it alive (written in the adapter's text form).
+    // A heartbeat inside the window keeps it alive.
     const r2 = await requestAnalysisRun(id);
     expect(r2.needsStart).toBe(true);
-    await t.client.$executeRawUnsafe(`UPDATE "AnalysisRun" SET "status" = 'running', "heartbeatAt" = ? WHERE "id" = ?`, sqliteDateTime(new Date(Date.now() - 1000)), r2.run.id);
+    await t.client.analysisRun.update({ where: { id: r2.run.id }, data: { status: "running", runner: "local:elsewhere:1", heartbeatAt: new Date(Date.now() - 1000) } });
+    expect((await getRun(r2.run.id))!.status).toBe("running");
+    // A queue worker's silent run is not failed on read: the queue hands it to another worker.
+    await t.client.analysisRun.update({ where: { id: r2.run.id }, data: { runner: "worker-host:77:abc", heartbeatAt: old } });
     expect((await getRun(r2.run.id))!.status).toBe("running");
     await t.client.analysisRun.update({ where: { id: r2.run.id }, data: { status: "failed" } });
 

@@ -6,7 +6,7 @@ import { existsSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
 
 // What the production build is made of: a file here newer than the build means it is stale.
-const BUILD_INPUTS = ["app", "components", "lib", "shared", "seed-data", "prisma", "public", "next.config.mjs", "tsconfig.json", "package-lock.json"];
+const BUILD_INPUTS = ["app", "components", "lib", "shared", "seed-data", "prisma", "public", "instrumentation.ts", "next.config.mjs", "tsconfig.json", "package-lock.json"];
 
 /** Newest modification time (ms) of the files under `p` (0 when it does not exist). */
 function newestMtime(p: string): number {

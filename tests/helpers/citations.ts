@@ -106,7 +106,7 @@ export function checkCitations(files: readonly SourceFile[], exists: (repoPath: 
 /** Folders and files of the repository whose text is checked (generated code and fixtures left out). */
 const SCANNED = ["app", "components", "lib", "shared", "cli", "scripts", "bench", "seed-data", "tests", "docs", "prisma", ".ci"];
 const ROOT_FILES = ["README.md", "DEVELOPERS.md", "package.json", "eslint.config.mjs", "vitest.config.mts", "next.config.mjs", "prisma.config.ts"];
-const SKIPPED = [/^lib\/db\/generated\//, /^tests\/reference\/fixtures\//, /(^|\/)node_modules\//, /\.(png|jpe?g|gif|ico|db|sqlite|xlsx|pdf|woff2?)$/i];
+const SKIPPED = [/^lib\/db\/generated(-pg)?\//, /^dist\//, /^tests\/reference\/fixtures\//, /(^|\/)node_modules\//, /\.(png|jpe?g|gif|ico|db|sqlite|xlsx|pdf|woff2?)$/i];
 
 /** Every checked file of the repository at `root`, with its text. */
 export function repositoryFiles(root: string): SourceFile[] {

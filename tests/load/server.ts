@@ -29,6 +29,12 @@ export function tempDatabase(): TempDb {
   return { dir, file, cleanup: () => rmSync(dir, { recursive: true, force: true }) };
 }
 
+/** A folder for server logs only (for a server on a database given by URL). */
+export function logFolder(): TempDb {
+  const dir = mkdtempSync(path.join(os.tmpdir(), "armsift-server-"));
+  return { dir, file: "", cleanup: () => rmSync(dir, { recursive: true, force: true }) };
+}
+
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const srv = net.createServer();
@@ -49,15 +55,24 @@ export interface Server {
   kill(signal: NodeJS.Signals): Promise<void>;
 }
 
-/** Starts the built server on the database file; resolves when /api/health answers. */
-export async function startServer(db: TempDb): Promise<Server> {
+/**
+ * Starts the built server on the database file (or on `databaseUrl`, e.g. a PostgreSQL database,
+ * with extra `env`); resolves when /api/health answers.
+ */
+export async function startServer(db: TempDb, opts: { databaseUrl?: string; env?: Record<string, string> } = {}): Promise<Server> {
   ensureBuild();
   const port = await freePort();
   const logPath = path.join(db.dir, `server-${port}-${randomBytes(3).toString("hex")}.log`);
   const fd = openSync(logPath, "a");
   const child: ChildProcess = spawn(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
     cwd: ROOT,
-    env: { ...process.env, ARMSIFT_DB: db.file, DATABASE_URL: `file:${db.file}`, PORT: String(port), NEXT_TELEMETRY_DISABLED: "1" },
+    env: {
+      ...process.env,
+      ...(opts.databaseUrl ? { DATABASE_URL: opts.databaseUrl } : { ARMSIFT_DB: db.file, DATABASE_URL: `file:${db.file}` }),
+      ...opts.env,
+      PORT: String(port),
+      NEXT_TELEMETRY_DISABLED: "1",
+    },
     detached: true,
     stdio: ["ignore", fd, fd],
   });

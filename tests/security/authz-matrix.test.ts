@@ -84,6 +84,8 @@ const ROWS: Row[] = [
   { route: "shortlists/[id]/repin", method: "POST", expect: WRITE, request: (f) => ({ params: sl(f) }) },
   { route: "shortlists/[id]/runs", method: "POST", expect: WRITE, request: (f) => ({ params: sl(f) }) },
   { route: "shortlists/[id]/runs/[runId]", method: "GET", expect: READ, request: (f) => ({ params: { id: f.shortlistId, runId: f.runId } }) },
+  // The fixture's run has finished: cancelling it answers the run unchanged.
+  { route: "shortlists/[id]/runs/[runId]/cancel", method: "POST", expect: WRITE, request: (f) => ({ params: { id: f.shortlistId, runId: f.runId } }) },
   { route: "shortlists/[id]/runs/[runId]/view", method: "GET", expect: READ, request: (f) => ({ params: { id: f.shortlistId, runId: f.runId }, query: `?arm=${f.armId}` }) },
   { route: "shortlists/[id]/export", method: "GET", expect: READ, request: (f) => ({ params: sl(f), query: "?format=csv" }) },
   // Discussion.

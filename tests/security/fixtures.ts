@@ -6,7 +6,7 @@ import { createTestDb, type TestDb, armDoc, requirementDoc } from "../db/helpers
 import { makeAccounts, type Accounts } from "../api/setup";
 import { createArm, softDeleteArm } from "@/lib/db/arms";
 import { createRequirementSet, softDeleteRequirementSet } from "@/lib/db/requirements";
-import { createShortlist, requestAnalysisRun } from "@/lib/db/shortlists";
+import { createShortlist } from "@/lib/db/shortlists";
 import { createUser, setUserRole } from "@/lib/db/users";
 import { createShareLink, revokeShareLink } from "@/lib/db/shares";
 import { createComment } from "@/lib/db/comments";
@@ -57,8 +57,8 @@ export async function createFixture(): Promise<Fixture> {
       ],
     }))
   ).id;
-  const { id: shortlistId } = await createShortlist(acc.ids.editor, { name: "Fixture shortlist", requirementSetId: setId, armIds: [armId] });
-  const run = await requestAnalysisRun(shortlistId);
+  const run = await createShortlist(acc.ids.editor, { name: "Fixture shortlist", requirementSetId: setId, armIds: [armId] });
+  const shortlistId = run.id;
   if (run.needsStart && (await executeRun(run.run.id)) !== "done") throw new Error("fixture analysis did not finish");
   const past = new Date(Date.now() - 3 * 86_400_000);
   const view = await createShareLink(acc.ids.editor, shortlistId, { access: "view" });

@@ -86,7 +86,22 @@ export default async function ShortlistPage({ params, searchParams }: { params: 
       </section>
 
       {latest && (latest.status === "queued" || latest.status === "running") && (
-        <RunProgress shortlistId={id} runId={latest.id} initial={{ status: latest.status, progress: latest.progress, stage: latest.stage, error: latest.error }} />
+        <RunProgress
+          shortlistId={id}
+          runId={latest.id}
+          canCancel={canWrite}
+          initial={{ status: latest.status, progress: latest.progress, stage: latest.stage, error: latest.error, queuePosition: latest.queuePosition }}
+        />
+      )}
+      {latest && latest.status === "cancelled" && (
+        <div className="notice warn" data-testid="run-cancelled">
+          <strong>The latest analysis was {latest.error ?? "cancelled"}</strong> ({utc(latest.finishedAt)}).
+          {canWrite && (
+            <p className="no-print">
+              <RunAction shortlistId={id} kind="runs" label="Run the analysis again" />
+            </p>
+          )}
+        </div>
       )}
       {latest && latest.status === "failed" && (
         <div className="notice bad" data-testid="run-failed" role="alert">

@@ -1,20 +1,11 @@
 import { createShortlistInput, exportQuery, runViewQuery, weightsParam } from "@/shared/schemas/shortlists";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
-import {
-  createShortlist, getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, repinShortlist, requestAnalysisRun, type RunInfo,
-} from "@/lib/db";
-import { startRunProcess } from "@/lib/jobs/analysis-runner";
+import { getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, type RunInfo } from "@/lib/db";
+import { cancelRun, createShortlistWithRun, repinAndRun, requestRun } from "@/lib/jobs/runs";
 import { shortlistExport } from "@/lib/export";
 import { notFound } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { download, json, parseWith, requireUser, route } from "@/lib/http/route";
-
-/** Asks for a run of the current pins and starts the process when a new one was queued. */
-async function runNow(shortlistId: string): Promise<{ run: RunInfo; cached: boolean }> {
-  const r = await requestAnalysisRun(shortlistId);
-  if (r.needsStart) await startRunProcess(r.run.id);
-  return { run: r.run, cached: r.cached };
-}
 
 export const list = route(async (req) => {
   await requireUser(req, "shortlist:read");
@@ -23,8 +14,7 @@ export const list = route(async (req) => {
 
 export const create = route(async (req) => {
   const user = await requireUser(req, "shortlist:write");
-  const { id, pins } = await createShortlist(user.id, parseWith(createShortlistInput, await readJsonObject(req)));
-  const { run, cached } = await runNow(id);
+  const { id, pins, run, cached } = await createShortlistWithRun(user.id, parseWith(createShortlistInput, await readJsonObject(req)));
   return json({ id, pins, run, cached }, 201);
 });
 
@@ -39,15 +29,14 @@ export const get = route<{ id: string }>(async (req, ctx) => {
 export const startRun = route<{ id: string }>(async (req, ctx) => {
   await requireUser(req, "shortlist:write");
   const { id } = await ctx.params;
-  const { run, cached } = await runNow(id);
+  const { run, cached } = await requestRun(id);
   return json({ run, cached }, cached ? 200 : 201);
 });
 
 export const repin = route<{ id: string }>(async (req, ctx) => {
   const user = await requireUser(req, "shortlist:write");
   const { id } = await ctx.params;
-  const pins = await repinShortlist(user.id, id);
-  const { run, cached } = await runNow(id);
+  const { pins, run, cached } = await repinAndRun(user.id, id);
   return json({ pins, run, cached });
 });
 
@@ -61,6 +50,14 @@ export const runStatus = route<{ id: string; runId: string }>(async (req, ctx) =
   await requireUser(req, "shortlist:read");
   const { id, runId } = await ctx.params;
   return json({ run: await runOf(id, runId) });
+});
+
+/** Stops a queued or running analysis (at its next progress point); a finished run is returned unchanged. */
+export const cancel = route<{ id: string; runId: string }>(async (req, ctx) => {
+  const user = await requireUser(req, "shortlist:write");
+  const { id, runId } = await ctx.params;
+  await runOf(id, runId);
+  return json({ run: await cancelRun(user.id, runId) });
 });
 
 /** One arm of a finished run with the pinned documents: what the 3-D view of the shortlist page draws. */
