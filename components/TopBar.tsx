@@ -32,7 +32,7 @@ export function TopBar({ user }: { user: TopBarUser | null }) {
           {user ? (
             <>
               <span>
-                Signed in as <strong>{user.name}</strong> <span className="role-tag">{user.role}</span>
+                Signed in as <Link href="/account" title="Your account: password and sessions"><strong>{user.name}</strong></Link> <span className="role-tag">{user.role}</span>
               </span>
               <SignOutButton />
             </>

@@ -7,10 +7,15 @@ interface User {
   email: string;
   name: string;
   role: "admin" | "editor" | "viewer";
+  status: "active" | "pending" | "refused";
 }
+const STATUS_WORDS: Record<User["status"], string> = { active: "active", pending: "waits for approval", refused: "refused" };
 const ROLES = ["admin", "editor", "viewer"] as const;
 
-/** Lists accounts and lets an administrator change their role (the server checks it too). */
+/**
+ * Lists accounts and lets an administrator change their role and approve or refuse accounts that
+ * wait for approval (the server checks it too).
+ */
 export function UserRoles({ currentUserId }: { currentUserId: string }) {
   const [users, setUsers] = useState<User[] | null>(null);
   const [status, setStatus] = useState<string>("");
@@ -40,8 +45,26 @@ export function UserRoles({ currentUserId }: { currentUserId: string }) {
     }
   }
 
+  async function decide(u: User, decision: "approve" | "refuse") {
+    setStatus("");
+    setProblem("");
+    const r = await api<{ user: User }>(`/api/users/${encodeURIComponent(u.id)}/approval`, "POST", { decision });
+    if (r.ok) {
+      setUsers((list) => list?.map((x) => (x.id === u.id ? { ...x, status: r.data.user.status } : x)) ?? null);
+      setStatus(decision === "approve" ? `${u.name} can sign in now.` : `${u.name} was refused and cannot sign in.`);
+    } else {
+      setProblem(`${u.name}: ${r.error.fieldErrors?.map((f) => f.message).join("; ") || r.error.message}`);
+    }
+  }
+
+  const waiting = users?.filter((u) => u.status === "pending").length ?? 0;
   return (
     <>
+      {waiting > 0 && (
+        <p className="notice warn" data-testid="pending-count">
+          {waiting === 1 ? "1 account waits" : `${waiting} accounts wait`} for your approval.
+        </p>
+      )}
       <div aria-live="polite" role="status">
         {status && <p className="notice">{status}</p>}
         {problem && <p className="notice bad">{problem}</p>}
@@ -56,6 +79,7 @@ export function UserRoles({ currentUserId }: { currentUserId: string }) {
                 <th scope="col">Name</th>
                 <th scope="col">Email</th>
                 <th scope="col">Role</th>
+                <th scope="col">Status</th>
               </tr>
             </thead>
             <tbody>
@@ -77,6 +101,21 @@ export function UserRoles({ currentUserId }: { currentUserId: string }) {
                         </option>
                       ))}
                     </select>
+                  </td>
+                  <td data-testid={`status-${u.email}`}>
+                    {STATUS_WORDS[u.status]}
+                    {u.status !== "active" && (
+                      <span className="row-actions">
+                        <button type="button" className="small" onClick={() => decide(u, "approve")} aria-label={`Approve ${u.name}`}>
+                          Approve
+                        </button>
+                        {u.status === "pending" && (
+                          <button type="button" className="small" onClick={() => decide(u, "refuse")} aria-label={`Refuse ${u.name}`}>
+                            Refuse
+                          </button>
+                        )}
+                      </span>
+                    )}
                   </td>
                 </tr>
               ))}

@@ -1,8 +1,9 @@
 // `npm start`: install what is missing, migrate the database (skipped when nothing is pending),
 // seed the demo into an empty catalog, build when the sources are newer than the build, then
-// serve in the foreground.
-// Env: PORT (3000), HOST (0.0.0.0), ARMSIFT_DB (./data/armsift.db), or DATABASE_URL=postgresql://…
-// for the team set-up (then `npm run worker` analyses; see the README).
+// serve in the foreground (scripts/serve.mjs).
+// Env: PORT (3000), HOST (127.0.0.1: this machine only; 0.0.0.0 for every interface),
+// ARMSIFT_DB (./data/armsift.db), or DATABASE_URL=postgresql://… for the team set-up (then
+// `npm run worker` analyses; see the README), ARMSIFT_TRUSTED_PROXIES (none; see scripts/serve.mjs).
 import { spawn } from "node:child_process";
 import { existsSync, mkdirSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
@@ -18,7 +19,7 @@ const env = {
 };
 const where = postgres ? new URL(env.DATABASE_URL).host + new URL(env.DATABASE_URL).pathname : path.relative(root, dbFile) || dbFile;
 const port = process.env.PORT ?? "3000";
-const host = process.env.HOST ?? "0.0.0.0";
+const host = process.env.HOST || "127.0.0.1";
 
 ensureInstalled(env);
 ensureGenerated(env);
@@ -74,8 +75,8 @@ if (!existsSync(buildId) || statSync(buildId).mtimeMs < newestSource()) {
   mustRun("next build", process.execPath, [nextBin(), "build"], env);
 }
 
-console.log(`\n▶ serving on http://${host === "0.0.0.0" ? "localhost" : host}:${port} (database ${where})`);
-const server = spawn(process.execPath, [nextBin(), "start", "-p", port, "-H", host], { cwd: root, env, stdio: "inherit" });
+console.log(`\n▶ database ${where}${host === "127.0.0.1" ? "; listening on this machine only (set HOST=0.0.0.0 to serve other machines)" : ""}`);
+const server = spawn(process.execPath, [path.join(root, "scripts", "serve.mjs")], { cwd: root, env: { ...env, PORT: port, HOST: host }, stdio: "inherit" });
 for (const sig of ["SIGINT", "SIGTERM"]) {
   process.on(sig, () => {
     if (server.exitCode === null) server.kill(sig);

@@ -40,7 +40,8 @@ export type Action =
   | "share:revoke"
   | "price:read"
   | "audit:read"
-  | "comment:read-deleted";
+  | "comment:read-deleted"
+  | "account:manage";
 
 /** What an action is about, for the decisions that depend on it (owner, shortlist). */
 export interface Resource {
@@ -72,6 +73,8 @@ const GRANTS: Record<Action, readonly Role[]> = {
   "audit:read": ["admin"],
   // The text of a deleted comment (its revisions), like the audit trail: admins only.
   "comment:read-deleted": ["admin"],
+  // One's own account: password change, signing out one's other sessions.
+  "account:manage": ["admin", "editor", "viewer"],
 };
 
 /** Actions on a thing that a member may do only to their own, unless the role is listed. */

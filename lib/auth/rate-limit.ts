@@ -1,7 +1,24 @@
 /**
- * In-memory sliding-window counter (per process; resets on restart, not shared between
- * processes). Used for sign-in failures: enough against password guessing on a single server.
+ * In-memory rate limits (per server process; they reset on restart and are not shared between
+ * processes: enough against guessing on a single server).
+ *
+ * Every limiter lives in one registry on globalThis, so the separately bundled parts of the app
+ * (the share page and the share API are different bundles, each with its own copy of this
+ * module) count in the same limiter instead of one each.
  */
+
+const REGISTRY = Symbol.for("armsift.rate-limiters");
+type Registry = Map<string, unknown>;
+
+/** The process-wide instance named `name`, made by `make` on first use. */
+function shared<T>(name: string, make: () => T): T {
+  const g = globalThis as { [REGISTRY]?: Registry };
+  const registry = (g[REGISTRY] ??= new Map());
+  if (!registry.has(name)) registry.set(name, make());
+  return registry.get(name) as T;
+}
+
+/** Sliding-window counter: at most `limit` events per key in any `windowMs`. */
 export class SlidingWindowLimiter {
   private readonly hits = new Map<string, number[]>();
   constructor(
@@ -45,32 +62,77 @@ export class SlidingWindowLimiter {
   }
 }
 
-/** Sign-in: at most 5 failures per email and 20 per client address in any 15 minutes. */
-export const SIGNIN_WINDOW_MS = 15 * 60 * 1000;
-export const signInFailuresByEmail = new SlidingWindowLimiter(5, SIGNIN_WINDOW_MS);
-export const signInFailuresByIp = new SlidingWindowLimiter(20, SIGNIN_WINDOW_MS);
+/**
+ * Failure counter with growing back-off: the first `free` failures of a key cost nothing; after
+ * that the key waits `baseMs`, doubling with each further failure up to `maxMs`. A key with no
+ * failure for `forgetMs` starts again; a success resets it.
+ */
+export class BackoffLimiter {
+  private readonly state = new Map<string, { failures: number; lastAt: number }>();
+  constructor(
+    readonly free: number,
+    readonly baseMs: number,
+    readonly maxMs: number,
+    readonly forgetMs: number,
+    private readonly now: () => number = Date.now,
+  ) {}
+
+  private live(key: string): { failures: number; lastAt: number } | undefined {
+    const s = this.state.get(key);
+    if (s && this.now() - s.lastAt >= this.forgetMs) {
+      this.state.delete(key);
+      return undefined;
+    }
+    return s;
+  }
+
+  /** The wait after `failures` failures (0 while they are free). */
+  delayFor(failures: number): number {
+    if (failures < this.free) return 0;
+    return Math.min(this.maxMs, this.baseMs * 2 ** (failures - this.free));
+  }
+
+  retryAfterMs(key: string): number {
+    const s = this.live(key);
+    if (!s) return 0;
+    return Math.max(0, s.lastAt + this.delayFor(s.failures) - this.now());
+  }
+
+  record(key: string): void {
+    const s = this.live(key);
+    this.state.set(key, { failures: (s?.failures ?? 0) + 1, lastAt: this.now() });
+    if (this.state.size > 10_000) for (const k of [...this.state.keys()]) this.live(k);
+  }
+
+  reset(key: string): void {
+    this.state.delete(key);
+  }
+
+  clear(): void {
+    this.state.clear();
+  }
+}
 
 /**
- * Client address for rate limiting: the last x-forwarded-for entry (the hop nearest to this
- * server; Next fills it from the socket when absent), else x-real-ip, else "unknown".
+ * Sign-in failures, counted per (account, client address) with growing back-off: 5 free, then
+ * 1 min, 2, 4, 8 and at most 15 min between tries. Someone guessing from elsewhere therefore
+ * never locks the owner out of their own address. Per address (whatever the accounts): at most
+ * 20 failures in any 15 minutes.
  */
-export function clientAddress(req: Request): string {
-  const xff = req.headers.get("x-forwarded-for");
-  if (xff) {
-    const parts = xff.split(",").map((s) => s.trim()).filter(Boolean);
-    if (parts.length > 0) return parts[parts.length - 1];
-  }
-  return req.headers.get("x-real-ip")?.trim() || "unknown";
-}
+export const SIGNIN_WINDOW_MS = 15 * 60 * 1000;
+export const signInFailuresByAccount = shared("signin:account+address", () => new BackoffLimiter(5, 60_000, SIGNIN_WINDOW_MS, 24 * 60 * 60 * 1000));
+export const signInFailuresByIp = shared("signin:address", () => new SlidingWindowLimiter(20, SIGNIN_WINDOW_MS));
+/** The key of an account tried from an address. */
+export const accountAddressKey = (email: string, address: string): string => `${email}\u0000${address}`;
 
 /** Comment posting: at most 30 comments per minute per member, or per guest link and address. */
 export const COMMENT_WINDOW_MS = 60 * 1000;
-export const commentPosts = new SlidingWindowLimiter(30, COMMENT_WINDOW_MS);
+export const commentPosts = shared("comments", () => new SlidingWindowLimiter(30, COMMENT_WINDOW_MS));
 
 /**
  * Share-link access by token: at most 20 unknown, expired or revoked tokens per client address in
  * 10 minutes (guessing), and at most 600 token requests per address per minute overall.
  */
 export const SHARE_FAILURE_WINDOW_MS = 10 * 60 * 1000;
-export const shareTokenFailures = new SlidingWindowLimiter(20, SHARE_FAILURE_WINDOW_MS);
-export const shareTokenRequests = new SlidingWindowLimiter(600, 60 * 1000);
+export const shareTokenFailures = shared("share:failures", () => new SlidingWindowLimiter(20, SHARE_FAILURE_WINDOW_MS));
+export const shareTokenRequests = shared("share:requests", () => new SlidingWindowLimiter(600, 60 * 1000));

@@ -17,13 +17,6 @@ export async function createSession(userId: string, now: Date = new Date()): Pro
   return { token, expiresAt };
 }
 
-/** True when the request came over HTTPS, directly or through a proxy that says so. */
-export function isHttps(req: Request): boolean {
-  const proto = req.headers.get("x-forwarded-proto")?.split(",")[0]?.trim().toLowerCase();
-  if (proto) return proto === "https";
-  return new URL(req.url).protocol === "https:";
-}
-
 export function sessionCookie(token: string, expiresAt: Date, secure: boolean): string {
   const maxAge = Math.max(0, Math.floor((expiresAt.getTime() - Date.now()) / 1000));
   return [`${SESSION_COOKIE}=${token}`, "Path=/", "HttpOnly", "SameSite=Lax", `Max-Age=${maxAge}`, `Expires=${expiresAt.toUTCString()}`, ...(secure ? ["Secure"] : [])].join("; ");
@@ -63,6 +56,12 @@ export async function getCurrentUser(): Promise<SessionUser | null> {
   const jar = await cookies();
   const value = jar.get(SESSION_COOKIE)?.value ?? null;
   return userForToken(value && /^[A-Za-z0-9_-]{16,128}$/.test(value) ? value : null);
+}
+
+/** The stored id (hash) of the session a request's cookie holds, or null. */
+export function requestSessionIdHash(req: Request): string | null {
+  const token = tokenFromCookieHeader(req.headers.get("cookie"));
+  return token ? hashToken(token) : null;
 }
 
 /** Ends the session of a request's cookie, if any. */

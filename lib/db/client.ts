@@ -123,10 +123,16 @@ class ArmsiftSqliteAdapter extends PrismaBetterSQLite3 {
 /** Attempts of a PostgreSQL transaction that keeps losing serialization conflicts. */
 export const SERIALIZATION_ATTEMPTS = 8;
 
-const isRetryable = (err: unknown): boolean => {
-  const e = err as { code?: unknown; meta?: { driverAdapterError?: { cause?: { originalCode?: unknown } } } } | null;
-  const original = e?.meta?.driverAdapterError?.cause?.originalCode;
-  return e?.code === "P2034" || original === "40001" || original === "40P01";
+type AdapterCause = { originalCode?: unknown; kind?: unknown };
+
+/**
+ * A lost serialization conflict or a deadlock: Prisma's P2034, or (when it surfaces at COMMIT)
+ * the driver adapter's own error with the SQLSTATE as its cause.
+ */
+export const isRetryable = (err: unknown): boolean => {
+  const e = err as { code?: unknown; cause?: AdapterCause; meta?: { driverAdapterError?: { cause?: AdapterCause } } } | null;
+  const cause = e?.meta?.driverAdapterError?.cause ?? e?.cause;
+  return e?.code === "P2034" || cause?.kind === "TransactionWriteConflict" || cause?.originalCode === "40001" || cause?.originalCode === "40P01";
 };
 
 /** Connections per process to PostgreSQL (pg's default); count them against max_connections. */

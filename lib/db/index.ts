@@ -11,6 +11,8 @@ export * from "./errors";
 export * from "./shortlists";
 export * from "./comments";
 export * from "./shares";
+export * from "./settings";
+export * from "./invitations";
 export { listAuditEvents, type AuditEventRecord } from "./audit-read";
 export * from "./workers";
 export { databaseUrl, dbProvider, disconnectDb, pingDatabase, providerOf, type DbProvider, type Tx } from "./client";

@@ -1,5 +1,6 @@
 import "server-only";
 import { db } from "./client";
+import { recordAudit } from "./audit";
 import type { UserRecord } from "./users";
 import { getUser } from "./users";
 
@@ -8,7 +9,7 @@ export async function insertSession(idHash: string, userId: string, expiresAt: D
   await db().session.create({ data: { id: idHash, userId, expiresAt } });
 }
 
-/** The user of a live session, or null (an expired session is removed). */
+/** The active user of a live session, or null (an expired session is removed; a pending account has none). */
 export async function findSessionUser(idHash: string, now: Date = new Date()): Promise<UserRecord | null> {
   const s = await db().session.findUnique({ where: { id: idHash } });
   if (!s) return null;
@@ -16,7 +17,17 @@ export async function findSessionUser(idHash: string, now: Date = new Date()): P
     await db().session.deleteMany({ where: { id: idHash } });
     return null;
   }
-  return getUser(s.userId);
+  const user = await getUser(s.userId);
+  return user && user.status === "active" ? user : null;
+}
+
+/** Ends every session of a user except one (the caller's); returns how many ended. */
+export async function deleteOtherSessions(userId: string, keepIdHash: string): Promise<number> {
+  return db().$transaction(async (tx) => {
+    const r = await tx.session.deleteMany({ where: { userId, id: { not: keepIdHash } } });
+    await recordAudit(tx, { actorId: userId, action: "user.signout-others", entityType: "user", entityId: userId, detail: { endedSessions: r.count } });
+    return r.count;
+  });
 }
 
 export async function deleteSession(idHash: string): Promise<void> {

@@ -1,10 +1,11 @@
 import { ApiError } from "./errors";
+import { forwardedHost } from "./forwarded";
 
 const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 
 /**
  * Refuses a state-changing request whose Origin header is present and names another host than
- * the one addressed (Host, or X-Forwarded-Host behind a proxy). Browsers send Origin on
+ * the one addressed (Host, or X-Forwarded-Host from a trusted proxy). Browsers send Origin on
  * cross-site POST/PUT/PATCH/DELETE, so this blocks cross-site request forgery.
  */
 export function checkOrigin(req: Request): void {
@@ -17,7 +18,7 @@ export function checkOrigin(req: Request): void {
   } catch {
     throw new ApiError(403, "forbidden", `request origin ${JSON.stringify(origin.slice(0, 100))} is not this site`);
   }
-  const hosts = [req.headers.get("host") ?? new URL(req.url).host, req.headers.get("x-forwarded-host")?.split(",")[0]]
+  const hosts = [req.headers.get("host") ?? new URL(req.url).host, forwardedHost(req)]
     .filter((h): h is string => Boolean(h))
     .map((h) => h.trim().toLowerCase());
   if (!originHost || !hosts.includes(originHost)) {

@@ -7,6 +7,7 @@ import * as me from "@/app/api/auth/me/route";
 import * as users from "@/app/api/users/route";
 import * as userById from "@/app/api/users/[id]/route";
 import * as health from "@/app/api/health/route";
+import { PEER_HEADER } from "@/lib/http/forwarded";
 import { call, expectFieldError, sessionCookieOf } from "./client";
 import { signUp } from "./setup";
 
@@ -49,13 +50,18 @@ describe("accounts over the API", () => {
     expect((await call(me.GET, "/api/auth/me")).body.error.code).toBe("unauthenticated");
   });
 
-  it("marks the cookie Secure behind an HTTPS proxy", async () => {
-    const r = await call(signup.POST, "/api/auth/signup", {
-      body: { email: "secure@example.test", name: "Sec", password: "a long enough password" },
-      headers: { "x-forwarded-proto": "https" },
-    });
-    expect(r.status).toBe(201);
-    expect(r.res.headers.get("set-cookie")).toMatch(/; Secure$/);
+  it("marks the cookie Secure behind a trusted HTTPS proxy", async () => {
+    process.env.ARMSIFT_TRUSTED_PROXIES = "10.0.0.1";
+    try {
+      const r = await call(signin.POST, "/api/auth/signin", {
+        body: { email: "owner@example.test", password: "a long enough password" },
+        headers: { [PEER_HEADER]: "10.0.0.1", "x-forwarded-proto": "https" },
+      });
+      expect(r.status).toBe(200);
+      expect(r.res.headers.get("set-cookie")).toMatch(/; Secure$/);
+    } finally {
+      delete process.env.ARMSIFT_TRUSTED_PROXIES;
+    }
   });
 
   it("validates sign-up fields", async () => {
@@ -63,42 +69,54 @@ describe("accounts over the API", () => {
     expectFieldError(r, "email");
     expectFieldError(r, "name");
     expectFieldError(r, "password", /at least 10 characters/);
-    const dup = await call(signup.POST, "/api/auth/signup", { body: { email: "OWNER@example.test", name: "Dup", password: "a long enough password" } });
-    expectFieldError(dup, "email", /already exists/);
   });
 
-  it("refuses a wrong password with 401 and rate-limits failures per email (429, Retry-After)", async () => {
+  it("answers a sign-up for a taken email exactly as for a free one", async () => {
+    const taken = await call(signup.POST, "/api/auth/signup", { body: { email: "OWNER@example.test", name: "Dup", password: "another long passphrase" } });
+    const free = await call(signup.POST, "/api/auth/signup", { body: { email: "never.seen@example.test", name: "New", password: "another long passphrase" } });
+    expect(taken.status).toBe(202);
+    expect(free.status).toBe(202);
+    expect(taken.body).toEqual(free.body);
+    expect(taken.res.headers.get("set-cookie")).toBeNull();
+    expect(JSON.stringify(taken.body)).not.toMatch(/exists|taken|already/);
+    // The taken account is untouched: its own password still signs in, the other one does not.
+    expect((await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "another long passphrase" }, headers: { [PEER_HEADER]: "192.0.2.200" } })).status).toBe(401);
+  });
+
+  it("refuses a wrong password with 401 and rate-limits failures per account and address (429, Retry-After)", async () => {
     await signUp("target@example.test", "Tara Target");
     const attempt = (password: string, ip = "198.51.100.7") =>
-      call(signin.POST, "/api/auth/signin", { body: { email: "target@example.test", password }, headers: { "x-forwarded-for": ip } });
+      call(signin.POST, "/api/auth/signin", { body: { email: "target@example.test", password }, headers: { [PEER_HEADER]: ip } });
     for (let i = 0; i < 5; i++) {
-      const r = await attempt("wrong password " + i, `198.51.100.${10 + i}`);
+      const r = await attempt("wrong password " + i);
       expect(r.status).toBe(401);
       expect(r.body.error.code).toBe("unauthenticated");
     }
-    // Sixth try, even with the right password and from another address: refused until the window passes.
-    const limited = await attempt("a long enough password", "198.51.100.99");
+    // Sixth try from that address, even with the right password: refused for a minute.
+    const limited = await attempt("a long enough password");
     expect(limited.status).toBe(429);
     expect(limited.body.error.code).toBe("rate-limited");
     const retry = Number(limited.res.headers.get("retry-after"));
-    expect(retry).toBeGreaterThan(14 * 60);
-    expect(retry).toBeLessThanOrEqual(15 * 60);
+    expect(retry).toBeGreaterThan(50);
+    expect(retry).toBeLessThanOrEqual(60);
+    // The owner elsewhere is not locked out.
+    expect((await attempt("a long enough password", "198.51.100.99")).status).toBe(200);
   });
 
   it("rate-limits failures per client address (20 in 15 min), unknown emails included", async () => {
     const ip = "203.0.113.5";
     for (let i = 0; i < 20; i++) {
-      const r = await call(signin.POST, "/api/auth/signin", { body: { email: `nobody${i}@example.test`, password: "whatever it is" }, headers: { "x-forwarded-for": ip } });
+      const r = await call(signin.POST, "/api/auth/signin", { body: { email: `nobody${i}@example.test`, password: "whatever it is" }, headers: { [PEER_HEADER]: ip } });
       expect(r.status).toBe(401);
     }
-    const r = await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { "x-forwarded-for": ip } });
+    const r = await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { [PEER_HEADER]: ip } });
     expect(r.status).toBe(429);
-    const other = await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { "x-forwarded-for": "203.0.113.6" } });
+    const other = await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { [PEER_HEADER]: "203.0.113.6" } });
     expect(other.status).toBe(200);
   }, 60_000);
 
   it("lets only an admin list users and change roles", async () => {
-    const admin = (await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { "x-forwarded-for": "192.0.2.1" } })).res;
+    const admin = (await call(signin.POST, "/api/auth/signin", { body: { email: "owner@example.test", password: "a long enough password" }, headers: { [PEER_HEADER]: "192.0.2.1" } })).res;
     const adminCookie = sessionCookieOf(admin);
     const viewer = await signUp("plain@example.test", "Pat Plain");
 
@@ -107,7 +125,7 @@ describe("accounts over the API", () => {
     const list = await call(users.GET, "/api/users", { cookie: adminCookie });
     expect(list.status).toBe(200);
     expect(list.body.users.map((u: { email: string }) => u.email)).toContain("plain@example.test");
-    expect(Object.keys(list.body.users[0]).sort()).toEqual(["email", "id", "name", "role"]);
+    expect(Object.keys(list.body.users[0]).sort()).toEqual(["createdAt", "email", "id", "name", "role", "status"]);
 
     const patch = (cookie: string, id: string, body: unknown) => call(userById.PATCH, `/api/users/${id}`, { method: "PATCH", cookie, params: { id }, body });
     expect((await patch(viewer.cookie, viewer.id, { role: "admin" })).status).toBe(403);
@@ -130,6 +148,6 @@ describe("accounts over the API", () => {
       body: { email: "csrf@example.test", name: "C", password: "a long enough password" },
       headers: { origin: "http://localhost:3000" },
     });
-    expect(same.status).toBe(201);
+    expect(same.status).toBe(202);
   });
 });

@@ -11,7 +11,7 @@ let acc: Accounts;
 beforeAll(async () => {
   t = createTestDb();
   acc = await makeAccounts();
-});
+}, 120_000);
 afterAll(async () => t.cleanup());
 
 describe("request bodies must be sent as JSON", () => {

@@ -26,7 +26,7 @@ beforeAll(async () => {
   const setId = (await createRequirementSet(acc.ids.admin, requirementDoc())).id;
   shortlistId = (await createShortlist(acc.ids.editor, { name: "Stress", requirementSetId: setId, armIds: [armId] })).id;
   token = (await createShareLink(acc.ids.editor, shortlistId, { access: "comment" })).token;
-});
+}, 120_000);
 afterAll(async () => t.cleanup());
 
 const memberList = () => call(comments.GET, `/api/shortlists/${shortlistId}/comments`, { cookie: acc.viewer, params: { id: shortlistId } });

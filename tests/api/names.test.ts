@@ -16,7 +16,7 @@ let acc: Accounts;
 beforeAll(async () => {
   t = createTestDb();
   acc = await makeAccounts();
-});
+}, 120_000);
 afterAll(async () => t.cleanup());
 
 const RLO = "\u202E";

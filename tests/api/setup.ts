@@ -1,7 +1,10 @@
-// Accounts for API tests: the first sign-up is admin; an editor and a viewer are made by the admin.
+// Accounts for API tests: the first sign-up is admin; later sign-ups wait for approval (the
+// default sign-up mode), are approved by the admin and get a session; an editor and a viewer are made.
 import { expect } from "vitest";
 import * as signup from "@/app/api/auth/signup/route";
 import * as userById from "@/app/api/users/[id]/route";
+import { approveUser, findUserForSignIn, listUsers } from "@/lib/db";
+import { createSession } from "@/lib/auth/session";
 import { call, sessionCookieOf } from "./client";
 
 export interface Accounts {
@@ -11,10 +14,23 @@ export interface Accounts {
   ids: { admin: string; editor: string; viewer: string };
 }
 
+/**
+ * Signs up through the API; a later account is approved by the first admin (when it waits for
+ * approval) and given a session, so every account returned has one.
+ */
 export async function signUp(email: string, name: string, password = "a long enough password"): Promise<{ cookie: string; id: string; role: string }> {
   const r = await call(signup.POST, "/api/auth/signup", { body: { email, name, password } });
-  expect(r.status, JSON.stringify(r.body)).toBe(201);
-  return { cookie: sessionCookieOf(r.res), id: r.body.user.id, role: r.body.user.role };
+  if (r.status === 201) return { cookie: sessionCookieOf(r.res), id: r.body.user.id, role: r.body.user.role };
+  expect(r.status, JSON.stringify(r.body)).toBe(202);
+  const account = await findUserForSignIn(email);
+  expect(account, `no account for ${email}`).not.toBeNull();
+  if (account!.status === "pending") {
+    const admin = (await listUsers()).find((u) => u.role === "admin" && u.status === "active")!;
+    await approveUser(admin.id, account!.id);
+  }
+  // A session as sign-in would make it (sign-in itself is tested in auth.test.ts).
+  const { token } = await createSession(account!.id);
+  return { cookie: `armsift_session=${token}`, id: account!.id, role: account!.role };
 }
 
 export async function makeAccounts(): Promise<Accounts> {

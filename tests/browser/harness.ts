@@ -9,6 +9,7 @@ import { existsSync, mkdtempSync, openSync, readFileSync, rmSync, closeSync } fr
 import net from "node:net";
 import os from "node:os";
 import path from "node:path";
+import Database from "better-sqlite3";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
 import { buildIsStale } from "../helpers/build-freshness";
 
@@ -74,20 +75,34 @@ export interface Harness {
   close(): Promise<void>;
 }
 
-export async function startHarness(): Promise<Harness> {
+export interface HarnessOptions {
+  /**
+   * The sign-up mode the database starts with. Most tests make several accounts through the
+   * sign-up page and run with open sign-up; null keeps the product's default (approval).
+   */
+  signUpMode?: "open" | "approval" | "invitation" | null;
+}
+
+export async function startHarness(opts: HarnessOptions = {}): Promise<Harness> {
   ensureBuild();
   const dir = mkdtempSync(path.join(os.tmpdir(), "armsift-browser-"));
   const dbPath = path.join(dir, "armsift.db");
   const env: NodeJS.ProcessEnv = { ...process.env, ARMSIFT_DB: dbPath, DATABASE_URL: `file:${dbPath}`, NEXT_TELEMETRY_DISABLED: "1" };
   run(process.execPath, [path.join(ROOT, "scripts", "prisma.mjs"), "migrate", "deploy"], env, "migrate deploy");
   run(process.execPath, [path.join(ROOT, "dist", "jobs", "seed.mjs")], env, "seed");
+  const mode = opts.signUpMode === undefined ? "open" : opts.signUpMode;
+  if (mode !== null) {
+    const conn = new Database(dbPath);
+    conn.prepare(`INSERT INTO "Setting" ("key", "value", "updatedAt") VALUES ('signUpMode', ?, ?)`).run(JSON.stringify(mode), new Date().toISOString());
+    conn.close();
+  }
 
   const port = await freePort();
   const logPath = path.join(dir, "server.log");
   const logFd = openSync(logPath, "a");
-  const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
+  const server: ChildProcess = spawn(process.execPath, [path.join(ROOT, "scripts", "serve.mjs")], {
     cwd: ROOT,
-    env: { ...env, PORT: String(port) },
+    env: { ...env, PORT: String(port), HOST: "127.0.0.1" },
     detached: true,
     stdio: ["ignore", logFd, logFd],
   });
@@ -187,7 +202,10 @@ export async function startHarness(): Promise<Harness> {
   };
 }
 
-/** Signs up through the page; returns when the arm catalog shows. */
+/**
+ * Signs up through the page; returns when the arm catalog shows. The first account is signed in
+ * at once; a later one (open sign-up) reads the sign-up answer and then signs in.
+ */
 export async function signUp(t: TrackedPage, user: { email: string; name: string; password: string }): Promise<void> {
   const { page } = t;
   await page.goto("/signup");
@@ -195,7 +213,12 @@ export async function signUp(t: TrackedPage, user: { email: string; name: string
   await page.getByLabel("Name").fill(user.name);
   await page.getByLabel("Password").fill(user.password);
   await page.getByRole("button", { name: "Create account" }).click();
-  await page.waitForURL("**/arms");
+  const done = page.getByTestId("signup-done");
+  // Whichever comes first; the other wait is dropped (its timeout must not surface later).
+  await Promise.race([page.waitForURL("**/arms").catch(() => undefined), done.waitFor().catch(() => undefined)]);
+  if (new URL(page.url()).pathname === "/arms") return;
+  await done.waitFor();
+  await signIn(t, user);
 }
 
 export async function signIn(t: TrackedPage, user: { email: string; password: string }): Promise<void> {

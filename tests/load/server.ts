@@ -1,5 +1,5 @@
 // The built production server on a temporary database, for load and fault tests: the test
-// prepares the data through lib/db in its own process, then starts `next start` as a detached
+// prepares the data through lib/db in its own process, then starts the production server (scripts/serve.mjs) as a detached
 // process group it can kill with any signal and start again on the same database file.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, rmSync } from "node:fs";
@@ -64,7 +64,7 @@ export async function startServer(db: TempDb, opts: { databaseUrl?: string; env?
   const port = await freePort();
   const logPath = path.join(db.dir, `server-${port}-${randomBytes(3).toString("hex")}.log`);
   const fd = openSync(logPath, "a");
-  const child: ChildProcess = spawn(process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "start", "-p", String(port), "-H", "127.0.0.1"], {
+  const child: ChildProcess = spawn(process.execPath, [path.join(ROOT, "scripts", "serve.mjs")], {
     cwd: ROOT,
     env: {
       ...process.env,
@@ -72,6 +72,7 @@ export async function startServer(db: TempDb, opts: { databaseUrl?: string; env?
       ...opts.env,
       PORT: String(port),
       NEXT_TELEMETRY_DISABLED: "1",
+      HOST: "127.0.0.1",
     },
     detached: true,
     stdio: ["ignore", fd, fd],

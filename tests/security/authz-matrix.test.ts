@@ -7,10 +7,10 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { call, type Body } from "../api/client";
 import { sampleArm, sampleRequirementSet } from "../db/helpers";
-import { createFixture, ROLES, type Fixture, type MemberRole, type Role } from "./fixtures";
+import { createFixture, isMember, MEMBER_PASSWORD, ROLES, type Fixture, type MemberRole, type Role } from "./fixtures";
 import { discoverRoutes, discoverServerActions, type Method } from "./routes";
 import { deleteComment } from "@/lib/db";
-import { commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByEmail, signInFailuresByIp } from "@/lib/auth/rate-limit";
+import { commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByAccount, signInFailuresByIp } from "@/lib/auth/rate-limit";
 
 type Expect = "ok" | 401 | 403 | 404;
 type Cells = Record<Role, Expect>;
@@ -63,13 +63,31 @@ const sl = (f: Fixture) => ({ id: f.shortlistId });
 
 const ROWS: Row[] = [
   { route: "health", method: "GET", expect: OPEN },
-  // Signing up and in is open to everyone; the response is a new session of the new or named account.
+  // Signing up and in is open to everyone (a later sign-up answers 202 and waits for approval by default).
   { route: "auth/signup", method: "POST", expect: OPEN, request: (f) => ({ body: { email: `new${f.seq()}@example.test`, name: "New Member", password: "a long enough password" } }) },
   { route: "auth/signin", method: "POST", expect: OPEN, request: () => ({ body: { email: "viewer@example.test", password: "a long enough password" } }) },
   { route: "auth/signout", method: "POST", expect: OPEN, request: async (f, role) => (["admin", "editor", "viewer"].includes(role) ? { cookie: await f.freshCookie(role as MemberRole) } : {}) },
   { route: "auth/me", method: "GET", expect: READ },
   { route: "users", method: "GET", expect: ADMIN },
   { route: "users/[id]", method: "PATCH", expect: ADMIN, request: async (f) => ({ params: { id: await f.freshUser() }, body: { role: "viewer" } }) },
+  { route: "users/[id]/approval", method: "POST", expect: ADMIN, request: async (f) => ({ params: { id: await f.freshPendingUser() }, body: { decision: "approve" } }) },
+  { route: "settings/sign-up", method: "GET", expect: ADMIN },
+  { route: "settings/sign-up", method: "PUT", expect: ADMIN, request: () => ({ body: { mode: "approval" } }) },
+  { route: "invitations", method: "GET", expect: ADMIN },
+  { route: "invitations", method: "POST", expect: ADMIN, request: () => ({ body: { role: "viewer", expiresInDays: 2 } }) },
+  { route: "invitations/[id]", method: "DELETE", expect: ADMIN, request: async (f) => ({ params: { id: await f.freshInvitation() } }) },
+  // One's own account (a fresh account per member role, so the fixture's sessions stay).
+  {
+    route: "auth/password", method: "POST", expect: READ,
+    request: async (f, role) => ({
+      ...(isMember(role) ? { cookie: (await f.freshMember(role)).cookie } : {}),
+      body: { currentPassword: MEMBER_PASSWORD, newPassword: "another long passphrase" },
+    }),
+  },
+  {
+    route: "auth/signout-others", method: "POST", expect: READ,
+    request: async (f, role) => (isMember(role) ? { cookie: (await f.freshMember(role)).cookie } : {}),
+  },
   ...documentRows("arms"),
   // URDF: reading a file into an arm is part of adding arms; exporting is reading.
   {
@@ -159,7 +177,7 @@ beforeAll(async () => {
 afterAll(async () => f?.db.cleanup());
 
 function clearLimits() {
-  for (const l of [commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByEmail, signInFailuresByIp]) l.clear();
+  for (const l of [commentPosts, shareTokenFailures, shareTokenRequests, signInFailuresByAccount, signInFailuresByIp]) l.clear();
 }
 
 describe("authorisation matrix", () => {

@@ -12,6 +12,11 @@ import { createShareLink, revokeShareLink } from "@/lib/db/shares";
 import { createComment } from "@/lib/db/comments";
 import { executeRun } from "@/lib/jobs/analysis-runner";
 import { createSession } from "@/lib/auth/session";
+import { hashPassword } from "@/lib/auth/password";
+import { createInvitation } from "@/lib/db";
+
+/** The password of every account the fixture makes through sign-up or freshMember. */
+export const MEMBER_PASSWORD = "a long enough password";
 
 export const ROLES = ["admin", "editor", "viewer", "viewLink", "commentLink", "expiredLink", "revokedLink", "anonymous"] as const;
 export type Role = (typeof ROLES)[number];
@@ -38,6 +43,11 @@ export interface Fixture {
   freshArm(deleted?: boolean): Promise<string>;
   freshRequirementSet(deleted?: boolean): Promise<string>;
   freshUser(): Promise<string>;
+  /** A new account waiting for approval. */
+  freshPendingUser(): Promise<string>;
+  /** A new active account of a role (password "a long enough password") with a session of its own. */
+  freshMember(role: MemberRole): Promise<{ id: string; cookie: string }>;
+  freshInvitation(): Promise<string>;
   freshComment(authorId: string): Promise<string>;
   freshLink(creatorId: string): Promise<string>;
   seq(): number;
@@ -69,6 +79,7 @@ export async function createFixture(): Promise<Fixture> {
   const tokens = { view: view.token, comment: comment.token, expired: expired.token, revoked: revoked.token, unknown: randomBytes(32).toString("base64url") };
   let n = 0;
   const seq = () => ++n;
+  const memberHash = hashPassword(MEMBER_PASSWORD);
   const ids = { admin: acc.ids.admin, editor: acc.ids.editor, viewer: acc.ids.viewer };
   return {
     db, acc, editor2, armId, setId, shortlistId, runId: run.run.id, tokens, seq,
@@ -92,6 +103,20 @@ export async function createFixture(): Promise<Fixture> {
     },
     async freshUser() {
       return (await createUser({ email: `member${seq()}@example.test`, name: `Member ${n}`, passwordHash: "x" })).id;
+    },
+    async freshPendingUser() {
+      const id = (await createUser({ email: `pending${seq()}@example.test`, name: `Pending ${n}`, passwordHash: "x" })).id;
+      await db.client.user.update({ where: { id }, data: { status: "pending" } });
+      return id;
+    },
+    async freshMember(role) {
+      const id = (await createUser({ email: `own${seq()}@example.test`, name: `Own ${n}`, passwordHash: await memberHash })).id;
+      if (role !== "viewer") await setUserRole(acc.ids.admin, id, role);
+      const { token } = await createSession(id);
+      return { id, cookie: `armsift_session=${token}` };
+    },
+    async freshInvitation() {
+      return (await createInvitation(acc.ids.admin, {})).invitation.id;
     },
     async freshComment(authorId) {
       return (await createComment({ kind: "member", userId: authorId }, shortlistId, { body: `comment ${seq()}` })).id;

@@ -10,6 +10,7 @@ import * as links from "@/app/api/shortlists/[id]/links/route";
 import * as linkById from "@/app/api/shortlists/[id]/links/[linkId]/route";
 import * as comments from "@/app/api/shortlists/[id]/comments/route";
 import { commentPosts, shareTokenFailures, shareTokenRequests } from "@/lib/auth/rate-limit";
+import { PEER_HEADER } from "@/lib/http/forwarded";
 
 let f: Fixture;
 beforeAll(async () => {
@@ -17,7 +18,7 @@ beforeAll(async () => {
 }, 120_000);
 afterAll(async () => f?.db.cleanup());
 
-const view = (token: string, ip = "192.0.2.1") => call(share.GET, `/api/share/${token}`, { params: { token }, headers: { "x-forwarded-for": ip } });
+const view = (token: string, ip = "192.0.2.1") => call(share.GET, `/api/share/${token}`, { params: { token }, headers: { [PEER_HEADER]: ip } });
 
 describe("share links through the API", () => {
   it("shows prices only when the link allows, and never arm documents or emails", async () => {
@@ -83,7 +84,7 @@ describe("share links through the API", () => {
     // Another member is not affected.
     expect((await call(comments.POST, "/api/x", { cookie: f.acc.editor, params: { id: f.shortlistId }, body: { body: "mine" } })).status).toBe(201);
     const post = (i: number) =>
-      call(shareComments.POST, "/api/x", { params: { token: f.tokens.comment }, headers: { "x-forwarded-for": "192.0.2.9" }, body: { name: "Guest", body: `guest ${i}` } });
+      call(shareComments.POST, "/api/x", { params: { token: f.tokens.comment }, headers: { [PEER_HEADER]: "192.0.2.9" }, body: { name: "Guest", body: `guest ${i}` } });
     for (let i = 0; i < 30; i++) expect((await post(i)).status).toBe(201);
     expect((await post(31)).status).toBe(429);
     expect(await f.db.client.comment.count({ where: { body: { in: ["one too many", "guest 31"] } } })).toBe(0);

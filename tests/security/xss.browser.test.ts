@@ -80,7 +80,9 @@ describe("stored XSS payloads are rendered inert", () => {
     for (let i = 0; i < 3; i++) {
       const c = await pwRequest.newContext({ baseURL: h.baseUrl });
       const r = await c.post("/api/auth/signup", { data: { email: `member${i}@example.test`, name: clip(PAYLOADS[i * 7], 80), password: "a long member passphrase" } });
-      expect(r.status()).toBe(201);
+      expect(r.status()).toBe(202);
+      const s = await c.post("/api/auth/signin", { data: { email: `member${i}@example.test`, password: "a long member passphrase" } });
+      expect(s.status()).toBe(200);
       api.push(c);
     }
 

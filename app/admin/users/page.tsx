@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import { requireUser, allowed } from "@/app/_lib/session";
 import { UserRoles } from "@/components/UserRoles";
+import { SignUpSettings } from "@/components/SignUpSettings";
+import { Invitations } from "@/components/Invitations";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Users" };
@@ -21,6 +23,8 @@ export default async function UsersPage() {
         <h1>Users</h1>
       </div>
       <UserRoles currentUserId={user.id} />
+      <SignUpSettings />
+      <Invitations />
     </>
   );
 }

@@ -2,8 +2,8 @@ import type { Metadata } from "next";
 import { headers } from "next/headers";
 import { notFound } from "next/navigation";
 import { can } from "@/lib/auth/permissions";
-import { clientAddress, shareTokenFailures, shareTokenRequests } from "@/lib/auth/rate-limit";
-import { resolveShareToken } from "@/lib/db";
+import { lookUpShareToken } from "@/lib/auth/share-access";
+import { clientAddress } from "@/lib/http/forwarded";
 import { shortlistForGuest } from "@/lib/views/share-view";
 import { CAUTION } from "@/lib/analysis/shortlist";
 import { anchorOptions } from "@/lib/views/anchors";
@@ -21,14 +21,9 @@ export const metadata: Metadata = { title: "Shared shortlist", referrer: "no-ref
  */
 export default async function SharePage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
-  const ip = clientAddress(new Request("http://share.invalid/", { headers: await headers() }));
-  if (shareTokenRequests.retryAfterMs(ip) > 0 || shareTokenFailures.retryAfterMs(ip) > 0) notFound();
-  shareTokenRequests.record(ip);
-  const guest = await resolveShareToken(token);
-  if (!guest) {
-    shareTokenFailures.record(ip);
-    notFound();
-  }
+  const lookup = await lookUpShareToken(clientAddress(new Request("http://share.invalid/", { headers: await headers() })), token);
+  if (lookup.kind !== "guest") notFound();
+  const guest = lookup.guest;
   if (!can(guest, "shortlist:read", { shortlistId: guest.shortlistId })) notFound();
   const view = await shortlistForGuest(guest);
   if (!view) notFound();

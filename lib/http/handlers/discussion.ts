@@ -4,12 +4,14 @@
 import { createCommentInput, editCommentInput, guestCommentInput, resolveCommentInput } from "@/shared/schemas/comments";
 import { createLinkInput } from "@/shared/schemas/share";
 import { can, type LinkGuest, type SessionUser } from "@/lib/auth/permissions";
-import { clientAddress, commentPosts, shareTokenFailures, shareTokenRequests } from "@/lib/auth/rate-limit";
+import { commentPosts } from "@/lib/auth/rate-limit";
+import { lookUpShareToken } from "@/lib/auth/share-access";
+import { clientAddress } from "@/lib/http/forwarded";
 import {
   createComment, deleteComment, editComment, getCommentOwner, listCommentRevisions, listCommentThreads, markDiscussionRead,
   mentionableMembers, setCommentResolved, threadForGuest, unreadCounts, type CommentOwner,
 } from "@/lib/db";
-import { createShareLink, getShareLink, listShareLinks, resolveShareToken, revokeShareLink } from "@/lib/db";
+import { createShareLink, getShareLink, listShareLinks, revokeShareLink } from "@/lib/db";
 import { shortlistForGuest } from "@/lib/views/share-view";
 import { getShortlist } from "@/lib/db";
 import { ApiError, forbidden, notFound } from "@/lib/http/errors";
@@ -150,16 +152,10 @@ const GONE = "this link does not exist or no longer works";
  * separately the failed ones, against guessing); any failure is the same 404.
  */
 export async function guestOf(req: Request, token: string): Promise<LinkGuest> {
-  const ip = clientAddress(req);
-  const wait = Math.max(shareTokenRequests.retryAfterMs(ip), shareTokenFailures.retryAfterMs(ip));
-  if (wait > 0) throw rateLimited(wait, "share-link requests");
-  shareTokenRequests.record(ip);
-  const guest = await resolveShareToken(token);
-  if (!guest) {
-    shareTokenFailures.record(ip);
-    throw notFound(GONE);
-  }
-  return guest;
+  const r = await lookUpShareToken(clientAddress(req), token);
+  if (r.kind === "limited") throw rateLimited(r.retryAfterMs, "share-link requests");
+  if (r.kind === "gone") throw notFound(GONE);
+  return r.guest;
 }
 
 export const shareView = route<TokenParams>(async (req, ctx) => {

@@ -1,0 +1,4 @@
+import { userApproval } from "@/lib/http/handlers/auth";
+
+export const dynamic = "force-dynamic";
+export const POST = userApproval;
