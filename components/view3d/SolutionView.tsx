@@ -11,12 +11,13 @@ import { placedArmKinematics } from "@/lib/analysis/context";
 import { linkGeometry } from "@/lib/geometry/arm";
 import { invertRigid, mul4, poseFromRpy, transformPoint } from "@/lib/analysis/geometry";
 import type { ArmAnalysis } from "@/lib/analysis/shortlist";
+import type { TargetAnalysis } from "@/lib/analysis/targets";
 import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import { api } from "../api";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
 import { bodyShapes, cellObstacles } from "./cell";
-import { createRig, forceScale, homeConfiguration, originOf, pathMarks, pointAtArcLength, poseArm, type ArmRig, type ForceMark, type PathMark, type SceneContent, type TargetMark, type Vec3 } from "./scene";
+import { createRig, forceScale, homeConfiguration, originOf, pathMarks, pointAtArcLength, poseArm, type ArmRig, type ForceMark, type PairMark, type PathMark, type SceneContent, type TargetMark, type Vec3 } from "./scene";
 import { mmText, ViewShell } from "./ViewShell";
 
 const KEEPS = "The task matrix, tables and 2-D plots on this page show the same results.";
@@ -36,6 +37,24 @@ interface RunArmView {
   arm: ArmDocument;
   requirementSet: RequirementSet;
   analysis: ArmAnalysis;
+}
+
+/** The clearance check at a target (`cell` of its result; null when the cell checks nothing for the arm). */
+type CellCheck = NonNullable<TargetAnalysis["cell"]>;
+const cellOf = (t: TargetAnalysis): CellCheck | null => t.cell;
+const quoted = (name: string) => (/^(base|link \d+|tool|payload)$/.test(name) ? name : `“${name}”`);
+
+function closestPair(c: NonNullable<CellCheck["closest"]>, required: number): PairMark {
+  const below = c.distance < required ? `, below the required ${mmText(required)}` : "";
+  return {
+    a: c.a, b: c.b, distance: c.distance, depth: null,
+    pointA: c.pointA ? (c.pointA.slice(0, 3) as Vec3) : null, pointB: c.pointB ? (c.pointB.slice(0, 3) as Vec3) : null,
+    text: `closest pair: ${quoted(c.a)} to ${quoted(c.b)}, gap ${mmText(c.distance)}${below}`,
+  };
+}
+
+function collisionPair(c: NonNullable<CellCheck["collision"]>): PairMark {
+  return { a: c.a, b: c.b, distance: 0, depth: c.depth, pointA: null, pointB: null, text: `${VERDICT_SYMBOL.fails} collision: ${quoted(c.a)} hits ${quoted(c.b)}, overlap ${mmText(c.depth)}` };
 }
 
 type Loaded = { view: RunArmView; rig: ArmRig } | { error: string };
@@ -82,7 +101,8 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
 
   const t = a.targets[ti];
   const chosen = t?.chosen ?? null;
-  const b = branch !== null && t && branch < t.solutions.length ? branch : chosen;
+  const b = branch !== null && t && branch < t.solutions.length ? branch : chosen ?? (t && t.solutions.length > 0 ? 0 : null);
+  const cell = t ? cellOf(t) : null;
   const path = a.paths[pi];
 
   const obstacles = useMemo(() => cellObstacles(req), [req]);
@@ -134,7 +154,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
     }
     if (!t) return { content: { ...base, arm: poseArm(rig, homeConfiguration(rig)) }, status: "The requirement set has no targets; the arm is shown at home (q = 0).", force: null };
     const verdictText = `${VERDICT_SYMBOL[t.verdict]} ${t.verdict}`;
-    if (!t.reached || b === null) {
+    if (b === null) {
       return {
         content: { ...base, arm: poseArm(rig, homeConfiguration(rig)) },
         status: `Target ${t.name}: ${verdictText}, not reached (${t.reason}). The arm is shown at home (q = 0).`,
@@ -145,6 +165,15 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
     const arm = poseArm(rig, sol.q);
     const bodies = heldShapes(arm.tool);
     const ghosts = showBranches ? t.solutions.filter((_, i) => i !== b).map((s) => poseArm(rig, s.q)) : [];
+    if (!t.reached) {
+      // Reached by inverse kinematics, but every branch collides in the cell.
+      const only = t.solutions.length === 1 && cell?.collision ? collisionPair(cell.collision) : null;
+      return {
+        content: { ...base, arm, ghosts, bodies, pair: only },
+        status: `Target ${t.name}: ${verdictText}, not reached (${t.reason}). Shown: branch ${b + 1} of ${t.solutions.length}, which collides.`,
+        force: null,
+      };
+    }
     let force: ForceMark | null = null;
     if (b === chosen && t.forceEllipsoid) {
       const required = req.targets[ti]?.force ?? null;
@@ -159,13 +188,17 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
         ...sc,
       };
     }
-    const which = b === chosen ? "the chosen branch (best dexterity margin)" : "another branch";
+    const rule = cell ? "collision-free first, then the required clearance, then the best dexterity margin" : "best dexterity margin";
+    const which = b === chosen ? `the chosen branch (${rule})` : "another branch";
+    // The analysis reports the closest pair of the chosen branch only.
+    const pair = b === chosen && cell?.closest ? closestPair(cell.closest, cell.required) : null;
+    const free = sol.collisionFree === false ? "; this branch collides in the cell" : "";
     return {
-      content: { ...base, arm, ghosts, force, bodies },
-      status: `Target ${t.name}: ${verdictText}; branch ${b + 1} of ${t.solutions.length}, ${which}, dexterity margin D = ${sol.margin.toFixed(2)}.`,
+      content: { ...base, arm, ghosts, force, bodies, pair },
+      status: `Target ${t.name}: ${verdictText}; branch ${b + 1} of ${t.solutions.length}, ${which}, dexterity margin D = ${sol.margin.toFixed(2)}${free}.${pair ? ` ${pair.text[0].toUpperCase()}${pair.text.slice(1)}.` : ""}`,
       force,
     };
-  }, [targets, paths, obstacles, mode, path, sample, pi, t, b, chosen, showBranches, rig, req, ti, span, heldShapes]);
+  }, [targets, paths, obstacles, mode, path, sample, pi, t, b, chosen, showBranches, rig, req, ti, span, heldShapes, cell]);
 
   const f = scene.force;
   const radiiText = f ? f.axes.map((x) => (x.radius === null ? "unbounded" : `${x.radius >= 100 ? x.radius.toFixed(0) : x.radius.toPrecision(3)} N`)).join(", ") : "";
@@ -203,7 +236,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
                 <select id={`v3-branch-${view.armId}`} value={b ?? 0} onChange={(e) => setBranch(Number(e.target.value))}>
                   {t.solutions.map((s, i) => (
                     <option key={i} value={i}>
-                      {i + 1}{i === chosen ? " (chosen)" : ""}: D = {s.margin.toFixed(2)}
+                      {i + 1}{i === chosen ? " (chosen)" : ""}: D = {s.margin.toFixed(2)}{s.collisionFree === false ? ", collides" : ""}
                     </option>
                   ))}
                 </select>
@@ -278,6 +311,11 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
             {paths.length > 0 && <li>Paths: polylines with arrowheads in the direction of travel.</li>}
             {obstacles.length > 0 && <li>Obstacles: translucent clay shapes with their names (the cell frame).</li>}
             {(req.tool.collision?.length ?? 0) + (req.payload.collision?.length ?? 0) > 0 && <li>Tool and payload shapes: translucent blue, where the arm holds them.</li>}
+            {scene.content.pair && (
+              <li data-testid="pair-legend">
+                Closest pair, drawn over in raspberry with the gap as a rod between the closest points: {scene.content.pair.text}.
+              </li>
+            )}
           </>
         }
       />

@@ -16,7 +16,7 @@ import {
 import { OrbitControls } from "three/addons/controls/OrbitControls.js";
 import { CSS2DObject, CSS2DRenderer } from "three/addons/renderers/CSS2DRenderer.js";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
-import { bounds, contentPoints, gridStep, originOf, type ArmFigure, type ForceMark, type ObstacleMark, type PathMark, type Pose, type SceneContent, type TargetMark, type Vec3 } from "./scene";
+import { bounds, contentPoints, gridStep, originOf, pairBodies, type ArmFigure, type ForceMark, type ObstacleMark, type PairMark, type PathMark, type Pose, type SceneContent, type TargetMark, type Vec3 } from "./scene";
 
 /** The palette of the view (our own): a warm drafting-paper ground with ink-like parts. */
 export const PALETTE = {
@@ -41,6 +41,7 @@ export const PALETTE = {
   payload: "#1d1c1a",
   cursor: "#6a4c9c",
   mount: "#6f6656",
+  pair: "#c2376e",
 } as const;
 
 export type PresetView = "iso" | "top" | "front" | "side";
@@ -84,6 +85,8 @@ export interface ViewInspection {
   toolFrame(): number[] | null;
   /** World poses of the drawn joint frames. */
   jointFrames(): number[][];
+  /** Ends of the drawn closest-pair gap (cell frame), or null. */
+  pairEnds(): [Vec3, Vec3] | null;
   camera(): { position: Vec3; target: Vec3 };
   /** Canvas pixel (CSS px from the top left) after a fresh render: [r, g, b, a]. */
   pixel(x: number, y: number): number[];
@@ -118,7 +121,7 @@ export class Viewer {
   private readonly resize: ResizeObserver;
   private readonly groups = {
     grid: new Group(), world: new Group(), arm: new Group(), ghosts: new Group(), mount: new Group(),
-    targets: new Group(), paths: new Group(), obstacles: new Group(), bodies: new Group(), force: new Group(), cursor: new Group(),
+    targets: new Group(), paths: new Group(), obstacles: new Group(), bodies: new Group(), force: new Group(), cursor: new Group(), pair: new Group(),
   };
   private readonly owned = new Map<keyof Viewer["groups"], Owned>();
   private content: SceneContent = {};
@@ -144,6 +147,7 @@ export class Viewer {
     ghost: lambert(PALETTE.ghost, 0.35), reached: lambert(PALETTE.reached), missed: lambert(PALETTE.missed), target: lambert(PALETTE.target),
     path: lambert(PALETTE.path), obstacle: lambert(PALETTE.obstacle, 0.42), body: lambert(PALETTE.body, 0.5), ellipsoid: lambert(PALETTE.ellipsoid, 0.3),
     force: lambert(PALETTE.force), payload: lambert(PALETTE.payload), cursor: lambert(PALETTE.cursor), mount: lambert(PALETTE.mount),
+    pair: lambert(PALETTE.pair, 0.6), pairSolid: lambert(PALETTE.pair),
   };
 
   /**
@@ -218,6 +222,9 @@ export class Viewer {
     if (c.obstacles !== prev.obstacles) this.rebuild("obstacles", () => (c.obstacles ?? []).map((o) => this.buildObstacle(o, this.mats.obstacle, "obstacle")));
     if (c.bodies !== prev.bodies) this.rebuild("bodies", () => (c.bodies ?? []).map((o) => this.buildObstacle(o, this.mats.body, "body")));
     if (c.force !== prev.force) this.rebuild("force", () => (c.force ? [this.buildForce(c.force)] : []));
+    if (c.pair !== prev.pair || c.arm !== prev.arm || c.obstacles !== prev.obstacles || c.bodies !== prev.bodies || resized) {
+      this.rebuild("pair", () => (c.pair ? [this.buildPair(c.pair, c)] : []));
+    }
     if (c.cursor !== prev.cursor || resized) this.rebuild("cursor", () => (c.cursor ? [this.buildCursor(c.cursor)] : []));
     if (resized || this.groups.grid.children.length === 0 || c.floorZ !== prev.floorZ || c.originLabel !== prev.originLabel) {
       this.rebuild("grid", () => [this.buildGrid(b, c.floorZ ?? 0)]);
@@ -447,7 +454,7 @@ export class Viewer {
     return g;
   }
 
-  private buildObstacle(o: ObstacleMark, material: Material, cls: string): Object3D {
+  private buildObstacle(o: ObstacleMark, material: Material, cls: string | null): Object3D {
     const g = new Group();
     let labelAt: Vec3;
     if (o.shape === "box") {
@@ -482,7 +489,7 @@ export class Viewer {
       g.add(mesh);
       labelAt = [mesh.position.x, mesh.position.y, mesh.position.z + o.radius];
     }
-    g.add(this.label(o.name, labelAt, cls));
+    if (cls) g.add(this.label(o.name, labelAt, cls));
     return g;
   }
 
@@ -534,6 +541,44 @@ export class Viewer {
     }
     return g;
   }
+
+  /** The closest pair: both bodies drawn over in the pair colour, the gap as a rod between the closest points, and its words. */
+  private buildPair(p: PairMark, c: SceneContent): Object3D {
+    const g = new Group();
+    const hit = pairBodies(p, c.arm ?? null, c.obstacles ?? [], c.bodies ?? []);
+    const s = this.size;
+    for (const [a, b] of hit.segments) g.add(this.rod(a, b, s * 0.016, this.mats.pair));
+    for (const cap of hit.capsules) {
+      const len = Math.hypot(cap.to[0] - cap.from[0], cap.to[1] - cap.from[1], cap.to[2] - cap.from[2]);
+      const m = new Mesh(this.own(new CapsuleGeometry(cap.radius * 1.06, len, 4, 16)), this.mats.pair);
+      m.position.set((cap.from[0] + cap.to[0]) / 2, (cap.from[1] + cap.to[1]) / 2, (cap.from[2] + cap.to[2]) / 2);
+      if (len > 0) m.quaternion.setFromUnitVectors(Y_AXIS, new Vector3(cap.to[0] - cap.from[0], cap.to[1] - cap.from[1], cap.to[2] - cap.from[2]).normalize());
+      g.add(m);
+    }
+    for (const o of hit.shapes) g.add(this.buildObstacle(o, this.mats.pair, null));
+    let at: Vec3 | null = null;
+    if (p.pointA && p.pointB) {
+      g.add(this.rod(p.pointA, p.pointB, s * 0.003, this.mats.pairSolid));
+      for (const q of [p.pointA, p.pointB]) {
+        const dot = new Mesh(this.shared.sphere, this.mats.pairSolid);
+        dot.position.set(...q);
+        dot.scale.setScalar(s * 0.007);
+        g.add(dot);
+      }
+      at = [(p.pointA[0] + p.pointB[0]) / 2, (p.pointA[1] + p.pointB[1]) / 2, (p.pointA[2] + p.pointB[2]) / 2];
+    } else if (hit.segments.length) {
+      const [a, b] = hit.segments[0];
+      at = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2, (a[2] + b[2]) / 2];
+    } else if (hit.shapes.length) at = contentPoints({ obstacles: [hit.shapes[0]] })[0];
+    if (at) {
+      const l = this.label(p.text, at, "pair");
+      l.center.set(0, 1.2);
+      g.add(l);
+    }
+    this.pairEnds = p.pointA && p.pointB ? [p.pointA, p.pointB] : null;
+    return g;
+  }
+  private pairEnds: [Vec3, Vec3] | null = null;
 
   private buildCursor(c: { at: Vec3; text: string }): Object3D {
     const g = new Group();
@@ -708,6 +753,7 @@ export class Viewer {
         this.scene.updateMatrixWorld(true);
         return this.jointObjects.map((o) => poseOf(o.matrixWorld));
       },
+      pairEnds: () => (this.groups.pair.children.length ? this.pairEnds : null),
       camera: () => ({ position: this.camera.position.toArray() as Vec3, target: this.controls.target.toArray() as Vec3 }),
       pixel: (x, y) => {
         this.render();

@@ -57,6 +57,8 @@ export interface CapsuleMark {
 export interface ArmFigure {
   /** Stick figure from the mounting point through every joint to the tool point (m). */
   segments: [Vec3, Vec3][];
+  /** The body each segment belongs to: 0 = base (mount to frame 0), k = link k (the last link runs to the tool point). */
+  segmentLinks: number[];
   /** Link capsules where the arm gives a collision radius (or geometry); empty otherwise. */
   capsules: CapsuleMark[];
   joints: JointMark[];
@@ -121,12 +123,16 @@ export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
   const f = data.frames;
   const n = model.n;
   const segments: [Vec3, Vec3][] = [];
+  const segmentLinks: number[] = [];
   const capsules: CapsuleMark[] = [];
   const joints: JointMark[] = [];
   const axisBuf = new Float64Array(6);
   const mountOrigin = originOf(rig.mount);
   const o0 = originOf(f, 0);
-  if (norm(sub(o0, mountOrigin)) > 1e-9) segments.push([mountOrigin, o0]);
+  if (norm(sub(o0, mountOrigin)) > 1e-9) {
+    segments.push([mountOrigin, o0]);
+    segmentLinks.push(0);
+  }
   for (let i = 1; i <= n; i++) {
     const prev = originOf(f, 16 * (i - 1));
     const cur = originOf(f, 16 * i);
@@ -138,7 +144,10 @@ export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
     const pieces: [Vec3, Vec3][] = [];
     if (norm(sub(mid, prev)) > 1e-9) pieces.push([prev, mid]);
     if (norm(sub(cur, mid)) > 1e-9) pieces.push([mid, cur]);
-    segments.push(...pieces);
+    for (const piece of pieces) {
+      segments.push(piece);
+      segmentLinks.push(i);
+    }
     const r = model.radius[i - 1];
     if (!rig.links && r > 0) for (const [a, b] of pieces) capsules.push({ link: i, from: a, to: b, radius: r });
     const k = i - 1 + model.axisFrameOffset;
@@ -151,10 +160,13 @@ export function poseArm(rig: ArmRig, q: ArrayLike<number>): ArmFigure {
   for (const c of rig.baseCapsules) capsules.push({ link: 0, from: inFrame(rig.mount, 0, c.from), to: inFrame(rig.mount, 0, c.to), radius: c.radius });
   const flange = slice16(data.flange);
   const tool = slice16(data.toolPose);
-  if (norm(sub(originOf(tool), originOf(flange))) > 1e-9) segments.push([originOf(flange), originOf(tool)]);
+  if (norm(sub(originOf(tool), originOf(flange))) > 1e-9) {
+    segments.push([originOf(flange), originOf(tool)]);
+    segmentLinks.push(n);
+  }
   let size = 0;
   for (const [a, b] of segments) size += norm(sub(b, a));
-  return { segments, capsules, joints, mount: rig.mount.slice(), frame0: slice16(f, 0), flange, tool, size: size > 0 ? size : model.lengthScale };
+  return { segments, segmentLinks, capsules, joints, mount: rig.mount.slice(), frame0: slice16(f, 0), flange, tool, size: size > 0 ? size : model.lengthScale };
 }
 
 /** A target as drawn: its frame, name and (on the shortlist page) its verdict. */
@@ -271,6 +283,42 @@ export function bounds(points: readonly Vec3[]): { min: Vec3; max: Vec3; size: n
   return { min, max, size, center: [(min[0] + max[0]) / 2, (min[1] + max[1]) / 2, (min[2] + max[2]) / 2] };
 }
 
+/**
+ * The closest pair of bodies (or the deepest overlap) at the configuration shown, as the
+ * analysis' clearance check names them: "base", "link k", "tool", "payload" or an obstacle's name.
+ */
+export interface PairMark {
+  a: string;
+  b: string;
+  /** Separation (m); 0 when the bodies touch or overlap. */
+  distance: number;
+  /** Overlap depth (m) when they collide, else null. */
+  depth: number | null;
+  /** Closest points (cell frame, m) when the analysis gives them. */
+  pointA: Vec3 | null;
+  pointB: Vec3 | null;
+  /** The words shown beside it. */
+  text: string;
+}
+
+/** What to draw over a pair's two bodies: the arm's rods and capsules of a named link, matching tool or payload shapes, an obstacle. */
+export function pairBodies(pair: Pick<PairMark, "a" | "b">, arm: ArmFigure | null, obstacles: readonly ObstacleMark[], bodies: readonly ObstacleMark[]): { segments: [Vec3, Vec3][]; capsules: CapsuleMark[]; shapes: ObstacleMark[] } {
+  const out = { segments: [] as [Vec3, Vec3][], capsules: [] as CapsuleMark[], shapes: [] as ObstacleMark[] };
+  for (const name of [pair.a, pair.b]) {
+    const m = /^link (\d+)$/.exec(name);
+    const link = name === "base" ? 0 : m ? Number(m[1]) : null;
+    if (link !== null && arm) {
+      arm.segments.forEach((sg, i) => { if (arm.segmentLinks[i] === link) out.segments.push(sg); });
+      out.capsules.push(...arm.capsules.filter((c) => c.link === link));
+    } else if (name === "tool" || name === "payload") {
+      out.shapes.push(...bodies.filter((b) => b.name === name || b.name.startsWith(`${name}:`) || b.name.startsWith(`${name} `)));
+    } else {
+      out.shapes.push(...obstacles.filter((o) => o.name === name));
+    }
+  }
+  return out;
+}
+
 /** Everything in one view. Parts are compared by identity: keep unchanged parts the same object. */
 export interface SceneContent {
   arm?: ArmFigure | null;
@@ -284,6 +332,8 @@ export interface SceneContent {
   /** Tool and payload shapes where the arm holds them (world frame), drawn apart from the cell. */
   bodies?: ObstacleMark[];
   force?: ForceMark | null;
+  /** The closest pair of bodies (or the deepest overlap) at the configuration shown. */
+  pair?: PairMark | null;
   /** The current path sample (m), with its words. */
   cursor?: { at: Vec3; text: string } | null;
   /** Label of the tool-point frame ("tool point", "TCP"). */

@@ -24,6 +24,7 @@ const SEAM = "Deburring cell: cast pump-cover seam";
 type Inspect = {
   toolFrame(): number[] | null;
   jointFrames(): number[][];
+  pairEnds(): number[][] | null;
   camera(): { position: number[]; target: number[] };
   pixel(x: number, y: number): number[];
   project(p: number[]): [number, number];
@@ -167,6 +168,21 @@ describe("3-D views", () => {
     expect(missed).toBeDefined();
     await section.locator(".v3-label.target.missed", { hasText: `${missed.name} ✗ fails (not reached)` }).waitFor();
     await section.locator(".v3-label.target.reached", { hasText: `${reached[0].x.name} ✓` }).first().waitFor();
+    // The closest pair of the chosen branch: its bodies drawn over, the gap between the analysis' closest points, in words.
+    const withPair = reached.find(({ x }) => x.cell?.closest?.pointA && x.cell.closest.pointB)!;
+    expect(withPair).toBeDefined();
+    await select.selectOption(String(withPair.i));
+    const closest = withPair.x.cell!.closest!;
+    await expect.poll(() => inspect(canvas, "pairEnds")).toEqual([closest.pointA, closest.pointB]);
+    const gap = `gap ${(closest.distance * 1000).toFixed(1)} mm`;
+    await section.getByTestId("pair-legend").getByText(gap, { exact: false }).waitFor();
+    await section.locator(".v3-label.pair", { hasText: `closest pair: ${closest.a}` }).waitFor();
+    await section.getByTestId("view-status").getByText(gap, { exact: false }).waitFor();
+    // Another branch: the analysis gives no pair for it, so none is drawn.
+    if (withPair.x.solutions.length > 1) {
+      await section.getByLabel("Branch (IK solution)").selectOption(String(withPair.x.chosen === 0 ? 1 : 0));
+      await expect.poll(() => inspect(canvas, "pairEnds")).toBeNull();
+    }
     // The force ellipsoid's legend states its scale.
     await select.selectOption(String(reached[0].i));
     await section.getByTestId("force-legend").getByText(/1 mm stands for [\d.]+ N/).waitFor();
@@ -300,7 +316,7 @@ describe("3-D views", () => {
     const req = seedSets.get(BENCH)!;
     await expect.poll(async () => (await frame.locator(".v3-label.target").allTextContents()).sort()).toEqual(req.targets.map((x) => x.name).sort());
     expect(req.cell.obstacles.length).toBeGreaterThan(0);
-    for (const o of req.cell.obstacles) await frame.locator(".v3-label.obstacle", { hasText: o.name }).waitFor();
+    await expect.poll(async () => (await frame.locator(".v3-label.obstacle").allTextContents()).sort()).toEqual(req.cell.obstacles.map((o) => o.name).sort());
     await frame.locator(".v3-label", { hasText: "arm base" }).waitFor();
     expect((await inspect(frame.getByTestId("view3d-canvas"), "coverage")) as number).toBeGreaterThan(0.01);
     expect(t.errors()).toEqual([]);

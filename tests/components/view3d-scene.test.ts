@@ -16,7 +16,7 @@ import { dhToChain, type ArmKinematics, type DhArmKinematics } from "@/lib/kinem
 import { kinematicsOf } from "@/shared/schemas/arm";
 import { createArmContext, placedArmKinematics } from "@/lib/analysis/context";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
-import { axisOf, bounds, createRig, forceScale, gridStep, homeConfiguration, niceStep, originOf, pathMarks, pointAtArcLength, poseArm, type Vec3 } from "@/components/view3d/scene";
+import { axisOf, bounds, boxAt, createRig, pairBodies, forceScale, gridStep, homeConfiguration, niceStep, originOf, pathMarks, pointAtArcLength, poseArm, type Vec3 } from "@/components/view3d/scene";
 import { cellObstacles } from "@/components/view3d/cell";
 import { linkGeometry } from "@/lib/geometry/arm";
 
@@ -168,6 +168,28 @@ describe("3-D view: the shortlist view places the arm as the analysis does", () 
       }
       expect(k).toBe(fig.capsules.length);
     }
+  });
+});
+
+describe("3-D view: the closest pair's bodies", () => {
+  it("finds the named link's rods and capsules, the tool's shapes and the obstacle by the clearance check's names", () => {
+    const doc = loadSeedArms().find((a) => a.convention === "dh")!;
+    const withRadius = { ...doc, joints: doc.joints.map((j) => ({ ...j, radius: 0.04 })) } as typeof doc;
+    const rig = createRig(kinematicsOf(doc), undefined, { links: linkGeometry(withRadius) });
+    const fig = poseArm(rig, homeConfiguration(rig));
+    const n = rig.model.n;
+    const fixture = boxAt("fixture table", [0.5, 0, 0.2], [0.4, 0.4, 0.4]);
+    const tool = boxAt("tool: gripper", [0, 0, 1], [0.1, 0.1, 0.1]);
+    const hit = pairBodies({ a: "link 3", b: "fixture table" }, fig, [fixture, boxAt("other", [0, 0, 0], [1, 1, 1])], [tool]);
+    expect(hit.shapes).toEqual([fixture]);
+    expect(hit.capsules.length).toBeGreaterThan(0);
+    expect(hit.capsules.every((c) => c.link === 3)).toBe(true);
+    expect(hit.segments).toEqual(fig.segments.filter((_, i) => fig.segmentLinks[i] === 3));
+    // The last link runs to the tool point; the tool's shapes are found by the body name "tool".
+    const end = pairBodies({ a: `link ${n}`, b: "tool" }, fig, [fixture], [tool]);
+    expect(end.segments.at(-1)![1]).toEqual(originOf(fig.tool));
+    expect(end.shapes).toEqual([tool]);
+    expect(fig.segmentLinks.length).toBe(fig.segments.length);
   });
 });
 
