@@ -238,6 +238,11 @@ export function bestChoice(lim: EffectiveLimits, layers: readonly Layer[]): { ch
   return { choice: bestChoiceList, time: bestTime };
 }
 
+/** The result for a sequence whose cycle cannot be estimated, with the reason. */
+export function unknownCycle(seq: Sequence, reason: string): CycleResult {
+  return { name: seq.name, time: null, partsPerHour: null, required: seq.required ?? null, verdict: "unknown", estimate: false, assumedAcceleration: [], reason, steps: [] };
+}
+
 /** Cycle time of one sequence for one arm (docs/design.md#cycle-time). */
 export function analyzeCycle(limits: CycleLimits, seq: Sequence, inputs: CycleInputs): CycleResult {
   const lim = effectiveLimits(limits);

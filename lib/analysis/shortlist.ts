@@ -17,9 +17,10 @@ import { checkSpec, IEC_60529_NOTE, requirementText, type SpecResult } from "./s
 import { analyzeTarget, DEFAULT_TARGET_BUDGET, FORCE_MARGINAL_FRACTION, type TargetAnalysis, type TargetBudget } from "./targets";
 import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, type WorkspaceBudget } from "./workspace";
 import type { Verdict } from "./types";
+import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.5.1";
+export const ANALYSIS_VERSION = "analysis-1.6.1";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
@@ -77,6 +78,8 @@ export interface ArmAnalysis {
   paths: PathAnalysis[];
   /** One entry per spec requirement, same order (the compliance table). */
   specs: SpecResult[];
+  /** One entry per requirement-set sequence, same order: the cycle time (docs/design.md#cycle-time). */
+  cycles: CycleResult[];
   workspace: WorkspaceAnalysis | null;
   /** What the cell checks for this arm (null when the arm could not be analysed). */
   cell: ArmCell | null;
@@ -120,7 +123,7 @@ export interface ShortlistCell {
 export interface ShortlistAnalysis {
   version: string;
   caution: string;
-  requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[] };
+  requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[]; sequences: string[] };
   /** The cell the analysis used (absent in older results: made without the cell). */
   cell?: ShortlistCell;
   /** Weights the ranking used (from the requirement set); re-rank with rerank(result, weights). */
@@ -203,7 +206,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
   return {
     version: ANALYSIS_VERSION,
     caution: CAUTION,
-    requirementSet: { name: req.name, targets: req.targets.map((t) => t.name), paths: req.paths.map((p) => p.name), specs: req.specs.map((s) => s.field) },
+    requirementSet: { name: req.name, targets: req.targets.map((t) => t.name), paths: req.paths.map((p) => p.name), specs: req.specs.map((s) => s.field), sequences: (req.sequences ?? []).map((q) => q.name) },
     cell: { obstacles: req.cell.obstacles.map((o) => o.name), clearance: req.cell.clearance, toolShapes: req.tool.collision?.length ?? 0, payloadShapes: req.payload.collision?.length ?? 0 },
     weights: { ...req.weights },
     arms: results,
@@ -240,7 +243,8 @@ function finishArm(
   const cell: ArmCell | null = ctx && !error
     ? { checkedPairs: ctx.cell.pairs.length, skipped: [...ctx.cell.skipped], unmodelled: [...ctx.cell.unmodelled], linkSources: ctx.cell.links.map((l) => l.source) }
     : null;
-  return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, workspace, cell, subScores: sub, failedMusts, unknownMusts, counts, summary };
+  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req);
+  return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, cycles, workspace, cell, subScores: sub, failedMusts, unknownMusts, counts, summary };
 }
 
 /**
