@@ -15,15 +15,3 @@ export function PageHead({ title, count, noun, children }: { title: string; coun
     </div>
   );
 }
-
-/** The list fields of a stored document, as the client list components take them (ISO times). */
-export function listedFields(r: { id: string; name: string; revision: number; updatedAt: Date; updatedBy: { name: string } | null; deletedAt: Date | null }) {
-  return {
-    id: r.id,
-    name: r.name,
-    revision: r.revision,
-    updatedAt: r.updatedAt.toISOString(),
-    updatedBy: r.updatedBy?.name ?? null,
-    deletedAt: r.deletedAt ? r.deletedAt.toISOString() : null,
-  };
-}

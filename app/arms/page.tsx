@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import { listArms } from "@/lib/db";
 import { allowed, requireUser } from "@/app/_lib/session";
-import { ArmCatalog, type ArmRow } from "@/components/arm/ArmCatalog";
-import { listedFields } from "@/components/PageHead";
+import { ArmCatalog } from "@/components/arm/ArmCatalog";
+import { armListing } from "@/lib/views/listing";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Arms" };
@@ -10,19 +10,6 @@ export const metadata: Metadata = { title: "Arms" };
 export default async function ArmsPage() {
   const user = await requireUser("/arms");
   const arms = await listArms({ deleted: "include" });
-  const rows: ArmRow[] = arms.map((a) => ({
-    ...listedFields(a),
-    maker: a.maker,
-    modelCode: a.modelCode,
-    axes: a.axes,
-    specs: {
-      reach: a.specs.reach,
-      ratedPayload: a.specs.ratedPayload,
-      repeatability: a.specs.repeatability,
-      ipCode: a.specs.ipCode,
-      price: a.specs.price,
-      currency: a.specs.currency,
-    },
-  }));
-  return <ArmCatalog arms={rows} canWrite={allowed(user, "arm:write")} />;
+
+  return <ArmCatalog arms={arms.map(armListing)} canWrite={allowed(user, "arm:write")} />;
 }

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { listRequirementSets } from "@/lib/db";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { RequirementList } from "@/components/requirements/RequirementList";
-import { listedFields } from "@/components/PageHead";
+import { listedFields } from "@/lib/views/listing";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Requirement sets" };

@@ -5,30 +5,12 @@ import { UrdfImport } from "./UrdfImport";
 import { show } from "../pose";
 import { mToMm } from "@/shared/units";
 import { price } from "@/shared/format";
+import type { ArmListing } from "@/lib/views/listing";
 
-export interface ArmRow {
-  id: string;
-  name: string;
-  maker: string | null;
-  modelCode: string | null;
-  axes: number;
-  revision: number;
-  updatedAt: string;
-  updatedBy: string | null;
-  deletedAt: string | null;
-  specs: {
-    reach?: number;
-    ratedPayload?: number;
-    repeatability?: number;
-    ipCode?: string;
-    price?: number;
-    currency?: string;
-  };
-}
 
 const dash = "–";
 
-const ARM_COLUMNS: DocumentColumn<ArmRow>[] = [
+const ARM_COLUMNS: DocumentColumn<ArmListing>[] = [
   { head: "Maker", cell: (a) => a.maker ?? dash },
   { head: "Model code", cell: (a) => a.modelCode ?? dash },
   { head: "Axes", num: true, cell: (a) => a.axes },
@@ -44,7 +26,7 @@ const ARM_COLUMNS: DocumentColumn<ArmRow>[] = [
 ];
 
 /** The arm catalog table, deleted arms under a toggle, import of an arm JSON file or a URDF file. */
-export function ArmCatalog({ arms, canWrite }: { arms: ArmRow[]; canWrite: boolean }) {
+export function ArmCatalog({ arms, canWrite }: { arms: ArmListing[]; canWrite: boolean }) {
   const [urdfOpen, setUrdfOpen] = useState(false);
   return (
     <DocumentList

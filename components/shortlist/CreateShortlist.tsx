@@ -5,21 +5,7 @@ import { compareIpAtLeast, parseIpCode } from "@/lib/analysis/spec";
 import { api, byPath } from "../api";
 import { parseNum } from "../pose";
 import { price } from "@/shared/format";
-
-export interface CatalogArm {
-  id: string;
-  name: string;
-  maker: string | null;
-  modelCode: string | null;
-  axes: number;
-  revision: number;
-  /** SI: reach m, payload kg. */
-  reach: number | null;
-  ratedPayload: number | null;
-  ipCode: string | null;
-  price: number | null;
-  currency: string | null;
-}
+import type { ArmListing } from "@/lib/views/listing";
 
 export interface RequirementChoice {
   id: string;
@@ -48,7 +34,7 @@ function FilterNumber(props: { id: string; label: string; unit?: string; value: 
 }
 
 /** Shortlist creation: a requirement set and arms from the catalog, filtered by datasheet values. */
-export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: RequirementChoice[] }) {
+export function CreateShortlist({ arms, sets }: { arms: ArmListing[]; sets: RequirementChoice[] }) {
   const router = useRouter();
   const uid = useId();
   const [name, setName] = useState("");
@@ -78,21 +64,21 @@ export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: Requ
   const shown = useMemo(
     () =>
       arms.filter((a) => {
-        if (reachMm !== undefined && !(a.reach !== null && a.reach * 1000 >= reachMm)) return false;
-        if (payloadKg !== undefined && !(a.ratedPayload !== null && a.ratedPayload >= payloadKg)) return false;
+        if (reachMm !== undefined && !(a.specs.reach !== undefined && a.specs.reach * 1000 >= reachMm)) return false;
+        if (payloadKg !== undefined && !(a.specs.ratedPayload !== undefined && a.specs.ratedPayload >= payloadKg)) return false;
         if (axes !== "any" && a.axes !== Number(axes)) return false;
         if (ip) {
-          const armIp = a.ipCode ? parseIpCode(a.ipCode) : null;
+          const armIp = a.specs.ipCode ? parseIpCode(a.specs.ipCode) : null;
           if (!armIp || compareIpAtLeast(armIp, ip).verdict !== "meets") return false;
         }
-        if (priceMax !== undefined && !(a.price !== null && a.price <= priceMax)) return false;
+        if (priceMax !== undefined && !(a.specs.price !== undefined && a.specs.price <= priceMax)) return false;
         return true;
       }),
     [arms, reachMm, payloadKg, axes, ip, priceMax],
   );
   const axisCounts = [...new Set(arms.map((a) => a.axes))].sort((x, y) => x - y);
   // Prices are compared as stated; with more than one currency in the catalog, the unit says so.
-  const currencies = [...new Set(arms.map((a) => a.currency).filter((c): c is string => !!c))];
+  const currencies = [...new Set(arms.map((a) => a.specs.currency).filter((c): c is string => !!c))];
   const priceUnit = currencies.length === 1 ? currencies[0] : "as stated per arm";
 
   function toggle(id: string, on: boolean) {
@@ -204,10 +190,10 @@ export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: Requ
                     <span className="sub"> {[a.maker, a.modelCode].filter(Boolean).join(" · ")}</span>
                   </td>
                   <td className="num">{a.axes}</td>
-                  <td className="num">{a.reach !== null ? Math.round(a.reach * 1000) : "–"}</td>
-                  <td className="num">{a.ratedPayload ?? "–"}</td>
-                  <td>{a.ipCode ?? "–"}</td>
-                  <td className="num">{price(a.price, a.currency)}</td>
+                  <td className="num">{a.specs.reach !== undefined ? Math.round(a.specs.reach * 1000) : "–"}</td>
+                  <td className="num">{a.specs.ratedPayload ?? "–"}</td>
+                  <td>{a.specs.ipCode ?? "–"}</td>
+                  <td className="num">{price(a.specs.price, a.specs.currency)}</td>
                   <td className="num">{a.revision}</td>
                 </tr>
               ))}

@@ -42,12 +42,12 @@
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { BodyShape, Obstacle } from "@/shared/schemas/cell";
 import type { RequirementSet } from "@/shared/schemas/requirements";
-import { forwardKinematics, type ArmData, type ArmModel } from "@/lib/kinematics";
+import { forwardKinematics, mat4MulRigid, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { createDistanceResult, type DistanceResult, type Shape } from "@/lib/geometry";
 import { distancePacked as distancePackedImport } from "@/lib/geometry/distance";
 import { packShape, placeShape as placeShapeImport, updateBound as updateBoundImport } from "@/lib/geometry/packed";
 import { alwaysTouchingPairs, linkGeometry, type LinkGeometry } from "@/lib/geometry/arm";
-import { IDENTITY_4, mul4 } from "./geometry";
+import { IDENTITY_4, invertRigid, mul4 } from "./geometry";
 
 // Packed-layout constants (lib/geometry/packed.ts) and the hot functions as local bindings, so the
 // hot loops read literals and call functions directly (an imported binding is a property load, or
@@ -258,7 +258,7 @@ export function createCellModel(arm: ArmDocument, req: RequirementSet, model: Ar
   const touching = new Set(alwaysTouchingPairs(links).map(([a, b]) => `${a}-${b}`));
   // the tool and the payload against derived links they cannot leave (same rule as alwaysTouchingPairs)
   const offsets = links.map((g) => g.length);
-  const toolPointInTcp = mul4(invert(tcp), IDENTITY_4);
+  const toolPointInTcp = mul4(invertRigid(tcp), IDENTITY_4);
   const gapFromPoint = (shapes: number[], pointFrameToShapeFrame: Float64Array | null): number => {
     let best = Infinity;
     const probe = new Float64Array(STRIDE), res = createDistanceResult();
@@ -342,16 +342,6 @@ export function createCellModel(arm: ArmDocument, req: RequirementSet, model: Ar
   });
 }
 
-function invert(t: ArrayLike<number>): Float64Array {
-  const out = new Float64Array(16);
-  for (let r = 0; r < 3; r++) {
-    for (let c = 0; c < 3; c++) out[r * 4 + c] = t[c * 4 + r];
-    out[r * 4 + 3] = -(t[r] * t[3] + t[4 + r] * t[7] + t[8 + r] * t[11]);
-  }
-  out[15] = 1;
-  return out;
-}
-
 /** Makes the buffers for `cell`; places the fixed base shapes once. */
 export function createCellData(cell: CellModel, base: ArrayLike<number>): CellData {
   const count = cell.shapeBody.length, np = cell.pairs.length;
@@ -369,14 +359,7 @@ export function createCellData(cell: CellModel, base: ArrayLike<number>): CellDa
 export function placeCell(cell: CellModel, cd: CellData, model: ArmModel, data: ArmData, q: ArrayLike<number>): void {
   forwardKinematics(model, data, q);
   const F = data.frames, n = cell.n, tp = cd.toolPoint, t = cell.armTool, fo = 16 * n;
-  for (let r = 0; r < 12; r += 4) {
-    const f0 = F[fo + r], f1 = F[fo + r + 1], f2 = F[fo + r + 2], f3 = F[fo + r + 3];
-    tp[r] = f0 * t[0] + f1 * t[4] + f2 * t[8];
-    tp[r + 1] = f0 * t[1] + f1 * t[5] + f2 * t[9];
-    tp[r + 2] = f0 * t[2] + f1 * t[6] + f2 * t[10];
-    tp[r + 3] = f0 * t[3] + f1 * t[7] + f2 * t[11] + f3;
-  }
-  tp[15] = 1;
+  mat4MulRigid(tp, F, t, 0, fo, 0);
   const count = cell.shapeBody.length, W = cd.world, L = cell.shapeLocal;
   for (let i = 0; i < count; i++) {
     const f = cell.shapeFrame[i], o = STRIDE * i;

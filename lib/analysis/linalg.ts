@@ -11,7 +11,9 @@
  * Both allocate their results (the analysis is not the IK hot path). The Jacobi sweeps are the
  * kinematics' own (`jacobiEigenInPlace`), so both parts share one implementation.
  */
-import { jacobiEigenInPlace } from "@/lib/kinematics/math/linalg";
+import { jacobiEigenInPlace, jacobiRotation, rotatePair } from "@/lib/kinematics/math/linalg";
+
+const cs = new Float64Array(2);
 
 /** Result of {@link svdRows} for an m×n matrix A = U·diag(σ)·Vᵀ (only the first m right vectors). */
 export interface SvdRows {
@@ -51,19 +53,9 @@ export function svdRows(a: ArrayLike<number>, m: number, n: number, rowStart = 0
         }
         if (gamma === 0 || Math.abs(gamma) <= 1e-15 * Math.sqrt(alpha * beta)) continue;
         rotated = true;
-        const zeta = (beta - alpha) / (2 * gamma);
-        const t = (zeta >= 0 ? 1 : -1) / (Math.abs(zeta) + Math.sqrt(1 + zeta * zeta));
-        const c = 1 / Math.sqrt(1 + t * t), s = c * t;
-        for (let k = 0; k < n; k++) {
-          const x = w[p * n + k], y = w[q * n + k];
-          w[p * n + k] = c * x - s * y;
-          w[q * n + k] = s * x + c * y;
-        }
-        for (let r = 0; r < m; r++) {
-          const x = u[r * m + p], y = u[r * m + q];
-          u[r * m + p] = c * x - s * y;
-          u[r * m + q] = s * x + c * y;
-        }
+        jacobiRotation((beta - alpha) / (2 * gamma), cs);
+        rotatePair(w, p * n, q * n, 1, n, cs[0], cs[1]); // rows p and q of W
+        rotatePair(u, p, q, m, m, cs[0], cs[1]); // columns p and q of U
       }
     }
     if (!rotated) break;

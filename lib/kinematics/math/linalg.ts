@@ -42,6 +42,34 @@ export function choleskySolve(l: Float64Array, k: number, b: ArrayLike<number>, 
 }
 
 /**
+ * The Jacobi rotation that zeroes one off-diagonal pair, from ζ = (a_qq − a_pp) / (2·a_pq) (or the
+ * column-pair analogue of the one-sided method): t the smaller root of t² + 2ζt − 1 = 0,
+ * c = 1/√(1 + t²), s = c·t. Writes [c, s] into `out`. Golub & Van Loan, "Matrix Computations",
+ * §8.5.2 (from memory).
+ */
+export function jacobiRotation(zeta: number, out: Float64Array): void {
+  const t = (zeta >= 0 ? 1 : -1) / (Math.abs(zeta) + Math.sqrt(1 + zeta * zeta));
+  const c = 1 / Math.sqrt(1 + t * t);
+  out[0] = c;
+  out[1] = c * t;
+}
+
+/**
+ * Rotates two lines of a row-major buffer in place: x ← c·x − s·y, y ← s·x + c·y for `count`
+ * elements, x starting at `i`, y at `j`, both stepping by `step` (a row: step 1; a column: step =
+ * the row length).
+ */
+export function rotatePair(buf: Float64Array, i: number, j: number, step: number, count: number, c: number, s: number): void {
+  for (let k = 0; k < count; k++) {
+    const x = buf[i + k * step], y = buf[j + k * step];
+    buf[i + k * step] = c * x - s * y;
+    buf[j + k * step] = s * x + c * y;
+  }
+}
+
+const cs = new Float64Array(2);
+
+/**
  * Cyclic Jacobi rotations on the symmetric k×k matrix `a` (row-major) until the off-diagonal part
  * is negligible; `a` is destroyed (its diagonal holds the eigenvalues, unsorted, on return). When
  * `v` (k×k, row-major, usually the identity on entry) is given, each rotation is also applied to
@@ -62,27 +90,11 @@ export function jacobiEigenInPlace(a: Float64Array, k: number, v?: Float64Array)
         const apq = a[p * k + q];
         if (apq === 0) continue;
         const app = a[p * k + p], aqq = a[q * k + q];
-        const tau = (aqq - app) / (2 * apq);
-        const t = (tau >= 0 ? 1 : -1) / (Math.abs(tau) + Math.sqrt(1 + tau * tau));
-        const c = 1 / Math.sqrt(1 + t * t);
-        const s = t * c;
-        for (let r = 0; r < k; r++) {
-          const arp = a[r * k + p], arq = a[r * k + q];
-          a[r * k + p] = c * arp - s * arq;
-          a[r * k + q] = s * arp + c * arq;
-        }
-        for (let r = 0; r < k; r++) {
-          const apr = a[p * k + r], aqr = a[q * k + r];
-          a[p * k + r] = c * apr - s * aqr;
-          a[q * k + r] = s * apr + c * aqr;
-        }
-        if (v) {
-          for (let r = 0; r < k; r++) {
-            const vrp = v[r * k + p], vrq = v[r * k + q];
-            v[r * k + p] = c * vrp - s * vrq;
-            v[r * k + q] = s * vrp + c * vrq;
-          }
-        }
+        jacobiRotation((aqq - app) / (2 * apq), cs);
+        const c = cs[0], s = cs[1];
+        rotatePair(a, p, q, k, k, c, s); // columns p and q
+        rotatePair(a, p * k, q * k, 1, k, c, s); // rows p and q
+        if (v) rotatePair(v, p, q, k, k, c, s);
       }
     }
   }
