@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { useId, useRef, useState, type ReactNode } from "react";
 import { api } from "./api";
 import { PageHead } from "./PageHead";
-import { utc } from "./time";
+import { utc } from "@/shared/format";
 
 /** What a listed document (arm, requirement set) has for the list's own columns and controls. */
 export interface ListedDocument {

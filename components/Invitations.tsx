@@ -3,7 +3,7 @@ import { useEffect, useState } from "react";
 import { ROLES, type Role } from "@/shared/schemas/roles";
 import { api, byPath } from "./api";
 import { ErrorSummary, SelectField, TextField, errText } from "./fields";
-import { utc } from "./time";
+import { utc } from "@/shared/format";
 
 interface Invitation {
   id: string;

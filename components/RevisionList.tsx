@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { utc } from "@/shared/format";
 
 export interface RevisionRow {
   revision: number;
@@ -7,7 +8,7 @@ export interface RevisionRow {
   summary: string;
 }
 
-const when = (iso: string) => new Date(iso).toISOString().slice(0, 19).replace("T", " ") + " UTC";
+const when = (iso: string) => utc(iso, { seconds: true });
 
 /** Revisions newest first, each opening a read-only view. */
 export function RevisionList({ revisions, baseHref, current }: { revisions: RevisionRow[]; baseHref: string; current: number }) {

@@ -3,21 +3,14 @@
  * X, Y, Z (R = Rz(yaw)·Ry(pitch)·Rx(roll)), converted to and from the row-major 4×4 in SI (m).
  * Text stays text until saving, so nothing typed is lost.
  */
+import { editable } from "@/shared/format";
 import { poseRpy } from "@/shared/pose";
 import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
 
 export const RPY_CONVENTION = "roll-pitch-yaw about the fixed axes X, Y, Z: R = Rz(yaw)·Ry(pitch)·Rx(roll)";
 
-/**
- * Shown number: up to 9 significant digits, so float noise (100.00000000000001) and the last digits
- * of angles stored as rounded radians (90.0000000017°) do not show. Forms send unedited values
- * back exactly as loaded, so this rounding never changes stored data.
- */
-export function show(v: number | undefined | null): string {
-  if (v === undefined || v === null || !Number.isFinite(v)) return "";
-  const r = Number(v.toPrecision(9));
-  return Object.is(r, -0) ? "0" : String(r);
-}
+/** A number as a form shows it for editing (9 significant digits; empty when missing): shared/format.ts. */
+export const show = (v: number | undefined | null): string => editable(v);
 
 /** Parses what a person typed: accepts a Unicode minus and surrounding spaces. Empty → undefined. */
 export function parseNum(text: string): number | undefined | "bad" {

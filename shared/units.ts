@@ -29,10 +29,3 @@ export function jointSpeedUnit(type: "revolute" | "prismatic"): "°/s" | "mm/s" 
 export function jointTorqueUnit(type: "revolute" | "prismatic"): "N·m" | "N" {
   return type === "revolute" ? "N·m" : "N";
 }
-
-/** Formats a number for display with a fixed count of significant decimals, trimming "-0". */
-export function fmt(value: number | null | undefined, decimals = 2): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return "–";
-  const s = value.toFixed(decimals);
-  return /^-0(\.0+)?$/.test(s) ? s.slice(1) : s;
-}

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { listShortlistsFor } from "@/lib/db";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { PageHead } from "@/components/PageHead";
-import { utc } from "@/components/time";
+import { utc } from "@/shared/format";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Shortlists" };

@@ -6,7 +6,8 @@ import path from "node:path";
 import { analyzeShortlist, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis";
 import { analysisKey } from "@/lib/analysis/key";
 import { csvText } from "@/lib/export/csv";
-import { requirementSetSchema } from "@/shared/schemas/requirements";
+import { COMPARATOR_TEXT, requirementSetSchema } from "@/shared/schemas/requirements";
+import { fixed } from "@/shared/format";
 import { CliError, parseOptions, readArm, readDocument, required, type CliCommand } from "../io";
 
 /**
@@ -19,14 +20,14 @@ export function complianceCsv(result: ShortlistAnalysis): string {
   for (let i = 0; i < nSpecs; i++) {
     for (const a of result.arms) {
       const s = a.specs[i];
-      rows.push(["spec", s.label, s.priority, `${{ atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" }[s.comparator]} ${s.requiredDisplay}`, a.name, s.valueDisplay, s.displayUnit, s.verdict, s.reason]);
+      rows.push(["spec", s.label, s.priority, `${COMPARATOR_TEXT[s.comparator].symbol} ${s.requiredDisplay}`, a.name, s.valueDisplay, s.displayUnit, s.verdict, s.reason]);
     }
   }
   result.requirementSet.targets.forEach((name, i) => {
     for (const a of result.arms) {
       const t = a.targets[i];
       if (!t) { rows.push(["target", name, "", "reached", a.name, "", "", "unknown", a.error ?? ""]); continue; }
-      rows.push(["target", name, "", `reached (${t.mode})`, a.name, t.reached ? t.dexterity!.margin.toFixed(3) : (t.positionError * 1000).toFixed(1), t.reached ? "dexterity margin" : "mm position error", t.verdict, t.reason]);
+      rows.push(["target", name, "", `reached (${t.mode})`, a.name, t.reached ? fixed(t.dexterity!.margin, 3) : fixed(t.positionError * 1000, 1), t.reached ? "dexterity margin" : "mm position error", t.verdict, t.reason]);
     }
   });
   result.requirementSet.paths.forEach((name, i) => {
@@ -34,7 +35,7 @@ export function complianceCsv(result: ShortlistAnalysis): string {
       const p = a.paths[i];
       if (!p) { rows.push(["path", name, "", "followed", a.name, "", "", "unknown", a.error ?? ""]); continue; }
       const f = p.speed.achievableFraction;
-      rows.push(["path", name, "", `${(p.speed.required * 1000).toFixed(0)} mm/s`, a.name, f === null ? "" : (f * 100).toFixed(0), f === null ? "" : "% of required speed", p.verdict, p.reason]);
+      rows.push(["path", name, "", `${fixed(p.speed.required * 1000, 0)} mm/s`, a.name, f === null ? "" : fixed(f * 100, 0), f === null ? "" : "% of required speed", p.verdict, p.reason]);
     }
   });
   return csvText(rows, "\n");

@@ -4,6 +4,7 @@ import { readFileSync, statSync } from "node:fs";
 import path from "node:path";
 import { importUrdf, UrdfError, URDF_LIMITS } from "@/lib/urdf";
 import { CliError, parseOptions, required, type CliCommand } from "../io";
+import { count } from "@/shared/format";
 
 export const command: CliCommand = {
   usage: "import-urdf --file robot.urdf [--base LINK] [--tip LINK]  → the arm file (JSON)",
@@ -14,7 +15,7 @@ export const command: CliCommand = {
     let bytes: Buffer;
     try {
       const size = statSync(file).size;
-      if (size > URDF_LIMITS.bytes) throw new CliError(field, `is ${size.toLocaleString("en-US")} bytes; the limit is 2 MiB (${URDF_LIMITS.bytes.toLocaleString("en-US")} bytes)`);
+      if (size > URDF_LIMITS.bytes) throw new CliError(field, `is ${count(size)} bytes; the limit is 2 MiB (${count(URDF_LIMITS.bytes)} bytes)`);
       bytes = readFileSync(file);
     } catch (e) {
       if (e instanceof CliError) throw e;

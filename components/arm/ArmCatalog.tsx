@@ -4,6 +4,7 @@ import { DocumentList, type DocumentColumn } from "../DocumentList";
 import { UrdfImport } from "./UrdfImport";
 import { show } from "../pose";
 import { mToMm } from "@/shared/units";
+import { price } from "@/shared/format";
 
 export interface ArmRow {
   id: string;
@@ -38,7 +39,7 @@ const ARM_COLUMNS: DocumentColumn<ArmRow>[] = [
   {
     head: "Price",
     num: true,
-    cell: (a) => (a.specs.price !== undefined ? `${a.specs.price.toLocaleString("en-US", { maximumFractionDigits: 2 })} ${a.specs.currency ?? ""}`.trim() : dash),
+    cell: (a) => (a.specs.price !== undefined ? price(a.specs.price, a.specs.currency) : dash),
   },
 ];
 

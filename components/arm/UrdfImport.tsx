@@ -12,6 +12,7 @@ import type { UrdfImportReport } from "@/lib/urdf";
 import { jointSpeedUnit, jointToDisplay, jointTorqueUnit, jointUnit, mToMm } from "@/shared/units";
 import { api } from "../api";
 import { show } from "../pose";
+import { count } from "@/shared/format";
 
 interface Preview {
   arm: ArmDocument;
@@ -82,7 +83,7 @@ export function UrdfImport({ onClose }: { onClose: () => void }) {
                 if (!f) return;
                 if (f.size > 2 * 1024 * 1024) {
                   setPreview(null);
-                  setProblem(`${f.name} is ${f.size.toLocaleString("en-US")} bytes; the limit is 2 MiB.`);
+                  setProblem(`${f.name} is ${count(f.size)} bytes; the limit is 2 MiB.`);
                   return;
                 }
                 const next = { name: f.name, text: await f.text() };

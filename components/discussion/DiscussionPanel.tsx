@@ -3,6 +3,7 @@ import { useCallback, useEffect, useMemo, useState } from "react";
 import { api } from "@/components/api";
 import type { AnchorOption } from "@/lib/views/anchors";
 import "./discussion.css";
+import { utc } from "@/shared/format";
 
 export type { AnchorOption };
 
@@ -40,7 +41,7 @@ interface Revision {
 }
 
 const anchorKey = (a: { type: string; id: string | null }) => `${a.type}:${a.id ?? ""}`;
-const when = (iso: string) => new Date(iso).toISOString().slice(0, 16).replace("T", " ") + " UTC";
+const when = (iso: string) => utc(iso);
 const newKey = () => (typeof crypto !== "undefined" && "randomUUID" in crypto ? crypto.randomUUID() : `${Date.now()}-${Math.random().toString(36).slice(2)}`);
 
 function authorName(a: Author): string {

@@ -5,6 +5,7 @@
  */
 import {
   COMPARATORS,
+  COMPARATOR_TEXT,
   DEFAULT_CLEARANCE,
   DEFAULT_WEIGHTS,
   SPEC_FIELDS,
@@ -94,7 +95,9 @@ export interface ReqForm {
   origPose: Record<string, { text: PoseText; matrix: number[] }>;
 }
 
-export const COMPARATOR_LABEL: Record<Comparator, string> = { atLeast: "at least (≥)", atMost: "at most (≤)", equals: "equals (=)", includes: "includes" };
+export const COMPARATOR_LABEL = Object.fromEntries(
+  COMPARATORS.map((c) => [c, c === "includes" ? COMPARATOR_TEXT[c].words : `${COMPARATOR_TEXT[c].words} (${COMPARATOR_TEXT[c].symbol})`]),
+) as Record<Comparator, string>;
 
 export function comparatorsFor(field: SpecField): Comparator[] {
   const kind = SPEC_FIELDS[field].kind;

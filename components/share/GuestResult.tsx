@@ -1,4 +1,5 @@
 import type { GuestShortlistView } from "@/lib/views/share-view";
+import { fixed } from "@/shared/format";
 
 const Verdict = ({ v, reason }: { v: string; reason: string }) => (
   <span className={`verdict-${v}`} title={reason}>
@@ -57,7 +58,7 @@ export function GuestResult({ view }: { view: GuestShortlistView }) {
                   <tr key={r.armId}>
                     <td>{r.disqualified ? "—" : r.rank}</td>
                     <td>{r.name}</td>
-                    <td>{r.score.toFixed(3)}</td>
+                    <td>{fixed(r.score, 3)}</td>
                     <td>
                       {[...r.failedMusts, ...(r.hiddenFailedMusts > 0 ? [`${r.hiddenFailedMusts} price requirement${r.hiddenFailedMusts > 1 ? "s" : ""}`] : [])].join("; ") || "none"}
                     </td>

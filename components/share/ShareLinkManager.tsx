@@ -2,6 +2,7 @@
 import { useCallback, useEffect, useState } from "react";
 import { api } from "@/components/api";
 import "@/components/discussion/discussion.css";
+import { utcDate } from "@/shared/format";
 
 interface LinkView {
   id: string;
@@ -15,7 +16,7 @@ interface LinkView {
   state: "active" | "expired" | "revoked";
 }
 
-const day = (iso: string | null) => (iso ? new Date(iso).toISOString().slice(0, 10) : "never");
+const day = (iso: string | null) => utcDate(iso, "never");
 
 /**
  * Share links of a shortlist: make a view or comment link (optional expiry, hide prices), see the

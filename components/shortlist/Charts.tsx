@@ -1,6 +1,6 @@
 "use client";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from "recharts";
-import { fmtNum } from "./verdict";
+import { fixed } from "@/shared/format";
 import { useMounted } from "./useMounted";
 
 export interface PathProfileData {
@@ -34,7 +34,7 @@ export function PathProfileChart({ data }: { data: PathProfileData }) {
             <CartesianGrid stroke="#e7eaee" />
             <XAxis dataKey="s" type="number" tick={{ fontSize: 11 }} label={{ value: "path length (mm)", position: "insideBottom", offset: -8, fontSize: 11 }} />
             <YAxis tick={{ fontSize: 11 }} width={62} label={{ value: "σ min (mm/rad)", angle: -90, position: "insideLeft", offset: 4, fontSize: 11, style: { textAnchor: "middle" } }} />
-            <Tooltip formatter={(v) => fmtNum(Number(v), 1)} labelFormatter={(s) => `s = ${fmtNum(Number(s), 0)} mm`} />
+            <Tooltip formatter={(v) => fixed(Number(v), 1)} labelFormatter={(s) => `s = ${fixed(Number(s), 0)} mm`} />
             <Line type="linear" dataKey="sigma" name="σ min (mm/rad)" stroke="#2f5d8a" dot={false} isAnimationActive={false} connectNulls={false} />
           </LineChart>
         </ResponsiveContainer>
@@ -44,7 +44,7 @@ export function PathProfileChart({ data }: { data: PathProfileData }) {
             <XAxis dataKey="s" type="number" tick={{ fontSize: 11 }} label={{ value: "path length (mm)", position: "insideBottom", offset: -8, fontSize: 11 }} />
             <YAxis tick={{ fontSize: 11 }} width={62} label={{ value: "joint speed use (%)", angle: -90, position: "insideLeft", offset: 4, fontSize: 11, style: { textAnchor: "middle" } }} />
             <ReferenceLine y={100} stroke="#a3231a" strokeDasharray="5 3" label={{ value: "joint limit", fontSize: 10, position: "insideTopRight" }} />
-            <Tooltip formatter={(v) => `${fmtNum(Number(v), 0)} %`} labelFormatter={(s) => `s = ${fmtNum(Number(s), 0)} mm`} />
+            <Tooltip formatter={(v) => `${fixed(Number(v), 0)} %`} labelFormatter={(s) => `s = ${fixed(Number(s), 0)} mm`} />
             <Line type="linear" dataKey="speedUse" name="best joint speeds (%)" stroke="#8a6d2f" strokeDasharray="6 2" dot={false} isAnimationActive={false} connectNulls={false} />
             <Line type="linear" dataKey="trajectoryUse" name="trajectory found (%)" stroke="#5b4a8a" dot={false} isAnimationActive={false} connectNulls={false} />
           </LineChart>
@@ -90,7 +90,7 @@ export function WorkspaceChart({ data }: { data: WorkspaceData }) {
           <XAxis dataKey={xk} type="number" tick={{ fontSize: 11 }} label={{ value: `${kind === "side" ? "radius from base axis" : "x"} (mm)`, position: "insideBottom", offset: -8, fontSize: 11 }} />
           <YAxis dataKey={yk} type="number" tick={{ fontSize: 11 }} width={62} label={{ value: `${kind === "side" ? "z" : "y"} (mm)`, angle: -90, position: "insideLeft", offset: 4, fontSize: 11, style: { textAnchor: "middle" } }} />
           <ZAxis range={[30, 30]} />
-          <Tooltip formatter={(v) => fmtNum(Number(v), 0)} />
+          <Tooltip formatter={(v) => fixed(Number(v), 0)} />
           <Scatter name="envelope (sampled)" data={closed} line={{ stroke: "#6b8fb3" }} shape={() => <g />} isAnimationActive={false} />
           <Scatter name="target reached (●)" data={reached} shape={<TargetShape />} isAnimationActive={false} />
           <Scatter name="target not reached (✗)" data={missed} shape={<TargetShape />} isAnimationActive={false} fill="#a3231a" />

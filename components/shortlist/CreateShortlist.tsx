@@ -4,6 +4,7 @@ import { useId, useMemo, useState } from "react";
 import { compareIpAtLeast, parseIpCode } from "@/lib/analysis/spec";
 import { api, byPath } from "../api";
 import { parseNum } from "../pose";
+import { price } from "@/shared/format";
 
 export interface CatalogArm {
   id: string;
@@ -206,7 +207,7 @@ export function CreateShortlist({ arms, sets }: { arms: CatalogArm[]; sets: Requ
                   <td className="num">{a.reach !== null ? Math.round(a.reach * 1000) : "–"}</td>
                   <td className="num">{a.ratedPayload ?? "–"}</td>
                   <td>{a.ipCode ?? "–"}</td>
-                  <td className="num">{a.price !== null ? `${a.price.toLocaleString("en-US")} ${a.currency ?? ""}` : "–"}</td>
+                  <td className="num">{price(a.price, a.currency)}</td>
                   <td className="num">{a.revision}</td>
                 </tr>
               ))}

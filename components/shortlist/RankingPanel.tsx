@@ -6,7 +6,7 @@ import type { Weights } from "@/shared/schemas/requirements";
 import { rankArms, subScoreOf, type ArmScoreInput, type SubScore } from "@/lib/analysis/ranking";
 import { SUB_SCORES } from "@/shared/sub-scores";
 import { api } from "../api";
-import { fmtNum } from "./verdict";
+import { fixed } from "@/shared/format";
 import { useMounted } from "./useMounted";
 
 export interface RankingArm extends ArmScoreInput {
@@ -76,7 +76,7 @@ export function RankingPanel(props: {
     } else setSaveMsg({ ok: false, text: `Not saved: ${r.error.message}` });
   }
 
-  const subCell = (s: SubScore, c: number) => (s.applicable ? `${fmtNum(c, 3)} (${fmtNum(s.value, 2)})` : "n/a");
+  const subCell = (s: SubScore, c: number) => (s.applicable ? `${fixed(c, 3)} (${fixed(s.value, 2)})` : "n/a");
 
   return (
     <section className="panel" aria-labelledby={uid + "-h"} data-testid="ranking">
@@ -129,7 +129,7 @@ export function RankingPanel(props: {
                 <CartesianGrid horizontal={false} stroke="#e7eaee" />
                 <XAxis type="number" domain={[0, 1]} ticks={[0, 0.25, 0.5, 0.75, 1]} tick={{ fontSize: 12 }} />
                 <YAxis type="category" dataKey="name" width={150} tick={{ fontSize: 12 }} />
-                <Tooltip formatter={(v, n) => [fmtNum(Number(v), 3), SUB_SCORE_LABELS[n as SubScoreKey] ?? String(n)]} />
+                <Tooltip formatter={(v, n) => [fixed(Number(v), 3), SUB_SCORE_LABELS[n as SubScoreKey] ?? String(n)]} />
                 <Legend formatter={(v) => SUB_SCORE_LABELS[v as SubScoreKey] ?? v} wrapperStyle={{ fontSize: 12 }} />
                 {SUB_SCORE_KEYS.map((k) => (
                   <Bar key={k} dataKey={k} stackId="s" fill={SUB_SCORE_COLOURS[k]} isAnimationActive={false} />
@@ -166,7 +166,7 @@ export function RankingPanel(props: {
                     {r.unknownMusts.length > 0 && <div className="sub">? must with missing data: {r.unknownMusts.join("; ")}</div>}
                   </th>
                   <td className="num">
-                    <strong>{fmtNum(r.score, 3)}</strong>
+                    <strong>{fixed(r.score, 3)}</strong>
                   </td>
                   {SUB_SCORE_KEYS.map((k) => (
                     <td className="num" key={k} title={subScoreOf(a.subScores, k).note}>
@@ -188,7 +188,7 @@ export function RankingPanel(props: {
                 <span className="verdict v-fails">
                   <span aria-hidden="true">✗</span> {byId.get(r.armId)!.name}
                 </span>{" "}
-                — fails: {r.failedMusts.join("; ")} <span className="sub">(score {fmtNum(r.score, 3)} for reference)</span>
+                — fails: {r.failedMusts.join("; ")} <span className="sub">(score {fixed(r.score, 3)} for reference)</span>
               </li>
             ))}
           </ul>

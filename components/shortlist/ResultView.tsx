@@ -1,14 +1,15 @@
-import type { Weights } from "@/shared/schemas/requirements";
+import { COMPARATOR_TEXT, type Weights } from "@/shared/schemas/requirements";
 import type { ArmAnalysis, ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import { PathProfileChart, WorkspaceChart } from "./Charts";
 import { RankingPanel, type RankingArm } from "./RankingPanel";
 import { TaskMatrix } from "./TaskMatrix";
-import { fmtNum, VerdictTag } from "./verdict";
+import { fixed } from "@/shared/format";
+import { VerdictTag } from "./verdict";
 import { matrixColumns, matrixRows, pathProfile, workspaceData } from "./view";
 import { armClearance } from "@/lib/analysis/clearance";
 import { CellCaution } from "../CellCaution";
 
-const mmText = (m: number | null | undefined, d = 1) => (m === null || m === undefined ? "–" : fmtNum(m * 1000, d));
+const mmText = (m: number | null | undefined, d = 1) => (m === null || m === undefined ? "–" : fixed(m * 1000, d));
 
 /** The cell at each target and along each path of one arm: collision-free or not, clearance and the closest pair. */
 function CellTable({ arm, required }: { arm: ArmAnalysis; required: number }) {
@@ -55,8 +56,8 @@ function CellTable({ arm, required }: { arm: ArmAnalysis; required: number }) {
                   <td className="num">{p.cell.collisionFree ? mmText(p.cell.clearance) : "–"}</td>
                   <td>
                     {p.cell.firstCollision
-                      ? `${p.cell.firstCollision.a} hits ${p.cell.firstCollision.b} at ${fmtNum(p.cell.firstCollision.s * 1000, 0)} mm${p.cell.firstCollision.between ? " (between samples)" : ""}`
-                      : p.cell.closest ? `${p.cell.closest.a} – ${p.cell.closest.b} at ${fmtNum(p.cell.closest.s * 1000, 0)} mm` : "–"}
+                      ? `${p.cell.firstCollision.a} hits ${p.cell.firstCollision.b} at ${fixed(p.cell.firstCollision.s * 1000, 0)} mm${p.cell.firstCollision.between ? " (between samples)" : ""}`
+                      : p.cell.closest ? `${p.cell.closest.a} – ${p.cell.closest.b} at ${fixed(p.cell.closest.s * 1000, 0)} mm` : "–"}
                   </td>
                   <td className="num">–</td>
                 </tr>
@@ -75,7 +76,7 @@ import { SolutionViewPanel } from "../view3d/launchers";
 const norm = (v: readonly number[]) => Math.hypot(...v);
 const dirText = (v: readonly number[]) => {
   const n = norm(v);
-  return n > 0 ? `(${v.map((x) => fmtNum(x / n, 2)).join(", ")})` : "–";
+  return n > 0 ? `(${v.map((x) => fixed(x / n, 2)).join(", ")})` : "–";
 };
 
 function ForceTable({ arm }: { arm: ArmAnalysis }) {
@@ -109,12 +110,12 @@ function ForceTable({ arm }: { arm: ArmAnalysis }) {
             return (
               <tr key={t.name}>
                 <th scope="row">{t.name}</th>
-                <td className="num">{fN > 0 ? fmtNum(fN, 1) : "–"}</td>
+                <td className="num">{fN > 0 ? fixed(fN, 1) : "–"}</td>
                 <td>{fN > 0 ? dirText(f.force) : mN > 0 ? dirText(f.moment) : "–"}</td>
-                <td className="num">{f.forceCapacity !== null ? fmtNum(f.forceCapacity, 1) : f.status === "unbounded" ? "structure" : "–"}</td>
-                <td className="num">{est !== null && fN > 0 ? fmtNum(est * fN, 1) : "–"}</td>
-                <td className="num">{mN > 0 ? fmtNum(mN, 2) : "–"}</td>
-                <td className="num">{f.momentCapacity !== null ? fmtNum(f.momentCapacity, 2) : "–"}</td>
+                <td className="num">{f.forceCapacity !== null ? fixed(f.forceCapacity, 1) : f.status === "unbounded" ? "structure" : "–"}</td>
+                <td className="num">{est !== null && fN > 0 ? fixed(est * fN, 1) : "–"}</td>
+                <td className="num">{mN > 0 ? fixed(mN, 2) : "–"}</td>
+                <td className="num">{f.momentCapacity !== null ? fixed(f.momentCapacity, 2) : "–"}</td>
                 <td className="num">{f.limitingJoint ?? "–"}</td>
                 <td title={f.reason}>
                   <VerdictTag v={f.verdict} />
@@ -138,7 +139,7 @@ function PayloadTable({ arm }: { arm: ArmAnalysis }) {
       <table className="printable">
         <caption>
           Payload margin at each reached target: the largest payload at the payload CoG with the tool as given (the tool&apos;s mass at its own CoG)
-          {load !== null ? `; tool + payload ${fmtNum(load, 2)} kg` : ""}
+          {load !== null ? `; tool + payload ${fixed(load, 2)} kg` : ""}
         </caption>
         <thead>
           <tr>
@@ -157,9 +158,9 @@ function PayloadTable({ arm }: { arm: ArmAnalysis }) {
             return (
               <tr key={t.name}>
                 <th scope="row">{t.name}</th>
-                <td className="num">{fmtNum(h.holdablePayload ?? null, 2)}</td>
-                <td className="num">{fmtNum(h.payloadCapacity, 2)}</td>
-                <td className="num">{fmtNum(h.extraPayloadCapacity, 2)}</td>
+                <td className="num">{fixed(h.holdablePayload ?? null, 2)}</td>
+                <td className="num">{fixed(h.payloadCapacity, 2)}</td>
+                <td className="num">{fixed(h.extraPayloadCapacity, 2)}</td>
                 <td className="num">{h.limitingJoint ?? "–"}</td>
                 <td>{h.basis === "torque-limits" ? "joint torque limits" : h.basis === "rated-payload" ? "rated payload (datasheet)" : "none"}</td>
                 <td title={h.reason}>
@@ -285,7 +286,7 @@ export function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
             <tbody>
               {specs.map((_, i) => {
                 const s0 = first.specs[i];
-                const op = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" }[s0.comparator];
+                const op = COMPARATOR_TEXT[s0.comparator].symbol;
                 return (
                   <tr key={i} data-testid="compliance-row">
                     <th scope="row">{s0.label}</th>

@@ -1,7 +1,8 @@
 "use client";
 import { useId, useState } from "react";
 import type { Verdict } from "@/lib/analysis/types";
-import { fmtNum, VERDICT_SYMBOL } from "./verdict";
+import { fixed } from "@/shared/format";
+import { VERDICT_SYMBOL } from "./verdict";
 
 export interface MatrixCell {
   kind: "target" | "path";
@@ -34,7 +35,7 @@ export function TaskMatrix({ columns, rows, threshold }: { columns: { kind: "tar
     <section className="panel" aria-labelledby={uid + "-h"} data-testid="task-matrix">
       <h2 id={uid + "-h"}>Task matrix</h2>
       <p className="sub">
-        Each cell: verdict and dexterity margin D (0–1; below {fmtNum(threshold, 1)} is marginal). Hover or focus a cell for the limiting factor; press it for the details.
+        Each cell: verdict and dexterity margin D (0–1; below {fixed(threshold, 1)} is marginal). Hover or focus a cell for the limiting factor; press it for the details.
       </p>
       <div className="table-wrap">
         <table className="matrix">
@@ -65,14 +66,14 @@ export function TaskMatrix({ columns, rows, threshold }: { columns: { kind: "tar
                         aria-describedby={tipId}
                         aria-expanded={isOpen}
                         aria-controls={uid + "-details"}
-                        aria-label={`${row.armName}, ${x.kind} ${x.name}: ${x.verdict}${x.margin !== null ? `, dexterity margin ${fmtNum(x.margin)}` : ""}`}
+                        aria-label={`${row.armName}, ${x.kind} ${x.name}: ${x.verdict}${x.margin !== null ? `, dexterity margin ${fixed(x.margin)}` : ""}`}
                         onClick={() => setOpen(isOpen ? null : { r, c })}
                       >
                         <span aria-hidden="true" className="vsym">
                           {VERDICT_SYMBOL[x.verdict]}
                         </span>
                         <span className="vword">{x.verdict}</span>
-                        <span className="margin">{x.margin !== null ? `D ${fmtNum(x.margin)}` : "—"}</span>
+                        <span className="margin">{x.margin !== null ? `D ${fixed(x.margin)}` : "—"}</span>
                       </button>
                       <span role="tooltip" id={tipId} className="tip">
                         {x.limiting}

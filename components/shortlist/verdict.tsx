@@ -13,13 +13,3 @@ export function VerdictTag({ v, compact = false }: { v: Verdict; compact?: boole
     </span>
   );
 }
-
-/** Number with at most `d` decimals, or a dash. */
-export function fmtNum(v: number | null | undefined, d = 2): string {
-  if (v === null || v === undefined || !Number.isFinite(v)) return "–";
-  const s = v.toFixed(d);
-  return /^-0(\.0+)?$/.test(s) ? s.slice(1) : s;
-}
-
-/** ISO time as "2026-01-02 03:04 UTC". */
-export { utc } from "../time";

@@ -7,7 +7,7 @@ import type { TargetAnalysis } from "@/lib/analysis/targets";
 import type { PathAnalysis } from "@/lib/analysis/paths";
 import type { MatrixCell, MatrixRow } from "./TaskMatrix";
 import type { PathProfileData, WorkspaceData } from "./Charts";
-import { fmtNum } from "./verdict";
+import { fixed } from "@/shared/format";
 
 const mm = (m: number) => m * 1000;
 const deg = (r: number) => (r * 180) / Math.PI;
@@ -19,24 +19,24 @@ function limitingText(t: TargetAnalysis): string {
   const what = l.factor === "translation" ? "translational conditioning (position singularity nearby)"
     : l.factor === "orientation" ? "orientation conditioning (wrist singularity nearby)"
     : `joint ${l.joint ?? "?"} near its limit`;
-  return `${what}: factor ${fmtNum(l.value)}`;
+  return `${what}: factor ${fixed(l.value)}`;
 }
 
 function targetCell(t: TargetAnalysis): MatrixCell {
-  const details: string[] = [`mode ${t.mode}`, `position error ${fmtNum(mm(t.positionError), 4)} mm` + (t.mode === "point" ? "" : `, rotation error ${fmtNum(deg(t.rotationError), 4)}°`)];
+  const details: string[] = [`mode ${t.mode}`, `position error ${fixed(mm(t.positionError), 4)} mm` + (t.mode === "point" ? "" : `, rotation error ${fixed(deg(t.rotationError), 4)}°`)];
   if (t.reached) details.push(`${t.solutions.length} distinct branch${t.solutions.length === 1 ? "" : "es"} found; best dexterity margin chosen`);
   if (t.dexterity) {
     const d = t.dexterity;
     const orientation = d.axisOrientation
-      ? `orientation ${fmtNum(d.axisOrientation.inverseCondition, 3)} about the tool x and y axes (the rotations an axis target constrains; ${fmtNum(d.orientation.inverseCondition, 3)} over all three)`
-      : `orientation ${fmtNum(d.orientation.inverseCondition, 3)}`;
-    details.push(`translational inverse condition ${fmtNum(d.translation.inverseCondition, 3)}, ${orientation}, joint-limit margin ${fmtNum(d.jointLimits.margin, 3)}`);
+      ? `orientation ${fixed(d.axisOrientation.inverseCondition, 3)} about the tool x and y axes (the rotations an axis target constrains; ${fixed(d.orientation.inverseCondition, 3)} over all three)`
+      : `orientation ${fixed(d.orientation.inverseCondition, 3)}`;
+    details.push(`translational inverse condition ${fixed(d.translation.inverseCondition, 3)}, ${orientation}, joint-limit margin ${fixed(d.jointLimits.margin, 3)}`);
   }
   if (t.cell) {
     const c = t.cell;
     details.push(c.collisionFree
-      ? `cell: collision-free${c.clearance !== null && c.closest ? `, clearance ${fmtNum(mm(c.clearance), 1)} mm (${c.closest.a} to ${c.closest.b}; required ${fmtNum(mm(c.required), 1)} mm)` : ""}; ${c.colliding} of ${c.branches} branch${c.branches === 1 ? "" : "es"} collide`
-      : `cell: every branch found collides (${c.branches}); least overlap ${fmtNum(mm(c.collision!.depth), 1)} mm between ${c.collision!.a} and ${c.collision!.b}`);
+      ? `cell: collision-free${c.clearance !== null && c.closest ? `, clearance ${fixed(mm(c.clearance), 1)} mm (${c.closest.a} to ${c.closest.b}; required ${fixed(mm(c.required), 1)} mm)` : ""}; ${c.colliding} of ${c.branches} branch${c.branches === 1 ? "" : "es"} collide`
+      : `cell: every branch found collides (${c.branches}); least overlap ${fixed(mm(c.collision!.depth), 1)} mm between ${c.collision!.a} and ${c.collision!.b}`);
     if (c.contact.length) details.push(`contact allowed for the tool and payload with: ${c.contact.join(", ")}`);
   }
   if (t.holding) details.push(`holding: ${t.holding.verdict} — ${t.holding.reason}`);
@@ -47,19 +47,19 @@ function targetCell(t: TargetAnalysis): MatrixCell {
 }
 
 function pathCell(p: PathAnalysis): MatrixCell {
-  const details = [`${p.reached} of ${p.samples} samples reached (step ${fmtNum(mm(p.step), 1)} mm over ${fmtNum(mm(p.length), 0)} mm)`, `speed: ${p.speed.note}`];
-  if (p.firstUnreached) details.push(`first sample not reached at ${fmtNum(mm(p.firstUnreached.s), 0)} mm: ${p.firstUnreached.detail}`);
-  for (const f of p.flips.slice(0, 5)) details.push(`configuration flip at ${fmtNum(mm(f.s), 0)} mm: ${f.detail}`);
+  const details = [`${p.reached} of ${p.samples} samples reached (step ${fixed(mm(p.step), 1)} mm over ${fixed(mm(p.length), 0)} mm)`, `speed: ${p.speed.note}`];
+  if (p.firstUnreached) details.push(`first sample not reached at ${fixed(mm(p.firstUnreached.s), 0)} mm: ${p.firstUnreached.detail}`);
+  for (const f of p.flips.slice(0, 5)) details.push(`configuration flip at ${fixed(mm(f.s), 0)} mm: ${f.detail}`);
   if (p.limitHits.length) details.push(`${p.limitHits.length} sample${p.limitHits.length === 1 ? "" : "s"} at a joint limit`);
   if (p.cell) {
     const c = p.cell;
-    if (c.firstCollision) details.push(`cell: collides ${c.firstCollision.between ? "between samples" : "at a sample"} at ${fmtNum(mm(c.firstCollision.s), 0)} mm: ${c.firstCollision.a} hits ${c.firstCollision.b}`);
-    else details.push(`cell: collision-free at every sample and between them${c.clearance !== null && c.closest ? `; clearance ${fmtNum(mm(c.clearance), 1)} mm (${c.closest.a} to ${c.closest.b}) at ${fmtNum(mm(c.closest.s), 0)} mm` : ""}`);
+    if (c.firstCollision) details.push(`cell: collides ${c.firstCollision.between ? "between samples" : "at a sample"} at ${fixed(mm(c.firstCollision.s), 0)} mm: ${c.firstCollision.a} hits ${c.firstCollision.b}`);
+    else details.push(`cell: collision-free at every sample and between them${c.clearance !== null && c.closest ? `; clearance ${fixed(mm(c.clearance), 1)} mm (${c.closest.a} to ${c.closest.b}) at ${fixed(mm(c.closest.s), 0)} mm` : ""}`);
   }
   const limiting = p.reached < p.samples ? "part of the path is not reached"
     : p.cell?.firstCollision ? `collision: ${p.cell.firstCollision.a} hits ${p.cell.firstCollision.b}`
     : p.flips.length ? "configuration flip along the path"
-    : p.speed.limitingJoint !== null ? `joint ${p.speed.limitingJoint} ${p.speed.limitingAtPositionLimit ? "at its position limit" : "speed"} (${p.speed.achievableFraction !== null ? `${fmtNum(p.speed.achievableFraction * 100, 0)} % of the required tool speed possible` : "unknown"})`
+    : p.speed.limitingJoint !== null ? `joint ${p.speed.limitingJoint} ${p.speed.limitingAtPositionLimit ? "at its position limit" : "speed"} (${p.speed.achievableFraction !== null ? `${fixed(p.speed.achievableFraction * 100, 0)} % of the required tool speed possible` : "unknown"})`
     : p.speed.note;
   return { kind: "path", name: p.name, verdict: p.verdict, margin: p.minDexterityMargin, limiting, reason: p.reason, details };
 }

@@ -5,6 +5,7 @@
  */
 import type { ArmAnalysis } from "./shortlist";
 import type { Verdict } from "./types";
+import { fixed } from "@/shared/format";
 
 export interface ArmClearance {
   /** Smallest clearance (m), or null when nothing was measured. */
@@ -33,7 +34,7 @@ export function armClearance(arm: ArmAnalysis, required: number): ArmClearance {
     collidingTargets ? `${collidingTargets} target${collidingTargets === 1 ? "" : "s"} collide in every branch found` : "",
     colliding.length ? `path${colliding.length === 1 ? "" : "s"} ${colliding.map((p) => p.name).join(", ")} collide` : "",
   ].filter(Boolean).join("; ");
-  const mmText = (m: number) => `${(m * 1000).toFixed(1)} mm`;
+  const mmText = (m: number) => `${fixed(m * 1000, 1)} mm`;
   if (colliding.length) return { value, verdict: "fails", reason: [value !== null ? `smallest clearance elsewhere ${mmText(value)} (${where})` : "", tail].filter(Boolean).join("; ") };
   if (value === null) return { value: null, verdict: "unknown", reason: tail || "no reached target or path to measure" };
   const v = value as number;

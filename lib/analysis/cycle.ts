@@ -8,6 +8,7 @@
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Sequence } from "@/shared/schemas/requirements";
 import type { ArmAnalysis } from "./shortlist";
+import { fixed } from "@/shared/format";
 
 /**
  * Time a joint without an acceleration limit is assumed to take to reach full speed (s): an
@@ -138,7 +139,7 @@ interface Layer {
   fixed: number[];
 }
 
-const fmtS = (t: number) => `${t.toFixed(2)} s`;
+const fmtS = (t: number) => `${fixed(t, 2)} s`;
 
 /**
  * Evaluates a sequence for the given branch of each layer (one index per move or path step, in
@@ -235,6 +236,11 @@ export function bestChoice(lim: EffectiveLimits, layers: readonly Layer[]): { ch
     }
   }
   return { choice: bestChoiceList, time: bestTime };
+}
+
+/** The result for a sequence whose cycle cannot be estimated, with the reason. */
+export function unknownCycle(seq: Sequence, reason: string): CycleResult {
+  return { name: seq.name, time: null, partsPerHour: null, required: seq.required ?? null, verdict: "unknown", estimate: false, assumedAcceleration: [], reason, steps: [] };
 }
 
 /** Cycle time of one sequence for one arm (docs/design.md#cycle-time). */

@@ -12,6 +12,7 @@ export * from "./ranking";
 export * from "./targets";
 export * from "./paths";
 export * from "./workspace";
+export * from "./cycle";
 export * from "./shortlist";
 export { createArmContext, placedArmKinematics, type ArmContext } from "./context";
 export { armClearance, type ArmClearance } from "./clearance";

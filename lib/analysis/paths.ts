@@ -12,7 +12,8 @@ import { computeJacobian, solveIk, solveIkMulti, taskJacobianInto, taskRowCount,
 import type { ArmContext } from "./context";
 import { centredCopy } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD } from "./dexterity";
-import { deg, mm, num, pct, quoteBody } from "./format";
+import { deg, mm, num, pct } from "@/shared/format";
+import { quoteBody } from "./bodies";
 import { poseFromQuaternion, poseFromRpy, quaternionOf, relativeRotation, slerp } from "./geometry";
 import { determinant } from "./linalg";
 import { AT_LIMIT_FRACTION, maxSpeedScale, speedBounds, type SpeedScale } from "./speed";

@@ -13,13 +13,14 @@ import { analyzePath, DEFAULT_PATH_BUDGET, SPEED_MARGINAL_RATIO, type PathAnalys
 import { SUB_SCORES } from "@/shared/sub-scores";
 import { rankArms, type ArmScoreInput, type RankedArm, type SubScore, type SubScoreKey } from "./ranking";
 import { SUB_SCORE_RULES, zeroScore } from "./sub-scores";
-import { checkSpec, IEC_60529_NOTE, type SpecResult } from "./spec";
+import { checkSpec, IEC_60529_NOTE, requirementText, type SpecResult } from "./spec";
 import { analyzeTarget, DEFAULT_TARGET_BUDGET, FORCE_MARGINAL_FRACTION, type TargetAnalysis, type TargetBudget } from "./targets";
 import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, type WorkspaceBudget } from "./workspace";
 import type { Verdict } from "./types";
+import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.5.0";
+export const ANALYSIS_VERSION = "analysis-1.6.1";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
@@ -77,6 +78,8 @@ export interface ArmAnalysis {
   paths: PathAnalysis[];
   /** One entry per spec requirement, same order (the compliance table). */
   specs: SpecResult[];
+  /** One entry per requirement-set sequence, same order: the cycle time (docs/design.md#cycle-time). */
+  cycles: CycleResult[];
   workspace: WorkspaceAnalysis | null;
   /** What the cell checks for this arm (null when the arm could not be analysed). */
   cell: ArmCell | null;
@@ -120,7 +123,7 @@ export interface ShortlistCell {
 export interface ShortlistAnalysis {
   version: string;
   caution: string;
-  requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[] };
+  requirementSet: { name: string; targets: string[]; paths: string[]; specs: string[]; sequences: string[] };
   /** The cell the analysis used (absent in older results: made without the cell). */
   cell?: ShortlistCell;
   /** Weights the ranking used (from the requirement set); re-rank with rerank(result, weights). */
@@ -142,11 +145,6 @@ export interface ShortlistAnalysis {
 
 const emptyCounts = (): VerdictCounts => ({ meets: 0, marginal: 0, fails: 0, unknown: 0 });
 
-/** Labels a spec requirement for lists of musts. */
-function specLabel(r: SpecResult): string {
-  const op = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" }[r.comparator];
-  return `${r.label} ${op} ${r.requiredDisplay}${r.displayUnit ? ` ${r.displayUnit}` : ""}`;
-}
 
 /**
  * Analyses every arm against the requirement set: targets (IK branches, dexterity, statics,
@@ -208,7 +206,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
   return {
     version: ANALYSIS_VERSION,
     caution: CAUTION,
-    requirementSet: { name: req.name, targets: req.targets.map((t) => t.name), paths: req.paths.map((p) => p.name), specs: req.specs.map((s) => s.field) },
+    requirementSet: { name: req.name, targets: req.targets.map((t) => t.name), paths: req.paths.map((p) => p.name), specs: req.specs.map((s) => s.field), sequences: (req.sequences ?? []).map((q) => q.name) },
     cell: { obstacles: req.cell.obstacles.map((o) => o.name), clearance: req.cell.clearance, toolShapes: req.tool.collision?.length ?? 0, payloadShapes: req.payload.collision?.length ?? 0 },
     weights: { ...req.weights },
     arms: results,
@@ -234,8 +232,8 @@ function finishArm(
   targets.forEach((t) => counts.targets[t.verdict]++);
   paths.forEach((p) => counts.paths[p.verdict]++);
   specs.forEach((s) => counts.specs[s.verdict]++);
-  const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map(specLabel);
-  const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map(specLabel);
+  const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map((s) => requirementText(s));
+  const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map((s) => requirementText(s));
   const sub = subScores(arm, error ? null : ctx, targets, paths, req, candidates);
   const reached = targets.filter((t) => t.reached).length;
   const summary = error
@@ -245,7 +243,8 @@ function finishArm(
   const cell: ArmCell | null = ctx && !error
     ? { checkedPairs: ctx.cell.pairs.length, skipped: [...ctx.cell.skipped], unmodelled: [...ctx.cell.unmodelled], linkSources: ctx.cell.links.map((l) => l.source) }
     : null;
-  return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, workspace, cell, subScores: sub, failedMusts, unknownMusts, counts, summary };
+  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req);
+  return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, cycles, workspace, cell, subScores: sub, failedMusts, unknownMusts, counts, summary };
 }
 
 /**

@@ -4,7 +4,8 @@
  * inclusion; missing data is `unknown`, never a pass.
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
-import { SPEC_FIELDS, type SpecRequirement, type SpecField } from "@/shared/schemas/requirements";
+import { COMPARATOR_TEXT, SPEC_FIELDS, type SpecRequirement, type SpecField } from "@/shared/schemas/requirements";
+import { upTo } from "@/shared/format";
 import type { Verdict } from "./types";
 
 /** A parsed IP code. Digits are numbers, or null for 'X' (not tested / not stated). */
@@ -113,21 +114,14 @@ export interface SpecResult {
   reason: string;
 }
 
-const COMPARATOR_TEXT = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" } as const;
 
 function displayNumber(field: SpecField, v: number, currency?: string): { text: string; unit: string } {
   const unit = SPEC_FIELDS[field].unit;
-  if (unit === "m") return { text: trimNumber(v * 1000, 3), unit: "mm" };
-  if (unit === "currency") return { text: trimNumber(v, 2), unit: currency ?? "" };
-  return { text: trimNumber(v, 3), unit };
+  if (unit === "m") return { text: upTo(v * 1000, 3), unit: "mm" };
+  if (unit === "currency") return { text: upTo(v, 2), unit: currency ?? "" };
+  return { text: upTo(v, 3), unit };
 }
 
-/** Number with at most `decimals` decimals, trailing zeros removed. */
-export function trimNumber(v: number, decimals: number): string {
-  if (!Number.isFinite(v)) return "–";
-  const s = v.toFixed(decimals).replace(/\.?0+$/, "");
-  return s === "-0" ? "0" : s;
-}
 
 /** Compares one spec requirement with one arm's datasheet. */
 export function checkSpec(arm: ArmDocument, req: SpecRequirement, index: number): SpecResult {
@@ -137,7 +131,7 @@ export function checkSpec(arm: ArmDocument, req: SpecRequirement, index: number)
     index, field: req.field, label: def.label, comparator: req.comparator, priority: req.priority,
     required: req.value, unit: def.unit as string,
   };
-  const op = COMPARATOR_TEXT[req.comparator];
+  const op = COMPARATOR_TEXT[req.comparator].symbol;
   if (def.kind === "number") {
     const raw = req.field === "axes" ? arm.joints.length : (specs as Record<string, unknown>)[req.field];
     const need = req.value as number;
@@ -179,4 +173,9 @@ export function checkSpec(arm: ArmDocument, req: SpecRequirement, index: number)
   if (typeof v !== "boolean") return { ...base, value: null, requiredDisplay: need ? "yes" : "no", valueDisplay: "–", displayUnit: "", verdict: "unknown", reason: `the datasheet does not say whether the arm is collaborative (required: ${need ? "yes" : "no"})` };
   const ok = v === need;
   return { ...base, value: v, requiredDisplay: need ? "yes" : "no", valueDisplay: v ? "yes" : "no", displayUnit: "", verdict: ok ? "meets" : "fails", reason: `collaborative: ${v ? "yes" : "no"}, required ${need ? "yes" : "no"}` };
+}
+
+/** A requirement as one line: "Rated payload ≥ 5 kg". */
+export function requirementText(r: Pick<SpecResult, "label" | "comparator" | "requiredDisplay" | "displayUnit">): string {
+  return `${r.label} ${COMPARATOR_TEXT[r.comparator].symbol} ${r.requiredDisplay}${r.displayUnit ? ` ${r.displayUnit}` : ""}`;
 }

@@ -10,6 +10,7 @@ import type { ArmContext } from "./context";
 import type { PathAnalysis } from "./paths";
 import type { SubScore } from "./ranking";
 import type { TargetAnalysis } from "./targets";
+import { fixed } from "@/shared/format";
 
 /** What a rule sees of an analysed arm. */
 export interface AnalysedArm {
@@ -55,7 +56,7 @@ const dexterity: SubScoreRule = {
     const margins = [...targets.filter((t) => t.reached).map((t) => t.dexterity!.margin), ...paths.map((p) => p.minDexterityMargin).filter((m): m is number => m !== null)];
     if (margins.length === 0) return zeroScore("nothing reached");
     const worst = Math.min(...margins);
-    return { value: clamp01(worst), applicable: true, note: `worst dexterity margin ${worst.toFixed(2)}` };
+    return { value: clamp01(worst), applicable: true, note: `worst dexterity margin ${fixed(worst, 2)}` };
   },
 };
 
@@ -76,7 +77,7 @@ const payload: SubScoreRule = {
     if (caps.length === 0) return zeroScore(L === 0 ? "no load; no capacity figure" : "payload capacity unknown (no torque limits or rated payload): scored 0");
     const C = Math.min(...caps.map((h) => h.payloadCapacity!));
     const basis = caps[0].basis === "rated-payload" ? "rated payload (datasheet)" : "joint torque limits";
-    return { value: C > 0 ? clamp01(1 - L / C) : 0, applicable: true, note: `tool + payload ${L.toFixed(2)} kg of ${C.toFixed(2)} kg holdable at the worst target (tool at its CoG, payload at the payload CoG; ${basis})` };
+    return { value: C > 0 ? clamp01(1 - L / C) : 0, applicable: true, note: `tool + payload ${fixed(L, 2)} kg of ${fixed(C, 2)} kg holdable at the worst target (tool at its CoG, payload at the payload CoG; ${basis})` };
   },
 };
 
@@ -95,7 +96,7 @@ const force: SubScoreRule = {
       if (!a.reached || !a.force) { v = 0; why = `${t.name} not reached`; }
       else if (a.force.status === "no-limits") { v = 0; why = `${t.name}: capability unknown (no torque limits), scored 0`; }
       else if (a.force.status === "unbounded") { v = 1; why = `${t.name}: carried by the structure`; }
-      else { v = clamp01(1 - 1 / Math.max(a.force.capacityRatio!, 1e-12)); why = `${t.name}: capability ${a.force.capacityRatio!.toFixed(2)}× the requirement`; }
+      else { v = clamp01(1 - 1 / Math.max(a.force.capacityRatio!, 1e-12)); why = `${t.name}: capability ${fixed(a.force.capacityRatio!, 2)}× the requirement`; }
       if (v < worst || note === "") { worst = Math.min(worst, v); note = why; }
     }
     return { value: worst, applicable: true, note };
@@ -111,7 +112,7 @@ const pathSpeed: SubScoreRule = {
       let v: number, why: string;
       if (p.verdict === "fails" && (p.reached < p.samples || p.flips.some((f) => f.joint !== null) || p.cell?.collisionFree === false)) { v = 0; why = `${p.name} not followed`; }
       else if (p.speed.achievableFraction === null) { v = 0; why = `${p.name}: speed unknown (no joint speed limits), scored 0`; }
-      else { v = p.speed.achievableFraction; why = `${p.name}: ${(v * 100).toFixed(0)} % of the required speed`; }
+      else { v = p.speed.achievableFraction; why = `${p.name}: ${fixed(v * 100, 0)} % of the required speed`; }
       if (v < worst || note === "") { worst = Math.min(worst, v); note = why; }
     }
     return { value: worst, applicable: true, note };
@@ -139,15 +140,15 @@ const clearance: SubScoreRule = {
     const consider = (c: number, why: string) => { if (c < worst) { worst = c; note = why; } };
     targets.forEach((t) => {
       if (!t.reached || !t.cell || t.cell.clearance === null || !t.cell.closest) return;
-      consider(t.cell.clearance, `${t.name}: ${(t.cell.clearance * 1000).toFixed(1)} mm (${t.cell.closest.a} to ${t.cell.closest.b})`);
+      consider(t.cell.clearance, `${t.name}: ${fixed(t.cell.clearance * 1000, 1)} mm (${t.cell.closest.a} to ${t.cell.closest.b})`);
     });
     paths.forEach((p) => {
       if (!p.cell) return;
       if (!p.cell.collisionFree) consider(0, `${p.name}: collides`);
-      else if (p.cell.clearance !== null && p.cell.closest) consider(p.cell.clearance, `${p.name}: ${(p.cell.clearance * 1000).toFixed(1)} mm (${p.cell.closest.a} to ${p.cell.closest.b})`);
+      else if (p.cell.clearance !== null && p.cell.closest) consider(p.cell.clearance, `${p.name}: ${fixed(p.cell.clearance * 1000, 1)} mm (${p.cell.closest.a} to ${p.cell.closest.b})`);
     });
     if (worst === Infinity) return zeroScore("no reached target or path to measure: scored 0");
-    return { value: clamp01(worst / ref), applicable: true, note: `smallest clearance ${note}; scores 1 at ${(ref * 1000).toFixed(0)} mm` };
+    return { value: clamp01(worst / ref), applicable: true, note: `smallest clearance ${note}; scores 1 at ${fixed(ref * 1000, 0)} mm` };
   },
 };
 
@@ -170,7 +171,7 @@ function priceScore(arm: ArmDocument, candidates: readonly ArmDocument[]): SubSc
   if (currency !== cheapest.currency) {
     return zeroScore(`price in ${currency ?? "an unstated currency"}, not comparable with the cheapest (${cheapest.currency ?? "unstated"}): scored 0`);
   }
-  return { value: cheapest.price / price, applicable: true, note: price === cheapest.price ? "cheapest candidate" : `${(price / cheapest.price).toFixed(2)}× the cheapest candidate` };
+  return { value: cheapest.price / price, applicable: true, note: price === cheapest.price ? "cheapest candidate" : `${fixed(price / cheapest.price, 2)}× the cheapest candidate` };
 }
 
 const price: SubScoreRule = {

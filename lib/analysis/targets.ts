@@ -12,7 +12,8 @@ import { checkCell, contactMask, pairNames, type CellCheck } from "./cell";
 import type { ArmContext } from "./context";
 import { centredCopy, type JointCopyChoice } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
-import { deg, mm, num, pct, quoteBody } from "./format";
+import { deg, mm, num, pct } from "@/shared/format";
+import { quoteBody } from "./bodies";
 import { poseFromRpy, rotationOf, transformPoint, mul4 } from "./geometry";
 import {
   capacityAlong, ellipsoidEstimateAlong, forceEllipsoid, gravityTorque, payloadCapacity, transposeTimes, wristAxisLoad,

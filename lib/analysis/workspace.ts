@@ -9,6 +9,7 @@
  */
 import { createRng, forwardKinematics, jointAxisWorld, randomConfiguration } from "@/lib/kinematics";
 import type { ArmContext } from "./context";
+import { fixed } from "@/shared/format";
 
 export interface WorkspaceBudget {
   /** Random configurations sampled. */
@@ -103,7 +104,7 @@ export function analyzeWorkspace(
   const ratio = ds ? bestReach / ds : null;
   const note = ds === null
     ? "the datasheet gives no reach"
-    : `sampled flange reach ${(bestReach * 1000).toFixed(0)} mm is ${(ratio! * 100).toFixed(0)} % of the datasheet's ${(ds * 1000).toFixed(0)} mm` +
+    : `sampled flange reach ${fixed(bestReach * 1000, 0)} mm is ${fixed(ratio! * 100, 0)} % of the datasheet's ${fixed(ds * 1000, 0)} mm` +
       (ratio! < 0.9 ? " (check the DH table or the limits: the model reaches less than the datasheet says)" : ratio! > 1.1 ? " (the model reaches farther than the datasheet says: check the DH table)" : "");
   return {
     samples: budget.samples, seed, origin: o,

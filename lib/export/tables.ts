@@ -2,7 +2,7 @@
  * The ranking, the task matrix and the compliance table as plain rows (pure): the one source for the CSV, XLSX
  * and JSON exports, so every format carries the same values, units and verdict words.
  */
-import type { Weights } from "@/shared/schemas/requirements";
+import { COMPARATOR_TEXT, type Weights } from "@/shared/schemas/requirements";
 import { subScoreOf, type RankedArm } from "@/lib/analysis/ranking";
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import { SUB_SCORES } from "@/shared/sub-scores";
@@ -61,7 +61,6 @@ export function rankingTable(analysis: ShortlistAnalysis, ranking: readonly Rank
   return { title: "Ranking", columns, rows };
 }
 
-const COMPARATOR_WORDS = { atLeast: "at least", atMost: "at most", equals: "equals", includes: "includes" } as const;
 
 /** Every spec requirement against every arm: one row per (requirement, arm). */
 export function complianceTable(analysis: ShortlistAnalysis): Table {
@@ -73,7 +72,7 @@ export function complianceTable(analysis: ShortlistAnalysis): Table {
       const s = a.specs[i];
       if (!s) continue;
       rows.push([
-        s.label, s.priority, COMPARATOR_WORDS[s.comparator], asCell(s.requiredDisplay), s.displayUnit || null,
+        s.label, s.priority, COMPARATOR_TEXT[s.comparator].words, asCell(s.requiredDisplay), s.displayUnit || null,
         a.name, a.revision, s.value === null ? "no data" : asCell(s.valueDisplay), s.value === null ? null : s.displayUnit || null, s.verdict, s.reason,
       ]);
     }
@@ -83,7 +82,7 @@ export function complianceTable(analysis: ShortlistAnalysis): Table {
     const req = analysis.cell.clearance;
     for (const a of analysis.arms) {
       const c = armClearance(a, req);
-      rows.push(["Clearance in the cell (targets and paths)", "must", COMPARATOR_WORDS.atLeast, round(req * 1000, 1), "mm", a.name, a.revision, c.value === null ? "no data" : round(c.value * 1000, 1), c.value === null ? null : "mm", c.verdict, c.reason]);
+      rows.push(["Clearance in the cell (targets and paths)", "must", COMPARATOR_TEXT.atLeast.words, round(req * 1000, 1), "mm", a.name, a.revision, c.value === null ? "no data" : round(c.value * 1000, 1), c.value === null ? null : "mm", c.verdict, c.reason]);
     }
   }
   return { title: "Compliance", columns, rows };

@@ -1,16 +1,16 @@
 import { ApiError } from "./errors";
+import { count } from "@/shared/format";
 
 /** Largest JSON body accepted (1 MiB). */
 export const MAX_BODY_BYTES = 1024 * 1024;
 /** Deepest nesting of arrays/objects accepted; documents need fewer than 10 levels. */
 export const MAX_JSON_DEPTH = 64;
 
-const fmtBytes = (n: number) => n.toLocaleString("en-US").replace(/,/g, " ");
 
 /** `size`: the declared length, or null when only "more than the limit" is known (streamed). */
 function tooLarge(size: number | null, limit: number): ApiError {
-  const sizeText = size === null ? `more than ${fmtBytes(limit)} bytes` : `${fmtBytes(size)} bytes`;
-  const message = `request body is ${sizeText}; the limit is ${fmtBytes(limit)} bytes (${limit / (1024 * 1024)} MiB)`;
+  const sizeText = size === null ? `more than ${count(limit)} bytes` : `${count(size)} bytes`;
+  const message = `request body is ${sizeText}; the limit is ${count(limit)} bytes (${limit / (1024 * 1024)} MiB)`;
   return new ApiError(400, "validation", message, { fieldErrors: [{ path: "", message }] });
 }
 

@@ -31,6 +31,7 @@ import { mulRigid, originFromMatrix, originMatrix, transformPointRigid } from "@
 import { quote, UrdfError } from "./errors";
 import { parseUrdf, type UrdfCollision, type UrdfJoint, type UrdfLink, type UrdfPose, type Vec3 } from "./parse";
 import { baseCandidates, buildTree, MOVING_TYPES, pathBetween, tipCandidates, type TipCandidate, type UrdfTree } from "./tree";
+import { fixed } from "@/shared/format";
 
 /** Range given to a continuous joint (rad): the widest the arm format accepts (720° in all). */
 export const CONTINUOUS_RANGE = Object.freeze({ min: -2 * Math.PI, max: 2 * Math.PI });
@@ -148,7 +149,7 @@ function combine(bodies: Body[]): { mass: number; com: Vec3; inertia: number[] }
 }
 
 const round = (v: number) => (Math.abs(v) < 1e-15 ? 0 : v);
-const mm = (m: number) => `${(m * 1000).toFixed(0)} mm`;
+const mm = (m: number) => `${fixed(m * 1000, 0)} mm`;
 
 /** The capsule of one collision element in the owner's frame, or a reason it is skipped. */
 function capsuleOf(c: UrdfCollision, ownerToLink: number[]): { capsule: Capsule; converted?: string } | { skip: string } {
@@ -199,7 +200,7 @@ function jointLimits(j: UrdfJoint, report: UrdfImportReport): { type: "revolute"
     max = lim.upper ?? 0;
     if (lim.lower === null || lim.upper === null) report.notes.push(`joint ${quote(j.name)}: <limit> without ${lim.lower === null ? "lower" : "upper"}; taken as 0 as the URDF specification says`);
     if (min > max) throw new UrdfError(`${where} <limit>`, `lower (${min}) is above upper (${max})`);
-    if (type === "revolute" && max - min > 4 * Math.PI + 1e-9) throw new UrdfError(`${where} <limit>`, `range ${(((max - min) * 180) / Math.PI).toFixed(0)}° exceeds 720°`);
+    if (type === "revolute" && max - min > 4 * Math.PI + 1e-9) throw new UrdfError(`${where} <limit>`, `range ${fixed(((max - min) * 180) / Math.PI, 0)}° exceeds 720°`);
   }
   const out: ReturnType<typeof jointLimits> = { type, min, max };
   const speedUnit = type === "revolute" ? "rad/s" : "m/s";
@@ -368,7 +369,7 @@ export function importUrdf(text: string, options: UrdfImportOptions = {}): UrdfI
     }
   }
   const baseMass = bodies[0].reduce((s, b) => s + b.mass, 0);
-  if (baseMass > 0) report.notes.push(`mass of the base and the links fixed to it (${baseMass.toFixed(3)} kg) is not used: the base does not move`);
+  if (baseMass > 0) report.notes.push(`mass of the base and the links fixed to it (${fixed(baseMass, 3)} kg) is not used: the base does not move`);
   for (let i = 1; i <= body; i++) {
     const parts = bodies[i];
     const j = joints[i - 1];
@@ -377,7 +378,7 @@ export function importUrdf(text: string, options: UrdfImportOptions = {}): UrdfI
     j.mass = c.mass;
     j.com = c.com.map(round) as Vec3;
     if (c.inertia.some((v) => v !== 0)) j.inertia = c.inertia.map(round) as ChainJointSpec["inertia"];
-    if (parts.length > 1) report.merged.push(`link ${i}: masses of ${parts.map((p) => quote(p.link)).join(", ")} combined (${c.mass.toFixed(3)} kg)`);
+    if (parts.length > 1) report.merged.push(`link ${i}: masses of ${parts.map((p) => quote(p.link)).join(", ")} combined (${fixed(c.mass, 3)} kg)`);
   }
   for (let i = 1; i <= body; i++) if (capsules[i].length) joints[i - 1].collision = capsules[i];
   const ignored = Object.entries(robot.ignored).map(([k, n]) => `${n} <${k}>`);

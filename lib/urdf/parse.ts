@@ -17,6 +17,7 @@
  */
 import { XMLParser, XMLValidator } from "fast-xml-parser";
 import { quote, UrdfError } from "./errors";
+import { count } from "@/shared/format";
 
 export const URDF_LIMITS = Object.freeze({
   /** Largest file (UTF-8 bytes). */
@@ -183,8 +184,8 @@ function prescan(text: string): void {
   // Exact size up to 8 × the limit (a UTF-8 character is at least one byte, so longer text is surely over).
   const bytes = text.length > 8 * URDF_LIMITS.bytes ? Infinity : utf8Length(text);
   if (bytes > URDF_LIMITS.bytes) {
-    const size = Number.isFinite(bytes) ? `${bytes.toLocaleString("en-US")} bytes` : `more than ${URDF_LIMITS.bytes.toLocaleString("en-US")} bytes`;
-    throw new UrdfError("file", `is ${size}; the limit is 2 MiB (${URDF_LIMITS.bytes.toLocaleString("en-US")} bytes)`);
+    const size = Number.isFinite(bytes) ? `${count(bytes)} bytes` : `more than ${count(URDF_LIMITS.bytes)} bytes`;
+    throw new UrdfError("file", `is ${size}; the limit is 2 MiB (${count(URDF_LIMITS.bytes)} bytes)`);
   }
   if (text.trim() === "") throw new UrdfError("file", "is empty");
   const doctype = /<!DOCTYPE|<!ENTITY/i.exec(text);
@@ -202,10 +203,10 @@ function prescan(text: string): void {
   if (joints > 2 * URDF_LIMITS.links) throw new UrdfError("<joint>", `the file has more than ${2 * URDF_LIMITS.links} joint elements; a robot of at most ${URDF_LIMITS.links} links has fewer than ${URDF_LIMITS.links} joints`);
   const scan = scanMarkup(text);
   if (scan.longRunAt >= 0) throw new UrdfError(`file (line ${lineOf(text, scan.longRunAt)})`, `has more than ${URDF_LIMITS.textRun / 1024} KiB of text without markup: not a robot description`);
-  if (scan.markup > URDF_LIMITS.markup) throw new UrdfError("file", `has more than ${URDF_LIMITS.markup.toLocaleString("en-US")} tags and comments; a robot description of at most ${URDF_LIMITS.links} links needs far fewer`);
+  if (scan.markup > URDF_LIMITS.markup) throw new UrdfError("file", `has more than ${count(URDF_LIMITS.markup)} tags and comments; a robot description of at most ${URDF_LIMITS.links} links needs far fewer`);
   if (scan.maxAttributes > URDF_LIMITS.attributes) throw new UrdfError(`file (line ${lineOf(text, scan.maxAttributesAt)})`, `an element has ${scan.maxAttributes} attributes; URDF elements have at most 6 (the limit is ${URDF_LIMITS.attributes})`);
   const elements = countMatches(text, /<[A-Za-z_]/g, URDF_LIMITS.elements);
-  if (elements > URDF_LIMITS.elements) throw new UrdfError("file", `has more than ${URDF_LIMITS.elements.toLocaleString("en-US")} XML elements; a robot description of at most ${URDF_LIMITS.links} links needs far fewer`);
+  if (elements > URDF_LIMITS.elements) throw new UrdfError("file", `has more than ${count(URDF_LIMITS.elements)} XML elements; a robot description of at most ${URDF_LIMITS.links} links needs far fewer`);
 }
 
 const parser = new XMLParser({

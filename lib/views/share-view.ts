@@ -10,10 +10,11 @@ import "server-only";
 import { can, type LinkGuest } from "@/lib/auth/permissions";
 import { subScoreOf, SUB_SCORE_KEYS } from "@/lib/analysis/ranking";
 import { rerank } from "@/lib/analysis/shortlist";
+import { requirementText } from "@/lib/analysis/spec";
+import { price } from "@/shared/format";
 import type { Verdict } from "@/lib/analysis/types";
 import { getSharedShortlist } from "@/lib/db";
 
-const COMPARATOR: Record<string, string> = { atLeast: "≥", atMost: "≤", equals: "=", includes: "includes" };
 
 export interface GuestVisibility {
   access: "view" | "comment";
@@ -70,7 +71,7 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
   if (prices) {
     for (const a of view.shortlist.arms) {
       const sp = data.specs.get(a.id);
-      if (sp?.price !== undefined && sp.price !== null) a.price = `${sp.price.toLocaleString("en-GB")}${sp.currency ? ` ${sp.currency}` : ""}`;
+      if (sp?.price !== undefined && sp.price !== null) a.price = price(sp.price, sp.currency);
     }
   }
   if (!run || !result) return view;
@@ -104,7 +105,7 @@ export async function shortlistForGuest(guest: LinkGuest): Promise<GuestShortlis
       if (!sp || !shownSpec(sp.field)) return [];
       return [{
         index: i,
-        label: `${sp.label} ${COMPARATOR[sp.comparator]} ${sp.requiredDisplay}${sp.displayUnit ? ` ${sp.displayUnit}` : ""}`,
+        label: requirementText(sp),
         priority: sp.priority,
         cells: result.arms.map((a) => {
           const c = a.specs.find((x) => x.index === i);

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { finite, labelText, nameText, nonNegative, positive, vec3, mat4 } from "./common";
-import { fmt, jointToDisplay, jointUnit } from "../units";
+import { fixed } from "../format";
+import { jointToDisplay, jointUnit } from "../units";
 import { armCapsuleSchema, MAX_BODY_SHAPES } from "./cell";
 
 /**
@@ -207,14 +208,14 @@ export const armSchema = armObject.superRefine((arm, ctx) => {
       ctx.addIssue({
         code: "custom",
         path: ["joints", i, "max"],
-        message: `joint ${i + 1} max (${fmt(jointToDisplay(j.type, j.max), 1)}${u}) is below min (${fmt(jointToDisplay(j.type, j.min), 1)}${u})`,
+        message: `joint ${i + 1} max (${fixed(jointToDisplay(j.type, j.max), 1)}${u}) is below min (${fixed(jointToDisplay(j.type, j.min), 1)}${u})`,
       });
     }
     if (j.type === "revolute" && j.max - j.min > 4 * Math.PI + 1e-9) {
       ctx.addIssue({
         code: "custom",
         path: ["joints", i, "max"],
-        message: `joint ${i + 1} range (${fmt(jointToDisplay(j.type, j.max - j.min), 0)}°) exceeds 720°`,
+        message: `joint ${i + 1} range (${fixed(jointToDisplay(j.type, j.max - j.min), 0)}°) exceeds 720°`,
       });
     }
   });

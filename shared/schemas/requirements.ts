@@ -114,6 +114,13 @@ export const SPEC_FIELD_NAMES = Object.keys(SPEC_FIELDS) as SpecField[];
 
 export const COMPARATORS = ["atLeast", "atMost", "equals", "includes"] as const;
 export type Comparator = (typeof COMPARATORS)[number];
+/** How a comparator is written: its symbol (tables, labels, reasons) and its words (exports, the editor). */
+export const COMPARATOR_TEXT: Record<Comparator, { symbol: string; words: string }> = {
+  atLeast: { symbol: "≥", words: "at least" },
+  atMost: { symbol: "≤", words: "at most" },
+  equals: { symbol: "=", words: "equals" },
+  includes: { symbol: "includes", words: "includes" },
+};
 
 export const specRequirementSchema = z
   .object({

@@ -177,3 +177,26 @@ describe("cycle of a sequence (docs/design.md#cycle-time)", () => {
     expect(analyzeCycle(LIMITS, seq, reversed).time).toBeCloseTo(analyzeCycle(LIMITS, seq, inputs).time!, 12);
   });
 });
+
+describe("cycle time in the shortlist analysis", () => {
+  it("gives each arm one cycle per sequence, the sum of its steps, unknown where a target is out of reach", async () => {
+    const { analyzeShortlist } = await import("@/lib/analysis");
+    const { armSchema } = await import("@/shared/schemas/arm");
+    const { requirementSetSchema } = await import("@/shared/schemas/requirements");
+    const I4 = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+    const arm = armSchema.parse({ name: "planar 2R", convention: "dh", joints: [1, 0.8].map((a) => ({ type: "revolute", a, alpha: 0, d: 0, theta: 0, min: -3, max: 3, maxSpeed: 2 })) });
+    const req = requirementSetSchema.parse({
+      name: "two loops", base: I4, tool: { tcp: I4, mass: 0, cog: [0, 0, 0] }, payload: { mass: 0, cog: [0, 0, 0] }, paths: [], specs: [],
+      targets: [{ name: "a", position: [1.2, 0.5, 0], rpy: [0, 0, 0], mode: "point" }, { name: "b", position: [-0.4, 1.3, 0], rpy: [0, 0, 0], mode: "point" }, { name: "far", position: [3, 0, 0], rpy: [0, 0, 0], mode: "point" }],
+      sequences: [{ name: "ab", required: 1, steps: [{ kind: "move", target: "a" }, { kind: "move", target: "b" }] }, { name: "far", steps: [{ kind: "move", target: "far" }] }],
+    });
+    const out = analyzeShortlist([{ id: "1", revision: 1, arm }], req);
+    expect(out.requirementSet.sequences).toEqual(["ab", "far"]);
+    const [ab, far] = out.arms[0].cycles;
+    expect(ab.time).toBeCloseTo(ab.steps.reduce((s, x) => s + x.time, 0), 12);
+    expect(ab.verdict).toBe("fails"); // two moves of well over 0.5 s each
+    expect(ab.estimate).toBe(true);
+    expect(ab.assumedAcceleration).toEqual([1, 2]);
+    expect(far).toMatchObject({ time: null, verdict: "unknown" });
+  });
+});

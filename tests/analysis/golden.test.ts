@@ -23,6 +23,13 @@ const GOLDEN: Record<string, string> = {
   "analysis-1.4.0": "152c81a3065862794c1b0bbd374156ec6262f7b8ff8d8f032d744467d7980269",
   // 1.5.0: the cell: collisions and clearance at targets and along paths, a clearance sub-score (the input gained a cell).
   "analysis-1.5.0": "f0a3cf5199f44f173ea3ab9a5bfb3e0fe8c17c89150c8b35ff5ccb1a925ae5b4",
+  // 1.5.1: numbers in reasons and notes written through shared/format.ts (Intl.NumberFormat); a value
+  // whose shortest decimal ends on a tie may round the other way than toFixed did (here only the version differs).
+  "analysis-1.5.1": "f21feed56d0566568b49f858eaedd2c7ac8d9fb1063268c5cc628b863bf71582",
+  // 1.6.0: the cycle time of each sequence per arm, and the sequences' names (the input gained two sequences).
+  "analysis-1.6.0": "7567ede4972382acce0cd408a4bb9da0b47a2c5882fa73c6507bae1644a983c9",
+  // 1.6.1: 1.6.0 with the numbers of its reasons and notes through shared/format.ts, as 1.5.1 did for 1.5.0.
+  "analysis-1.6.1": "fdbac84b6cd8e6bacee1ce556c9a75917ad753c4b10165098cc68c89a9ec5872",
 };
 
 const DEG = Math.PI / 180;
@@ -91,6 +98,8 @@ const req = requirementSetSchema.parse({
     { field: "ratedPayload", comparator: "atLeast", value: 4, priority: "must" },
     { field: "reach", comparator: "atLeast", value: 0.8, priority: "want" },
   ],
+  // since 1.6.0: two task sequences for the cycle time
+  sequences: [{ name: "loop", required: 6, steps: [{ kind: "move", target: "pick down", dwell: 0.4 }, { kind: "path", path: "lift" }, { kind: "move", target: "screw axis" }, { kind: "wait", seconds: 0.5 }, { kind: "move", target: "far away" }] }, { name: "short", steps: [{ kind: "move", target: "pick down" }, { kind: "move", target: "high point", dwell: 0.2 }] }],
   // since 1.5.0: a cell (a table, a post, a ball) and tool and payload shapes
   cell: {
     clearance: 0.01,

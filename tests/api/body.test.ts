@@ -59,7 +59,7 @@ describe("streamed bodies", () => {
     } as RequestInit);
     const res = await arms.POST(req, { params: Promise.resolve({}) });
     expect(res.status).toBe(400);
-    expect((await res.json()).error.message).toMatch(/^request body is more than 1 048 576 bytes/);
+    expect((await res.json()).error.message).toMatch(/^request body is more than 1,048,576 bytes/);
     // The reader stops at the first chunk past the cap (a stream may have pulled a few ahead).
     expect(pulled).toBeLessThanOrEqual(1024 * 1024 + 4 * chunk.byteLength);
   });

@@ -73,7 +73,7 @@ describe("POST /api/arms/urdf (preview)", () => {
   it("a 20 MB file is refused by the body limit before it is read, a 2.5 MB one by the URDF limit", async () => {
     const huge = await preview({ fileName: "huge.urdf", text: " ".repeat(20 * 1024 * 1024) });
     expect(huge.status).toBe(400);
-    expect(huge.body.error.message).toMatch(/the limit is 3 145 728 bytes \(3 MiB\)/);
+    expect(huge.body.error.message).toMatch(/the limit is 3,145,728 bytes \(3 MiB\)/);
     const big = await preview({ fileName: "big.urdf", text: `<robot name="x">${" ".repeat(2_500_000)}</robot>` });
     expect(big.status).toBe(400);
     expect(big.body.error.message).toMatch(/^big\.urdf: file: is 2,500,024 bytes; the limit is 2 MiB/);

@@ -65,7 +65,8 @@ describe("accounts and roles", () => {
     expect(await bar.getByRole("link", { name: "Users" }).count()).toBe(0);
     expect(await tv.page.getByRole("link", { name: "New arm" }).count()).toBe(0);
 
-    await tv.page.getByTestId("arm-table").locator("tbody tr a").first().click();
+    // A DH-table arm: chain arms show origin and axis columns instead of a, α, d, θ.
+    await tv.page.getByTestId("arm-table").locator("tbody tr a", { hasText: "Foundry Six" }).first().click();
     await tv.page.waitForURL(/\/arms\/[^/]+$/);
     await tv.page.getByTestId("read-only-note").waitFor();
     expect(await tv.page.getByRole("button", { name: /Save new revision/ }).count()).toBe(0);

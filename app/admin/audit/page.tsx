@@ -3,6 +3,7 @@ import Link from "next/link";
 import { allowed, requireUser } from "@/app/_lib/session";
 import { listAuditEvents } from "@/lib/db";
 import "@/components/discussion/discussion.css";
+import { utc } from "@/shared/format";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Audit trail" };
@@ -54,7 +55,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
           <tbody>
             {events.map((e) => (
               <tr key={e.id}>
-                <td>{e.at.toISOString().slice(0, 19).replace("T", " ")}</td>
+                <td>{utc(e.at, { seconds: true })}</td>
                 <td>{e.actor?.name ?? (e.detail && typeof e.detail === "object" && "guest" in e.detail ? `${String((e.detail as { guest: unknown }).guest)} (guest)` : "—")}</td>
                 <td>{e.action}</td>
                 <td>

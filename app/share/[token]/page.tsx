@@ -10,6 +10,7 @@ import { anchorOptions } from "@/lib/views/anchors";
 import { DiscussionPanel } from "@/components/discussion/DiscussionPanel";
 import { GuestResult } from "@/components/share/GuestResult";
 import "@/components/discussion/discussion.css";
+import { utcDate } from "@/shared/format";
 
 export const dynamic = "force-dynamic";
 // The address holds the token: never send it on as a Referer, never index it.
@@ -43,7 +44,7 @@ export default async function SharePage({ params }: { params: Promise<{ token: s
         </h1>
         <span className="sub">
           {guest.access === "comment" ? "view and comment link" : "view-only link"}
-          {guest.expiresAt ? `, works until ${guest.expiresAt.toISOString().slice(0, 10)}` : ""}
+          {guest.expiresAt ? `, works until ${utcDate(guest.expiresAt)}` : ""}
         </span>
       </div>
       <section className="panel visibility" aria-labelledby="visibility-h" data-testid="visibility">

@@ -9,7 +9,7 @@ import { allowed, requireUser } from "@/app/_lib/session";
 import { ResultView } from "@/components/shortlist/ResultView";
 import { RunProgress } from "@/components/shortlist/RunProgress";
 import { PrintButton, RunAction } from "@/components/shortlist/RunActions";
-import { utc } from "@/components/shortlist/verdict";
+import { fixed, utc } from "@/shared/format";
 import { ShortlistCollaboration } from "@/components/discussion/ShortlistCollaboration";
 
 export const dynamic = "force-dynamic";
@@ -21,7 +21,7 @@ const samePins = (a: Pins | null, b: Pins) =>
 
 function runLabel(r: RunInfo): string {
   const when = r.finishedAt ? utc(r.finishedAt) : utc(r.createdAt);
-  const secs = r.startedAt && r.finishedAt && !r.reusedFromId ? ` in ${((r.finishedAt.getTime() - r.startedAt.getTime()) / 1000).toFixed(1)} s` : "";
+  const secs = r.startedAt && r.finishedAt && !r.reusedFromId ? ` in ${fixed((r.finishedAt.getTime() - r.startedAt.getTime()) / 1000, 1)} s` : "";
   return `${r.status}${r.reusedFromId ? " (reused an identical earlier analysis)" : ""}, ${when}${secs}`;
 }
 
