@@ -13,6 +13,7 @@
  * the "first load" rows; done when the view came in, that gave 961.5 → 964.2 KiB raw and
  * 280.3 → 281.2 KiB gzip (the button and its loader), with three.js in no first-load chunk.
  */
+import os from "node:os";
 import { gzipSync } from "node:zlib";
 import type { Page, Response } from "playwright-core";
 import { loadSeedArms } from "@/seed-data/index";
@@ -180,6 +181,9 @@ export async function run(): Promise<void> {
         "median ms": quantile(res.times, 0.5).toFixed(2),
         "p95 ms": quantile(res.times, 0.95).toFixed(2),
         "max ms": Math.max(...res.times).toFixed(2),
+        // Software WebGL shares the CPU with whatever else runs: the figures scale with the load.
+        "load (1 min)": os.loadavg()[0].toFixed(1),
+        cpus: os.cpus().length,
       },
     ]);
     if (t.errors().length) console.log("console errors:\n" + t.errors().join("\n"));

@@ -15,8 +15,9 @@ import {
 } from "three";
 import { OrbitControls } from "three/addons/controls/OrbitControls.js";
 import { CSS2DObject, CSS2DRenderer } from "three/addons/renderers/CSS2DRenderer.js";
+import { mergeGeometries } from "three/addons/utils/BufferGeometryUtils.js";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
-import { bounds, contentPoints, gridStep, originOf, pairBodies, type ArmFigure, type ForceMark, type ObstacleMark, type PairMark, type PathMark, type Pose, type SceneContent, type TargetMark, type Vec3 } from "./scene";
+import { bounds, contentPoints, focusPoints, gridStep, originOf, pairBodies, type ArmFigure, type ForceMark, type ObstacleMark, type PairMark, type PathMark, type Pose, type SceneContent, type TargetMark, type Vec3 } from "./scene";
 
 /** The palette of the view (our own): a warm drafting-paper ground with ink-like parts. */
 export const PALETTE = {
@@ -136,10 +137,10 @@ export class Viewer {
     // Low triangle counts: software WebGL (no GPU) pays per triangle.
     rod: new CylinderGeometry(1, 1, 1, 8, 1),
     cone: new ConeGeometry(1, 1, 10, 1),
-    sphere: new SphereGeometry(1, 18, 12),
+    sphere: new SphereGeometry(1, 12, 8),
     box: new BoxGeometry(1, 1, 1),
     boxEdges: new EdgesGeometry(new BoxGeometry(1, 1, 1)),
-    ring: new TorusGeometry(1, 0.14, 3, 18),
+    ring: new TorusGeometry(1, 0.14, 3, 12),
   };
   private readonly mats = {
     x: lambert(PALETTE.x), y: lambert(PALETTE.y), z: lambert(PALETTE.z),
@@ -188,7 +189,7 @@ export class Viewer {
     this.labels.setSize(w, h);
     this.camera.aspect = w / h;
     this.camera.updateProjectionMatrix();
-    if (this.framed) this.frameView(bounds(contentPoints(this.content)), this.framed);
+    if (this.framed) this.frameView(bounds(focusPoints(this.content)), this.framed);
     this.requestRender();
   }
 
@@ -211,9 +212,11 @@ export class Viewer {
   setContent(c: SceneContent, opts: { frame?: boolean } = {}): void {
     const prev = this.content;
     this.content = c;
+    // Marks are sized by what the camera frames (the arm and its targets); the grid spans everything.
     const b = bounds(contentPoints(c));
-    const resized = Math.abs(b.size - this.size) / this.size > 0.25 || opts.frame;
-    this.size = b.size;
+    const focus = bounds(focusPoints(c));
+    const resized = Math.abs(focus.size - this.size) / this.size > 0.25 || opts.frame;
+    this.size = focus.size;
     if (c.arm !== prev.arm || c.toolLabel !== prev.toolLabel) this.rebuild("arm", () => this.buildArm(c.arm ?? null, false, c.toolLabel ?? "tool point"));
     if (c.ghosts !== prev.ghosts) this.rebuild("ghosts", () => (c.ghosts ?? []).flatMap((g) => this.buildArm(g, true, "")));
     if (c.mount !== prev.mount) this.rebuild("mount", () => (c.mount ? [this.frameMark(c.mount, this.size * 0.08, "arm base", true)] : []));
@@ -229,9 +232,9 @@ export class Viewer {
     if (resized || this.groups.grid.children.length === 0 || c.floorZ !== prev.floorZ || c.originLabel !== prev.originLabel) {
       this.rebuild("grid", () => [this.buildGrid(b, c.floorZ ?? 0)]);
       const origin = c.originLabel === undefined ? "cell origin" : c.originLabel;
-      this.rebuild("world", () => (origin === null ? [] : [this.frameMark(IDENTITY_POSE, b.size * 0.1, origin, true)]));
+      this.rebuild("world", () => (origin === null ? [] : [this.frameMark(IDENTITY_POSE, focus.size * 0.1, origin, true)]));
     }
-    if (opts.frame) this.frameView(b, "iso");
+    if (opts.frame) this.frameView(focus, "iso");
     this.requestRender();
   }
 
@@ -256,7 +259,35 @@ export class Viewer {
     this.owned.set(key, own);
     this.building = own;
     for (const o of make()) g.add(o);
+    this.batch(g);
     this.building = null;
+  }
+
+  /**
+   * Merges the group's plain meshes that share a material into one mesh each (vertices moved to
+   * where the meshes were), so a group costs a few draw calls instead of one per rod: software
+   * WebGL pays dearly per call. Objects that carry a pose (frames) stay, without their meshes.
+   */
+  private batch(g: Group): void {
+    g.updateMatrixWorld(true);
+    const byMaterial = new Map<Material, BufferGeometry[]>();
+    const drop: Mesh[] = [];
+    g.traverse((o) => {
+      if (!(o instanceof Mesh) || o instanceof InstancedMesh || Array.isArray(o.material) || !o.geometry.index) return;
+      const geo = o.geometry.clone().applyMatrix4(o.matrixWorld);
+      const list = byMaterial.get(o.material) ?? [];
+      list.push(geo);
+      byMaterial.set(o.material, list);
+      drop.push(o);
+    });
+    for (const m of drop) m.removeFromParent();
+    for (const [mat, list] of byMaterial) {
+      const merged = list.length === 1 ? list[0] : mergeGeometries(list, false);
+      if (list.length > 1) list.forEach((x) => x.dispose());
+      if (!merged) continue;
+      this.own(merged);
+      g.add(new Mesh(merged, mat));
+    }
   }
   private building: Owned | null = null;
   private own<T extends BufferGeometry>(geo: T): T {
@@ -337,7 +368,7 @@ export class Viewer {
     for (const [p, q] of a.segments) out.push(this.rod(p, q, r, linkMat));
     for (const c of a.capsules) {
       const len = Math.hypot(c.to[0] - c.from[0], c.to[1] - c.from[1], c.to[2] - c.from[2]);
-      const m = new Mesh(this.own(new CapsuleGeometry(c.radius, len, 4, 16)), ghost ? this.mats.ghost : this.mats.capsule);
+      const m = new Mesh(this.own(new CapsuleGeometry(c.radius, len, 3, 10)), ghost ? this.mats.ghost : this.mats.capsule);
       m.position.set((c.from[0] + c.to[0]) / 2, (c.from[1] + c.to[1]) / 2, (c.from[2] + c.to[2]) / 2);
       if (len > 0) m.quaternion.setFromUnitVectors(Y_AXIS, new Vector3(c.to[0] - c.from[0], c.to[1] - c.from[1], c.to[2] - c.from[2]).normalize());
       out.push(m);
@@ -404,26 +435,47 @@ export class Viewer {
     geo.setAttribute("color", new Float32BufferAttribute(col, 3));
     out.push(new LineSegments(geo, this.ownMat(new LineBasicMaterial({ vertexColors: true }))));
     // Reached (or not yet analysed) targets: a ring about the tool z axis; missed ones: a cross.
-    if (rings.length) {
-      const ringMesh = new InstancedMesh(this.shared.ring, rings.some((t) => t.status) ? this.mats.reached : this.mats.target, rings.length);
-      rings.forEach((t, i) => {
-        const rr = (t.selected ? 0.5 : 0.3) * len;
-        ringMesh.setMatrixAt(i, matrixOf(t.pose, m).multiply(new Matrix4().makeScale(rr, rr, rr)));
-      });
-      ringMesh.instanceMatrix.needsUpdate = true;
-      out.push(ringMesh);
+    // The selected target's mark is solid; the others are drawn as lines (no triangles to pay for).
+    const ringPts: number[] = [], crossPts: number[] = [];
+    const at = (t: TargetMark, x: number, y: number, out3: number[]) => {
+      const p = t.pose;
+      out3.push(p[0] * x + p[1] * y + p[3], p[4] * x + p[5] * y + p[7], p[8] * x + p[9] * y + p[11]);
+    };
+    const SEG = 12;
+    for (const t of rings) {
+      const rr = (t.selected ? 0.5 : 0.3) * len;
+      if (t.selected) {
+        const mesh = new Mesh(this.shared.ring, t.status ? this.mats.reached : this.mats.target);
+        mesh.matrixAutoUpdate = false;
+        mesh.matrix.copy(matrixOf(t.pose, m).multiply(new Matrix4().makeScale(rr, rr, rr)));
+        out.push(mesh);
+        continue;
+      }
+      for (let k = 0; k < SEG; k++) {
+        const a0 = (2 * Math.PI * k) / SEG, a1 = (2 * Math.PI * (k + 1)) / SEG;
+        at(t, rr * Math.cos(a0), rr * Math.sin(a0), ringPts);
+        at(t, rr * Math.cos(a1), rr * Math.sin(a1), ringPts);
+      }
     }
-    if (crosses.length) {
-      const crossMesh = new InstancedMesh(this.shared.box, this.mats.missed, crosses.length * 2);
-      crosses.forEach((t, i) => {
-        const rr = (t.selected ? 0.9 : 0.6) * len;
+    for (const t of crosses) {
+      const rr = ((t.selected ? 0.9 : 0.6) * len) / 2;
+      if (t.selected) {
         for (let k = 0; k < 2; k++) {
-          const rot = new Matrix4().makeRotationZ(Math.PI / 4 + (k * Math.PI) / 2);
-          crossMesh.setMatrixAt(2 * i + k, matrixOf(t.pose, new Matrix4()).multiply(rot).multiply(new Matrix4().makeScale(rr, rr * 0.16, rr * 0.16)));
+          const bar = new Mesh(this.shared.box, this.mats.missed);
+          bar.matrixAutoUpdate = false;
+          bar.matrix.copy(matrixOf(t.pose, new Matrix4()).multiply(new Matrix4().makeRotationZ(Math.PI / 4 + (k * Math.PI) / 2)).multiply(new Matrix4().makeScale(2 * rr, rr * 0.32, rr * 0.32)));
+          out.push(bar);
         }
-      });
-      crossMesh.instanceMatrix.needsUpdate = true;
-      out.push(crossMesh);
+        continue;
+      }
+      at(t, -rr, -rr, crossPts); at(t, rr, rr, crossPts);
+      at(t, -rr, rr, crossPts); at(t, rr, -rr, crossPts);
+    }
+    for (const [pts, color] of [[ringPts, rings.some((t) => t.status) ? PALETTE.reached : PALETTE.target], [crossPts, PALETTE.missed]] as const) {
+      if (!pts.length) continue;
+      const lg = this.own(new BufferGeometry());
+      lg.setAttribute("position", new Float32BufferAttribute(pts, 3));
+      out.push(new LineSegments(lg, this.ownMat(new LineBasicMaterial({ color }))));
     }
     return out;
   }
@@ -483,7 +535,7 @@ export class Viewer {
       labelAt = [c[0], c[1], c[2] + o.length / 2];
     } else {
       const d = new Vector3(o.to[0] - o.from[0], o.to[1] - o.from[1], o.to[2] - o.from[2]);
-      const mesh = new Mesh(this.own(new CapsuleGeometry(o.radius, d.length(), 4, 16)), material);
+      const mesh = new Mesh(this.own(new CapsuleGeometry(o.radius, d.length(), 3, 10)), material);
       mesh.position.set((o.from[0] + o.to[0]) / 2, (o.from[1] + o.to[1]) / 2, (o.from[2] + o.to[2]) / 2);
       if (d.length() > 0) mesh.quaternion.setFromUnitVectors(Y_AXIS, d.normalize());
       g.add(mesh);
@@ -550,7 +602,7 @@ export class Viewer {
     for (const [a, b] of hit.segments) g.add(this.rod(a, b, s * 0.016, this.mats.pair));
     for (const cap of hit.capsules) {
       const len = Math.hypot(cap.to[0] - cap.from[0], cap.to[1] - cap.from[1], cap.to[2] - cap.from[2]);
-      const m = new Mesh(this.own(new CapsuleGeometry(cap.radius * 1.06, len, 4, 16)), this.mats.pair);
+      const m = new Mesh(this.own(new CapsuleGeometry(cap.radius * 1.06, len, 3, 10)), this.mats.pair);
       m.position.set((cap.from[0] + cap.to[0]) / 2, (cap.from[1] + cap.to[1]) / 2, (cap.from[2] + cap.to[2]) / 2);
       if (len > 0) m.quaternion.setFromUnitVectors(Y_AXIS, new Vector3(cap.to[0] - cap.from[0], cap.to[1] - cap.from[1], cap.to[2] - cap.from[2]).normalize());
       g.add(m);
@@ -630,7 +682,7 @@ export class Viewer {
 
   /** A preset view framing the current content; `reset` is the iso view the view opens with. */
   view(preset: PresetView | "reset"): void {
-    this.frameView(bounds(contentPoints(this.content)), preset === "reset" ? "iso" : preset);
+    this.frameView(bounds(focusPoints(this.content)), preset === "reset" ? "iso" : preset);
     this.requestRender();
   }
 

@@ -344,7 +344,16 @@ export interface SceneContent {
   floorZ?: number;
 }
 
-/** Points that should be in view when the camera frames the scene. */
+/**
+ * The points the camera frames: the arm, targets, paths and force marks; the obstacles only when
+ * there is nothing else (a large cell around a small arm would otherwise shrink the arm).
+ */
+export function focusPoints(c: SceneContent): Vec3[] {
+  const pts = contentPoints({ ...c, obstacles: [] });
+  return pts.length > 0 ? pts : contentPoints(c);
+}
+
+/** Every point of the content (for the grid's extent). */
 export function contentPoints(c: SceneContent): Vec3[] {
   const pts: Vec3[] = [];
   const fig = (a: ArmFigure) => {
