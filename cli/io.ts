@@ -19,7 +19,7 @@ export class CliError extends Error {
 }
 
 /** What a command prints: an object (printed as one line of JSON) or ready text (printed as is). */
-export type CliOutput = Record<string, unknown> | string;
+type CliOutput = Record<string, unknown> | string;
 
 /** One entry of the dispatch table in cli/armsift.ts. */
 export interface CliCommand {

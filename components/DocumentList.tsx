@@ -7,7 +7,7 @@ import { PageHead } from "./PageHead";
 import { utc } from "@/shared/format";
 
 /** What a listed document (arm, requirement set) has for the list's own columns and controls. */
-export interface ListedDocument {
+interface ListedDocument {
   id: string;
   name: string;
   revision: number;
@@ -24,7 +24,7 @@ export interface DocumentColumn<T> {
   cell: (row: T) => ReactNode;
 }
 
-export interface DocumentListProps<T extends ListedDocument> {
+interface DocumentListProps<T extends ListedDocument> {
   rows: T[];
   canWrite: boolean;
   title: string;

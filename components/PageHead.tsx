@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 
 /** "1 arm", "3 arms": a count with its noun (plural by adding s). */
-export function countOf(n: number, noun: string): string {
+function countOf(n: number, noun: string): string {
   return `${n} ${noun}${n === 1 ? "" : "s"}`;
 }
 

@@ -5,7 +5,7 @@ import { POSE_KEYS, type PoseText } from "./pose";
 const LABEL: Record<keyof PoseText, string> = { x: "x", y: "y", z: "z", roll: "roll", pitch: "pitch", yaw: "yaw" };
 
 /** The field errors of the pose at `key` ("base", "tool.tcp"), by pose key. */
-export function poseErrors(errors: Record<string, string[]>, key: string): Partial<Record<keyof PoseText, string>> {
+function poseErrors(errors: Record<string, string[]>, key: string): Partial<Record<keyof PoseText, string>> {
   const out: Partial<Record<keyof PoseText, string>> = {};
   for (const k of POSE_KEYS) {
     const m = errText(errors, `${key}.${k}`);

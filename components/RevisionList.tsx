@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { utc } from "@/shared/format";
 
-export interface RevisionRow {
+interface RevisionRow {
   revision: number;
   createdAt: string;
   author: string | null;

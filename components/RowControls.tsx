@@ -2,7 +2,7 @@
 import { moveItem } from "./pose";
 
 /** A copy of the list without item i. */
-export function removeAt<T>(list: T[], i: number): T[] {
+function removeAt<T>(list: T[], i: number): T[] {
   return list.filter((_, k) => k !== i);
 }
 

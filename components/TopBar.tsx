@@ -2,7 +2,7 @@ import Link from "next/link";
 import { NavLinks } from "./NavLinks";
 import { SignOutButton } from "./SignOutButton";
 
-export interface TopBarUser {
+interface TopBarUser {
   name: string;
   email: string;
   role: string;

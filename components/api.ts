@@ -1,7 +1,7 @@
 import type { FieldError } from "@/shared/schemas/common";
 
 /** Error body of the JSON API (docs/design.md#application). */
-export interface ApiErrorBody {
+interface ApiErrorBody {
   code: string;
   message: string;
   fieldErrors?: FieldError[];
@@ -13,7 +13,7 @@ export interface ApiErrorBody {
   };
 }
 
-export type ApiResult<T> = { ok: true; status: number; data: T } | { ok: false; status: number; error: ApiErrorBody };
+type ApiResult<T> = { ok: true; status: number; data: T } | { ok: false; status: number; error: ApiErrorBody };
 
 /** Sends JSON to the API and returns the parsed body or the API's error object; never throws. */
 export async function api<T>(url: string, method: string, body?: unknown): Promise<ApiResult<T>> {

@@ -30,7 +30,7 @@ export interface PoseText {
   yaw: string;
 }
 export const POSE_KEYS = ["x", "y", "z", "roll", "pitch", "yaw"] as const;
-export const ZERO_POSE: PoseText = { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" };
+const ZERO_POSE: PoseText = { x: "0", y: "0", z: "0", roll: "0", pitch: "0", yaw: "0" };
 
 /** Row-major 4×4 from position (m) and roll, pitch, yaw (rad); matrixPose is its inverse. */
 export { rpyPose as poseMatrix, poseRpy as matrixPose } from "@/shared/pose";

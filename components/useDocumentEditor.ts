@@ -29,7 +29,7 @@ export interface DocumentKind<Doc, Form> {
   formatValue: (path: string, value: unknown, doc: Doc | undefined) => string;
 }
 
-export interface EditorConflict<Doc> {
+interface EditorConflict<Doc> {
   byName: string | null;
   baseRevision: number;
   currentRevision: number;
@@ -38,7 +38,7 @@ export interface EditorConflict<Doc> {
   mine: Doc;
 }
 
-export interface KeptEditsState {
+interface KeptEditsState {
   rows: { label: string; path: string; mine: string }[];
   json: string;
 }

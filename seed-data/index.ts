@@ -17,7 +17,7 @@ import { requirementSetSchema, type RequirementSet } from "@/shared/schemas/requ
 import { toFieldErrors } from "@/shared/schemas/common";
 
 /** Folder of the seed data, resolved against the current working directory (the repository root). */
-export function seedDataDir(root: string = process.cwd()): string {
+function seedDataDir(root: string = process.cwd()): string {
   return path.join(root, "seed-data");
 }
 

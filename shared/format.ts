@@ -9,10 +9,10 @@
  * Prices use the currency style with the ISO code the arm's datasheet gives ("EUR 21,000").
  */
 
-export const LOCALE = "en-GB";
+const LOCALE = "en-GB";
 
 /** The text shown for a value that is missing or not a finite number. */
-export const MISSING = "–";
+const MISSING = "–";
 
 const numberFormats = new Map<string, Intl.NumberFormat>();
 

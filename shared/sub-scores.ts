@@ -10,7 +10,7 @@
  */
 
 /** One sub-score as people see it. */
-export interface SubScoreRow {
+interface SubScoreRow {
   /** Stable key: the field name under `weights` in requirement-set files, and in results. */
   readonly key: string;
   /** Name on the page, in the editor and in export column headers. */
@@ -37,7 +37,7 @@ export const SUB_SCORE_ROWS = [
 export type SubScoreKey = (typeof SUB_SCORE_ROWS)[number]["key"];
 
 /** A table of sub-scores and the look-ups everything else needs. */
-export interface SubScoreTable<K extends string = string> {
+interface SubScoreTable<K extends string = string> {
   readonly rows: readonly (SubScoreRow & { readonly key: K })[];
   /** Keys in display order. */
   readonly keys: readonly K[];

@@ -3,8 +3,8 @@
  * and the units shown to people (mm, degrees, kg, N, N·m, mm/s).
  * Isomorphic: used by browser and server.
  */
-export const MM_PER_M = 1000;
-export const DEG_PER_RAD = 180 / Math.PI;
+const MM_PER_M = 1000;
+const DEG_PER_RAD = 180 / Math.PI;
 /** Standard gravity, m/s² (CGPM 1901 conventional value). */
 export const STANDARD_GRAVITY = 9.80665;
 

@@ -3,7 +3,7 @@ import { redirect } from "next/navigation";
 import { getCurrentUser } from "@/lib/auth/session";
 import { can, type Action } from "@/lib/auth/permissions";
 
-export type PageUser = NonNullable<Awaited<ReturnType<typeof getCurrentUser>>>;
+type PageUser = NonNullable<Awaited<ReturnType<typeof getCurrentUser>>>;
 
 /** The signed-in user, or a redirect to /signin (keeping where the visitor wanted to go). */
 export async function requireUser(from?: string): Promise<PageUser> {

@@ -14,7 +14,7 @@ import { CliError, parseOptions, readArm, readDocument, required, type CliComman
  * The compliance table: specs, then targets and paths, each against every arm. Written by the
  * exports' CSV writer (quoting and the spreadsheet-formula guard), one LF-ended line per record.
  */
-export function complianceCsv(result: ShortlistAnalysis): string {
+function complianceCsv(result: ShortlistAnalysis): string {
   const rows: (string | number | null)[][] = [["kind", "requirement", "priority", "required", "arm", "value", "unit", "verdict", "reason"]];
   const nSpecs = result.requirementSet.specs.length;
   for (let i = 0; i < nSpecs; i++) {

@@ -2,7 +2,7 @@
 import { createData, createModel, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { CliError, parseNumberList, readArm, readConfigs, required, type ParsedOptions } from "../io";
 
-export interface ArmAndConfigs {
+interface ArmAndConfigs {
   model: ArmModel;
   data: ArmData;
   /** The configurations to evaluate, and whether the batch form (--configs) was used. */

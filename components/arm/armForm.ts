@@ -10,14 +10,14 @@ import { parseNum, parsePose, poseMatrix, poseTextFromMatrix, rowKey, samePose, 
 import { applyCollisionForm, capsuleRowsFromDoc, ignoredPairsText, type CapsuleRow } from "./collisionForm";
 
 export type JointType = "revolute" | "prismatic";
-export const JOINT_NUM_FIELDS = [
+const JOINT_NUM_FIELDS = [
   "a", "alpha", "d", "theta",
   "ox", "oy", "oz", "roll", "pitch", "yaw", "axisX", "axisY", "axisZ",
   "min", "max", "maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ", "radius",
 ] as const;
 export type JointNumField = (typeof JOINT_NUM_FIELDS)[number];
 /** The DH table columns (`dh`, `mdh`). */
-export const DH_FIELDS = ["a", "alpha", "d", "theta"] as const;
+const DH_FIELDS = ["a", "alpha", "d", "theta"] as const;
 /** The chain columns: origin x y z (mm), roll pitch yaw (°), axis x y z (no unit). */
 export const ORIGIN_FIELDS = ["ox", "oy", "oz", "roll", "pitch", "yaw"] as const;
 export const AXIS_FIELDS = ["axisX", "axisY", "axisZ"] as const;
@@ -61,7 +61,7 @@ export interface JointRow {
   orig?: { type: JointType; values: Partial<Record<JointNumField, { text: string; si: number }>> };
 }
 
-export interface WristRow {
+interface WristRow {
   key: string;
   joint: string;
   moment: string;
@@ -178,7 +178,7 @@ export function jointFieldToDisplay(field: JointNumField, type: JointType, si: n
   }
 }
 
-export function jointFieldFromDisplay(field: JointNumField, type: JointType, shown: number): number {
+function jointFieldFromDisplay(field: JointNumField, type: JointType, shown: number): number {
   switch (field) {
     case "alpha":
     case "theta":

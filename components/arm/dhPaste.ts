@@ -9,7 +9,7 @@
 import { JOINT_LABEL, newJointRow, jointFieldUnit, type JointNumField, type JointRow, type JointType } from "./armForm";
 import { parseNum, show } from "../pose";
 
-export const DOCUMENTED_ORDER: (JointNumField | "type")[] = ["type", "a", "alpha", "d", "theta", "min", "max", "maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ"];
+const DOCUMENTED_ORDER: (JointNumField | "type")[] = ["type", "a", "alpha", "d", "theta", "min", "max", "maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ"];
 const REQUIRED: JointNumField[] = ["a", "alpha", "d", "theta", "min", "max"];
 
 const HEADER_ALIASES: Record<string, JointNumField | "type" | "ignore"> = {
@@ -45,7 +45,7 @@ function parseType(cell: string): JointType | undefined {
   return undefined;
 }
 
-export interface PasteRow {
+interface PasteRow {
   /** 1-based data row number (the header row is not counted). */
   row: number;
   cells: string[];
@@ -53,7 +53,7 @@ export interface PasteRow {
   errors: string[];
 }
 
-export interface PasteResult {
+interface PasteResult {
   columns: (JointNumField | "type" | "ignore")[];
   header: boolean;
   delimiter: "tab" | "comma" | "semicolon";

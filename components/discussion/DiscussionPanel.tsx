@@ -7,7 +7,7 @@ import { utc } from "@/shared/format";
 
 export type { AnchorOption };
 
-export type DiscussionMode =
+type DiscussionMode =
   | { kind: "member"; shortlistId: string; userId: string; canWrite: boolean; canResolve: boolean; canModerate: boolean }
   | { kind: "guest"; token: string; canWrite: boolean };
 

@@ -1,7 +1,7 @@
 "use client";
 import { DocumentList, type DocumentColumn } from "../DocumentList";
 
-export interface RequirementRow {
+interface RequirementRow {
   id: string;
   name: string;
   targets: number;

@@ -63,7 +63,7 @@ export interface SpecRow {
   priority: "must" | "want";
   note: string;
 }
-export type WeightKey = keyof Weights;
+type WeightKey = keyof Weights;
 /** One weight field per row of the sub-score table (shared/sub-scores.ts), labelled by it. */
 export const WEIGHT_KEYS: readonly WeightKey[] = SUB_SCORES.keys;
 export const WEIGHT_LABEL: Readonly<Record<WeightKey, string>> = SUB_SCORES.label;
@@ -359,7 +359,7 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
 }
 
 /** Names typed as a comma-separated list (empty entries dropped). */
-export function nameList(text: string): string[] {
+function nameList(text: string): string[] {
   return text.split(",").map((x) => x.trim()).filter(Boolean);
 }
 

@@ -13,7 +13,7 @@ import type { BodyShape, FieldError, Obstacle, ObstacleShape } from "@/shared/sc
 import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { matrixPose, parseNum, poseMatrix, rowKey, show } from "../pose";
 
-export const SHAPE_TEXT_KEYS = ["x", "y", "z", "roll", "pitch", "yaw", "s1", "s2", "s3"] as const;
+const SHAPE_TEXT_KEYS = ["x", "y", "z", "roll", "pitch", "yaw", "s1", "s2", "s3"] as const;
 export type ShapeTextKey = (typeof SHAPE_TEXT_KEYS)[number];
 
 export interface ShapeRow {

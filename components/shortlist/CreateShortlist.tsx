@@ -7,7 +7,7 @@ import { parseNum } from "../pose";
 import { price } from "@/shared/format";
 import type { ArmListing } from "@/lib/views/listing";
 
-export interface RequirementChoice {
+interface RequirementChoice {
   id: string;
   name: string;
   revision: number;

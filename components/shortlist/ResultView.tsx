@@ -221,7 +221,7 @@ function ArmSection({ arm, index, shortlistId, runId, required }: { arm: ArmAnal
   );
 }
 
-export function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
+function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
   const specs = analysis.requirementSet.specs;
   const first = analysis.arms.find((a) => a.specs.length === specs.length);
   const cell = analysis.cell;

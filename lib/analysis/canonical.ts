@@ -32,7 +32,7 @@ export function canonicalJson(value: unknown): string {
  * strings give unrelated seeds. Not for security. Never 0 (0 is mapped to 1), so it is a valid
  * generator seed.
  */
-export function hash32(text: string): number {
+function hash32(text: string): number {
   let h = 0x811c9dc5;
   for (let i = 0; i < text.length; i++) {
     h ^= text.charCodeAt(i);
@@ -56,7 +56,7 @@ export function armSeedText(arm: Pick<ArmDocument, "convention" | "joints" | "ba
 }
 
 /** What a seed is for; part of the hashed text so the streams differ. */
-export type SeedPurpose = "ranks" | "target" | "path" | "workspace";
+type SeedPurpose = "ranks" | "target" | "path" | "workspace";
 
 /** Seed for one purpose of one arm; `item` is the target's or path's name ("" otherwise). */
 export function contentSeed(armText: string, purpose: SeedPurpose, item = ""): number {

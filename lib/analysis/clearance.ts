@@ -7,7 +7,7 @@ import type { ArmAnalysis } from "./shortlist";
 import type { Verdict } from "./types";
 import { fixed } from "@/shared/format";
 
-export interface ArmClearance {
+interface ArmClearance {
   /** Smallest clearance (m), or null when nothing was measured. */
   value: number | null;
   /** meets: at least the required clearance everywhere measured; marginal: below it; fails: a path collides; unknown: nothing checked. */

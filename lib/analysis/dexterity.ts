@@ -17,7 +17,7 @@ import { taskJacobianInto } from "@/lib/kinematics";
 import { svdRows, symmetricEigen, cholesky, type SvdRows } from "./linalg";
 
 /** Singular values below this fraction of the block's σ₁ count as zero when ranks are counted. */
-export const RANK_TOLERANCE = 1e-6;
+const RANK_TOLERANCE = 1e-6;
 
 /** Dexterity margins below this are `marginal` (see {@link dexterityMargin} for the reasoning). */
 export const DEXTERITY_MARGINAL_THRESHOLD = 0.2;
@@ -26,10 +26,10 @@ export const DEXTERITY_MARGINAL_THRESHOLD = 0.2;
  * A joint closer to a limit than this normalised margin (i.e. within 12.5 % of its range of
  * either end) lowers the dexterity margin; beyond it, the joint-limit factor is 1.
  */
-export const JOINT_MARGIN_SATURATION = 0.25;
+const JOINT_MARGIN_SATURATION = 0.25;
 
 /** Measures of one 3×n block (translational or rotational) of a Jacobian. */
-export interface BlockMeasures {
+interface BlockMeasures {
   /**
    * Singular values, descending (3 numbers, 2 for the axis-target block; m/rad for translation,
    * dimensionless for rotation).
@@ -62,7 +62,7 @@ export interface BlockMeasures {
  * Measures of a 3×n block given its SVD. `rank` is the generic rank to use (structural: e.g. 1 for
  * the rotation of a 4-axis SCARA); defaults to the numerical rank of this matrix.
  */
-export function blockMeasuresFromSvd(svd: SvdRows, rank?: number, reference = 0): BlockMeasures {
+function blockMeasuresFromSvd(svd: SvdRows, rank?: number, reference = 0): BlockMeasures {
   const s = svd.sigma;
   const directions: number[][] = [];
   for (let j = 0; j < 3; j++) directions.push([svd.u[j], svd.u[3 + j], svd.u[6 + j]]);
@@ -95,7 +95,7 @@ export function blockMeasuresFromSvd(svd: SvdRows, rank?: number, reference = 0)
  * the orientation blocks): a block that is zero in exact arithmetic holds only rounding noise, and
  * against its own σ₁ that noise would count as full rank.
  */
-export function numericalRank(sigma: ArrayLike<number>, reference = 0): number {
+function numericalRank(sigma: ArrayLike<number>, reference = 0): number {
   const scale = Math.max(sigma[0], reference);
   if (!(scale > 0)) return 0;
   let r = 0;
@@ -180,7 +180,7 @@ export function spdDistanceLogEuclidean(a: ArrayLike<number>, b: ArrayLike<numbe
 }
 
 /** Matrix logarithm of an SPD matrix via its eigen-decomposition; null if not positive definite. */
-export function spdLog(a: ArrayLike<number>, k: number): Float64Array | null {
+function spdLog(a: ArrayLike<number>, k: number): Float64Array | null {
   const { values, vectors } = symmetricEigen(a, k);
   const out = new Float64Array(k * k);
   for (let j = 0; j < k; j++) {
@@ -192,14 +192,14 @@ export function spdLog(a: ArrayLike<number>, k: number): Float64Array | null {
 }
 
 /** Joint limits as the dexterity needs them (an `ArmModel` satisfies this). */
-export interface JointLimits {
+interface JointLimits {
   readonly n: number;
   readonly lower: ArrayLike<number>;
   readonly upper: ArrayLike<number>;
 }
 
 /** Joint-limit margin at q. */
-export interface JointLimitMargin {
+interface JointLimitMargin {
   /** min over joints of mᵢ ∈ [0, 1]; 1 when no joint has a range (all locked). */
   margin: number;
   /** 1-based joint giving the minimum, or null when no joint has a range. */
@@ -242,7 +242,7 @@ export interface StructuralRanks {
 }
 
 /** Which factor limits the dexterity margin. */
-export type DexterityLimit = "translation" | "orientation" | "joint-limit";
+type DexterityLimit = "translation" | "orientation" | "joint-limit";
 
 /** Everything the dexterity analysis reports at one configuration. */
 export interface DexterityReport {
@@ -350,7 +350,7 @@ export function dexterityAt(
  * J_r·P with P = I − Σ vⱼvⱼᵀ the projector onto the null space of the translational block (vⱼ its
  * right singular vectors with σⱼ above the rank tolerance). Returns a 3×n row-major matrix.
  */
-export function orientationBlock(jac: ArrayLike<number>, n: number, svdT: SvdRows): Float64Array {
+function orientationBlock(jac: ArrayLike<number>, n: number, svdT: SvdRows): Float64Array {
   const out = new Float64Array(3 * n);
   for (let r = 0; r < 3; r++) for (let c = 0; c < n; c++) out[r * n + c] = jac[(3 + r) * n + c];
   const s0 = svdT.sigma[0];
@@ -373,7 +373,7 @@ export function orientationBlock(jac: ArrayLike<number>, n: number, svdT: SvdRow
  * {@link orientationBlock}) projected on the tool's x and y axes by the task construction that IK
  * and paths use (lib/kinematics/task.ts, `axis` rows 3–4). `jac` supplies the translational rows.
  */
-export function axisOrientationBlock(jac: ArrayLike<number>, jo: ArrayLike<number>, n: number, toolPose: ArrayLike<number>): Float64Array {
+function axisOrientationBlock(jac: ArrayLike<number>, jo: ArrayLike<number>, n: number, toolPose: ArrayLike<number>): Float64Array {
   const stacked = new Float64Array(6 * n);
   for (let k = 0; k < 3 * n; k++) { stacked[k] = jac[k]; stacked[3 * n + k] = jo[k]; }
   const task = new Float64Array(5 * n);

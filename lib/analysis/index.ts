@@ -15,6 +15,6 @@ export * from "./workspace";
 export * from "./cycle";
 export * from "./shortlist";
 export { createArmContext, placedArmKinematics, type ArmContext } from "./context";
-export { armClearance, type ArmClearance } from "./clearance";
+export { armClearance } from "./clearance";
 export * from "./copies";
 export * from "./speed";

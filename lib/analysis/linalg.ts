@@ -107,7 +107,7 @@ export function pseudoInverseSolve(svd: SvdRows, b: ArrayLike<number>, relTol = 
 }
 
 /** Eigen-decomposition S = V·diag(λ)·Vᵀ of a symmetric k×k matrix. */
-export interface SymmetricEigen {
+interface SymmetricEigen {
   /** Eigenvalues, descending. */
   values: Float64Array;
   /** Eigenvectors as the COLUMNS of this row-major k×k matrix. */

@@ -21,9 +21,9 @@ import { worseVerdict, type Verdict } from "./types";
 import { checkCell, checkMotion, contactMask, pairNames } from "./cell";
 
 /** A joint jump between neighbouring samples larger than this (rad) is a configuration flip. */
-export const FLIP_JUMP = (30 * Math.PI) / 180;
+const FLIP_JUMP = (30 * Math.PI) / 180;
 /** For prismatic joints: a jump larger than this fraction of the range is a flip. */
-export const FLIP_JUMP_PRISMATIC_FRACTION = 0.1;
+const FLIP_JUMP_PRISMATIC_FRACTION = 0.1;
 /**
  * A joint within this normalised margin of a limit is a limit hit: 2·AT_LIMIT_FRACTION, i.e. within
  * 0.5 % of its range from an end, the band in which the exact speed lets it move only away from
@@ -33,7 +33,7 @@ export const LIMIT_HIT_MARGIN = 2 * AT_LIMIT_FRACTION;
 /** The speed ratio needed for `meets`; between 1 and this it is `marginal` (20 % headroom). */
 export const SPEED_MARGINAL_RATIO = 1.2;
 /** Sampling step for rotation-only segments (rad). */
-export const ROTATION_STEP = (2 * Math.PI) / 180;
+const ROTATION_STEP = (2 * Math.PI) / 180;
 
 /** Budget for one path. */
 export interface PathBudget {
@@ -54,7 +54,7 @@ export interface PathBudget {
 export const DEFAULT_PATH_BUDGET: PathBudget = { maxSamples: 1000, continuationIterations: 20, fallbackRestarts: 6, restartBudget: 48, startBranches: 2 };
 
 /** One sample event (flip, restart, limit hit). */
-export interface PathEvent {
+interface PathEvent {
   /** Sample index. */
   index: number;
   /** Arc length at the sample (m). */
@@ -140,7 +140,7 @@ export interface PathAnalysis {
 }
 
 /** The cell along a path. */
-export interface PathCell {
+interface PathCell {
   /** No collision at any reached sample nor between consecutive reached samples. */
   collisionFree: boolean;
   /** Required clearance (m). */
@@ -500,7 +500,7 @@ function summarise(ctx: ArmContext, path: PathSpec, samples: Sample[], tr: Trave
  * speed limits, with joints at a position limit (within AT_LIMIT_FRACTION of the range) not moving
  * beyond it. `task` is the m×n task Jacobian at q, `b` the required task velocity (m/s, rad/s).
  */
-export function exactSpeedRatio(model: ArmModel, task: ArrayLike<number>, rows: number, b: ArrayLike<number>, q: ArrayLike<number>): SpeedScale {
+function exactSpeedRatio(model: ArmModel, task: ArrayLike<number>, rows: number, b: ArrayLike<number>, q: ArrayLike<number>): SpeedScale {
   const bounds = speedBounds(model.lower, model.upper, model.maxSpeed, q);
   return maxSpeedScale(task, rows, model.n, b, bounds.lower, bounds.upper);
 }

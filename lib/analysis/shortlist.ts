@@ -34,14 +34,14 @@ export interface ShortlistArm {
 }
 
 /** Budgets (tunable without changing the meaning of the results). */
-export interface AnalysisBudget {
+interface AnalysisBudget {
   target: TargetBudget;
   path: PathBudget;
   workspace: WorkspaceBudget;
 }
 export const DEFAULT_BUDGET: AnalysisBudget = { target: DEFAULT_TARGET_BUDGET, path: DEFAULT_PATH_BUDGET, workspace: DEFAULT_WORKSPACE_BUDGET };
 
-export interface AnalyzeOptions {
+interface AnalyzeOptions {
   /**
    * Called after each target, each path and the workspace of each arm with the overall fraction
    * done (0…1) and a description of the step just finished, e.g.
@@ -58,7 +58,7 @@ export interface AnalyzeOptions {
 }
 
 /** Counts of verdicts. */
-export type VerdictCounts = Record<Verdict, number>;
+type VerdictCounts = Record<Verdict, number>;
 
 /** Everything about one arm. */
 export interface ArmAnalysis {
@@ -94,7 +94,7 @@ export interface ArmAnalysis {
 }
 
 /** What the cell checks for one arm. */
-export interface ArmCell {
+interface ArmCell {
   /** Pairs of bodies checked at every configuration. */
   checkedPairs: number;
   /** Pairs not checked, by name, and why (the arm's ignored pairs, or derived capsules that always touch). */
@@ -109,7 +109,7 @@ export interface ArmCell {
  * The cell the analysis used (absent in results made before collisions were checked: such a
  * result was made without the cell).
  */
-export interface ShortlistCell {
+interface ShortlistCell {
   /** Obstacle names, in the requirement set's order. */
   obstacles: string[];
   /** Required clearance (m). */

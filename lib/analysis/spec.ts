@@ -9,7 +9,7 @@ import { upTo } from "@/shared/format";
 import type { Verdict } from "./types";
 
 /** A parsed IP code. Digits are numbers, or null for 'X' (not tested / not stated). */
-export interface IpCode {
+interface IpCode {
   /** First characteristic numeral (solid foreign objects, 0–6), null for X. */
   solid: number | null;
   /**

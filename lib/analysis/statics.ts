@@ -186,7 +186,7 @@ export function gravityTorque(
 }
 
 /** Static payload capacity at a point. */
-export interface PayloadCapacity {
+interface PayloadCapacity {
   /** Largest extra mass (kg) at the point the joints can hold on top of τ_hold; null as in {@link CapacityResult}. */
   extraMass: number | null;
   status: CapacityResult["status"];
@@ -217,7 +217,7 @@ export interface WristBody {
 }
 
 /** Loads about one wrist axis. */
-export interface WristAxisLoad {
+interface WristAxisLoad {
   /** |moment| of the loads' weight about the axis at this pose (N·m). */
   momentAtPose: number;
   /** g·‖Σ mᵢ r⊥ᵢ‖: the moment when gravity is perpendicular to the offset (the load-diagram case), N·m. */

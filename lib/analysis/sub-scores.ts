@@ -13,7 +13,7 @@ import type { TargetAnalysis } from "./targets";
 import { fixed } from "@/shared/format";
 
 /** What a rule sees of an analysed arm. */
-export interface AnalysedArm {
+interface AnalysedArm {
   arm: ArmDocument;
   ctx: ArmContext;
   /** Same order as the requirement set's targets and paths. */
@@ -24,7 +24,7 @@ export interface AnalysedArm {
   candidates: readonly ArmDocument[];
 }
 
-export interface SubScoreRule {
+interface SubScoreRule {
   /** Scores an analysed arm. */
   score(input: AnalysedArm): SubScore;
   /**
@@ -120,7 +120,7 @@ const pathSpeed: SubScoreRule = {
 };
 
 /** The clearance that scores 1: twice the required one, and at least this (m). */
-export const CLEARANCE_SCORE_FLOOR = 0.02;
+const CLEARANCE_SCORE_FLOOR = 0.02;
 
 /**
  * clearance: min over the reached targets (chosen branch) and the paths of c / c₁ clipped to

@@ -44,7 +44,7 @@ export interface TargetBudget {
 export const DEFAULT_TARGET_BUDGET: TargetBudget = { restarts: 12, maxSolutions: 4, maxIterations: 60, escalatedRestarts: 60 };
 
 /** A compact summary of one IK branch. */
-export interface SolutionSummary {
+interface SolutionSummary {
   /**
    * Joint values (rad or m): for a revolute joint with several in-limit copies 2π apart, the copy
    * farthest from its limits (see `copies`).
@@ -68,7 +68,7 @@ export interface SolutionSummary {
 }
 
 /** A pair of bodies by name (arm bodies "base", "link k", "tool", "payload", or an obstacle's name). */
-export interface BodyPairDistance {
+interface BodyPairDistance {
   a: string;
   b: string;
   /** Separation (m), 0 when they touch or overlap. */
@@ -79,7 +79,7 @@ export interface BodyPairDistance {
 }
 
 /** The cell at a target: the chosen (or least-colliding) configuration's collision check. */
-export interface TargetCell {
+interface TargetCell {
   /** The configuration reported has no collision. */
   collisionFree: boolean;
   /** Required clearance (m) and the smallest distance over the counted pairs (m; null when nothing is counted). */
@@ -102,7 +102,7 @@ export interface TargetCell {
 }
 
 /** Holding the tool and payload still at the chosen configuration. */
-export interface HoldingCheck {
+interface HoldingCheck {
   verdict: Verdict;
   reason: string;
   /** τ_hold with links, tool and payload (N·m or N per joint). */
@@ -130,7 +130,7 @@ export interface HoldingCheck {
 }
 
 /** A required force/moment at the target against the exact capability. */
-export interface ForceCheck {
+interface ForceCheck {
   verdict: Verdict;
   reason: string;
   /** Required force and moment applied by the tool at the TCP (cell frame, N and N·m). */
@@ -153,7 +153,7 @@ export interface ForceCheck {
 }
 
 /** Load on one wrist axis against the datasheet's allowable values. */
-export interface WristAxisCheck {
+interface WristAxisCheck {
   joint: number;
   momentAtPose: number;
   momentWorstCase: number;
@@ -165,7 +165,7 @@ export interface WristAxisCheck {
   reason: string;
 }
 
-export interface WristCheck {
+interface WristCheck {
   verdict: Verdict;
   reason: string;
   axes: WristAxisCheck[];
@@ -204,15 +204,15 @@ export interface TargetAnalysis {
 }
 
 /** Extra random starts (IK descents) tried for a collision-free near miss when every branch collides. */
-export const FREE_MISS_ATTEMPTS = 16;
+const FREE_MISS_ATTEMPTS = 16;
 
 /** The target's pose in the cell frame (row-major 4×4). */
-export function targetPose(t: Pick<Target, "position" | "rpy">): Float64Array {
+function targetPose(t: Pick<Target, "position" | "rpy">): Float64Array {
   return poseFromRpy(t.position, t.rpy);
 }
 
 /** Optional wall-clock accounting of the parts (benchmark only; never part of a result). */
-export interface StageClock {
+interface StageClock {
   now(): number;
   add(stage: "ik" | "dexterity" | "statics", ms: number): void;
 }
@@ -419,7 +419,7 @@ function freeMiss(ctx: ArmContext, pose: Float64Array, target: Target, budget: T
 }
 
 /** A miss this close (m) is reported as close: more search might reach it. */
-export const CLOSE_MISS = 0.005;
+const CLOSE_MISS = 0.005;
 
 /** Words for why a target was not reached, from the IK result's structured cause. */
 function missText(best: IkResult, model: ArmModel): string {
@@ -447,7 +447,7 @@ function limitJoints(model: ArmModel, q: ArrayLike<number>): number[] {
 }
 
 /** Words for the limiting factor of a dexterity report. */
-export function describeLimit(d: DexterityReport): string {
+function describeLimit(d: DexterityReport): string {
   switch (d.limiting.factor) {
     case "translation": return `translational conditioning 1/κ = ${num(d.limiting.value, 3)} (arm near stretched or folded)`;
     case "orientation": return `wrist conditioning 1/κ = ${num(d.limiting.value, 3)}${d.axisOrientation ? " over the constrained rotations (about the tool x and y axes)" : ""} (near a wrist singularity)`;

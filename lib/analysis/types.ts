@@ -8,12 +8,10 @@
 export type Verdict = "meets" | "marginal" | "fails" | "unknown";
 
 /** Order used when verdicts are combined: the worst part decides. */
-export const VERDICT_SEVERITY: Record<Verdict, number> = { meets: 0, marginal: 1, unknown: 2, fails: 3 };
+const VERDICT_SEVERITY: Record<Verdict, number> = { meets: 0, marginal: 1, unknown: 2, fails: 3 };
 
 /** The worse of two verdicts by {@link VERDICT_SEVERITY}. */
 export function worseVerdict(a: Verdict, b: Verdict): Verdict {
   return VERDICT_SEVERITY[b] > VERDICT_SEVERITY[a] ? b : a;
 }
 
-/** Constraint mode of a target or path. */
-export type Mode = "pose" | "axis" | "point";

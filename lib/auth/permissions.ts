@@ -21,7 +21,7 @@ export interface LinkGuest {
 }
 
 /** Whoever asks: a member, a link guest, or nobody (null = anonymous). */
-export type Principal = SessionUser | LinkGuest;
+type Principal = SessionUser | LinkGuest;
 
 export type Action =
   | "arm:read"
@@ -44,7 +44,7 @@ export type Action =
   | "account:manage";
 
 /** What an action is about, for the decisions that depend on it (owner, shortlist). */
-export interface Resource {
+interface Resource {
   /** The shortlist the action touches; a link guest is confined to its own. */
   shortlistId?: string;
   /** The account that made the thing (comment author, link creator); null for a guest's comment. */
@@ -90,7 +90,7 @@ const GUEST_GRANTS: Record<LinkGuest["access"], readonly Action[]> = {
   comment: ["shortlist:read", "comment:read", "comment:write", "price:read"],
 };
 
-export const isLinkGuest = (p: Principal | null | undefined): p is LinkGuest =>
+const isLinkGuest = (p: Principal | null | undefined): p is LinkGuest =>
   typeof p === "object" && p !== null && (p as LinkGuest).kind === "link";
 
 /**

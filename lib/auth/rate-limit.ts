@@ -119,20 +119,20 @@ export class BackoffLimiter {
  * never locks the owner out of their own address. Per address (whatever the accounts): at most
  * 20 failures in any 15 minutes.
  */
-export const SIGNIN_WINDOW_MS = 15 * 60 * 1000;
+const SIGNIN_WINDOW_MS = 15 * 60 * 1000;
 export const signInFailuresByAccount = shared("signin:account+address", () => new BackoffLimiter(5, 60_000, SIGNIN_WINDOW_MS, 24 * 60 * 60 * 1000));
 export const signInFailuresByIp = shared("signin:address", () => new SlidingWindowLimiter(20, SIGNIN_WINDOW_MS));
 /** The key of an account tried from an address. */
 export const accountAddressKey = (email: string, address: string): string => `${email}\u0000${address}`;
 
 /** Comment posting: at most 30 comments per minute per member, or per guest link and address. */
-export const COMMENT_WINDOW_MS = 60 * 1000;
+const COMMENT_WINDOW_MS = 60 * 1000;
 export const commentPosts = shared("comments", () => new SlidingWindowLimiter(30, COMMENT_WINDOW_MS));
 
 /**
  * Share-link access by token: at most 20 unknown, expired or revoked tokens per client address in
  * 10 minutes (guessing), and at most 600 token requests per address per minute overall.
  */
-export const SHARE_FAILURE_WINDOW_MS = 10 * 60 * 1000;
+const SHARE_FAILURE_WINDOW_MS = 10 * 60 * 1000;
 export const shareTokenFailures = shared("share:failures", () => new SlidingWindowLimiter(20, SHARE_FAILURE_WINDOW_MS));
 export const shareTokenRequests = shared("share:requests", () => new SlidingWindowLimiter(600, 60 * 1000));

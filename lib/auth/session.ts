@@ -4,7 +4,7 @@ import { cookies } from "next/headers";
 import { deleteSession, findSessionUser, insertSession } from "@/lib/db";
 import type { SessionUser } from "./permissions";
 
-export const SESSION_COOKIE = "armsift_session";
+const SESSION_COOKIE = "armsift_session";
 export const SESSION_TTL_MS = 14 * 24 * 60 * 60 * 1000;
 
 export const hashToken = (token: string): string => createHash("sha256").update(token).digest("hex");
@@ -27,7 +27,7 @@ export function clearedSessionCookie(secure: boolean): string {
 }
 
 /** The session token from a Cookie header, or null. */
-export function tokenFromCookieHeader(header: string | null): string | null {
+function tokenFromCookieHeader(header: string | null): string | null {
   if (!header) return null;
   for (const part of header.split(";")) {
     const eq = part.indexOf("=");

@@ -20,7 +20,7 @@ export interface ArmSummary {
 }
 
 /** An arm at its current revision. */
-export interface ArmRecord {
+interface ArmRecord {
   id: string;
   revision: number;
   arm: ArmDocument;
@@ -29,9 +29,9 @@ export interface ArmRecord {
   deletedAt: Date | null;
 }
 
-export type ArmRevisionInfo = RevisionInfo;
+type ArmRevisionInfo = RevisionInfo;
 
-export interface ArmRevisionRecord {
+interface ArmRevisionRecord {
   revision: number;
   arm: ArmDocument;
   createdAt: Date;

@@ -1,7 +1,7 @@
 import "server-only";
 import { db } from "./client";
 
-export interface AuditEventRecord {
+interface AuditEventRecord {
   id: string;
   at: Date;
   actor: { id: string; name: string } | null;

@@ -17,9 +17,9 @@ import { readStoredDocument } from "./documents";
 import { ConflictError, NotFoundError, ValidationError } from "./errors";
 
 /** Who writes: a member, or a guest on a comment link with the name they gave (cleaned by displayNameSchema). */
-export type CommentAuthor = { kind: "member"; userId: string } | { kind: "guest"; linkId: string; name: string };
+type CommentAuthor = { kind: "member"; userId: string } | { kind: "guest"; linkId: string; name: string };
 
-export interface CommentView {
+interface CommentView {
   id: string;
   shortlistId: string;
   parentId: string | null;
@@ -40,7 +40,7 @@ export interface CommentView {
   mentions: { id: string; name: string }[];
 }
 
-export interface CommentThread extends CommentView {
+interface CommentThread extends CommentView {
   replies: CommentView[];
 }
 
@@ -253,7 +253,7 @@ export async function listCommentThreads(shortlistId: string): Promise<CommentTh
   return [...threads.values()].filter((t) => !t.deletedAt || t.replies.some((r) => !r.deletedAt));
 }
 
-export interface CommentRevisionView {
+interface CommentRevisionView {
   revision: number;
   body: string;
   createdAt: Date;

@@ -13,7 +13,7 @@ export * from "./comments";
 export * from "./shares";
 export * from "./settings";
 export * from "./invitations";
-export { listAuditEvents, type AuditEventRecord } from "./audit-read";
+export { listAuditEvents } from "./audit-read";
 export * from "./workers";
 export { databaseUrl, dbProvider, disconnectDb, pingDatabase, providerOf, type DbProvider, type Tx } from "./client";
 export { seedDemo } from "./seed";

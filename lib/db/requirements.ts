@@ -18,7 +18,7 @@ export interface RequirementSummary {
 }
 
 /** A requirement set at its current revision. */
-export interface RequirementRecord {
+interface RequirementRecord {
   id: string;
   revision: number;
   requirementSet: RequirementSet;
@@ -27,9 +27,9 @@ export interface RequirementRecord {
   deletedAt: Date | null;
 }
 
-export type RequirementRevisionInfo = RevisionInfo;
+type RequirementRevisionInfo = RevisionInfo;
 
-export interface RequirementRevisionRecord {
+interface RequirementRevisionRecord {
   revision: number;
   requirementSet: RequirementSet;
   createdAt: Date;
@@ -132,6 +132,3 @@ export const softDeleteRequirementSet = (userId: string | null, id: string) => r
 /** Clears the deleted mark; idempotent. */
 export const restoreRequirementSet = (userId: string | null, id: string) => revisioned.setDeleted(sets, userId, id, false);
 
-export async function countRequirementSets(): Promise<number> {
-  return revisioned.countDocuments(sets);
-}

@@ -13,7 +13,7 @@ import { deletedWhere, isUniqueViolation, readStoredDocument, userRef, type Dele
 // naming its Prisma tables; everything else (revision numbering, conflict detection, audit) is here.
 
 /** The head row's columns every kind has. */
-export interface HeadRow {
+interface HeadRow {
   id: string;
   name: string;
   currentRevision: number;
@@ -31,13 +31,13 @@ interface HeadWrite {
   updatedById: string | null;
 }
 
-export interface StoredRevision {
+interface StoredRevision {
   revision: number;
   document: string;
 }
 
 /** The revision row's columns, independent of the name of the column pointing at the head. */
-export interface RevisionWrite extends StoredRevision {
+interface RevisionWrite extends StoredRevision {
   id: string;
   ownerId: string;
   summary: string;

@@ -34,8 +34,3 @@ export async function deleteSession(idHash: string): Promise<void> {
   await db().session.deleteMany({ where: { id: idHash } });
 }
 
-/** Removes every expired session; returns how many. */
-export async function deleteExpiredSessions(now: Date = new Date()): Promise<number> {
-  const r = await db().session.deleteMany({ where: { expiresAt: { lte: now } } });
-  return r.count;
-}

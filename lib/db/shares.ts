@@ -13,7 +13,7 @@ import { recordAudit } from "./audit";
 import { NotFoundError } from "./errors";
 import { userRef, type UserRef } from "./documents";
 
-export const TOKEN_BYTES = 32;
+const TOKEN_BYTES = 32;
 /** base64url of 32 bytes is 43 characters. */
 export const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
 
@@ -32,7 +32,7 @@ export interface ShareGrant {
   expiresAt: Date | null;
 }
 
-export interface ShareLinkRecord {
+interface ShareLinkRecord {
   id: string;
   shortlistId: string;
   access: LinkAccess;

@@ -64,7 +64,7 @@ export interface RunInfo {
 }
 
 /** A pinned item next to the current revision of what it pins. */
-export interface PinnedArm {
+interface PinnedArm {
   armId: string;
   name: string;
   revision: number;
@@ -72,7 +72,7 @@ export interface PinnedArm {
   deleted: boolean;
 }
 
-export interface ShortlistRecord {
+interface ShortlistRecord {
   id: string;
   name: string;
   createdAt: Date;
@@ -84,7 +84,7 @@ export interface ShortlistRecord {
   stale: string[];
 }
 
-export interface ShortlistSummary {
+interface ShortlistSummary {
   id: string;
   name: string;
   requirementName: string;
@@ -166,7 +166,7 @@ export async function createShortlist(
 }
 
 /** The pins a shortlist has now (arm order as chosen). */
-export async function getPins(shortlistId: string): Promise<Pins | null> {
+async function getPins(shortlistId: string): Promise<Pins | null> {
   const s = await db().shortlist.findUnique({
     where: { id: shortlistId },
     select: { requirementSetId: true, requirementRevision: true, deletedAt: true, arms: { orderBy: { position: "asc" }, select: { armId: true, armRevision: true } } },
@@ -337,7 +337,7 @@ export async function requestAnalysisRun(shortlistId: string, opts: { enqueue?: 
 }
 
 /** Marks runs of a web server's runner without a sign of life for STALE_RUN_MS as failed. */
-export async function failStaleRuns(shortlistId?: string, now: Date = new Date()): Promise<number> {
+async function failStaleRuns(shortlistId?: string, now: Date = new Date()): Promise<number> {
   const cutoff = new Date(now.getTime() - STALE_RUN_MS);
   const r = await db().analysisRun.updateMany({
     where: {
@@ -387,7 +387,7 @@ export async function getRunResult(runId: string): Promise<ShortlistAnalysis | n
 }
 
 /** One arm of a finished run with the pinned documents its result was computed from (what the 3-D view draws). */
-export interface RunArmView {
+interface RunArmView {
   runId: string;
   armId: string;
   revision: number;
@@ -542,7 +542,7 @@ export async function getSharedShortlist(
 }
 
 /** Everything the shortlist page shows, in one read. */
-export interface ShortlistPageData {
+interface ShortlistPageData {
   shortlist: ShortlistRecord;
   /** Newest first. */
   runs: RunInfo[];

@@ -56,7 +56,7 @@ export async function createUser(input: { email: string; name: string; passwordH
 }
 
 /** What a sign-up did, as far as the person signing up may learn it. */
-export type SignUpOutcome =
+type SignUpOutcome =
   /** The very first account: an active admin (the server is being set up). */
   | { kind: "first"; user: UserRecord }
   /**

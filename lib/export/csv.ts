@@ -17,7 +17,7 @@ export function csvField(v: Cell): string {
 }
 
 /** One record: its fields through csvField, joined by commas. */
-export const csvRecord = (cells: readonly Cell[]): string => cells.map(csvField).join(",");
+const csvRecord = (cells: readonly Cell[]): string => cells.map(csvField).join(",");
 
 /** Records as CSV text, each ended by `eol` (CRLF as RFC 4180 says; the command line uses LF). */
 export function csvText(records: readonly (readonly Cell[])[], eol: "\r\n" | "\n" = "\r\n"): string {

@@ -12,7 +12,7 @@ import { toXlsx } from "./xlsx";
 import { toShortlistJson } from "./json";
 import { fileStem, type ExportFile } from "./files";
 
-export interface ShortlistExportRequest {
+interface ShortlistExportRequest {
   shortlist: { id: string; name: string };
   run: { id: string; finishedAt: Date | null; requirement: { setId: string; revision: number } };
   analysis: ShortlistAnalysis;

@@ -2,9 +2,9 @@ import { ApiError } from "./errors";
 import { count } from "@/shared/format";
 
 /** Largest JSON body accepted (1 MiB). */
-export const MAX_BODY_BYTES = 1024 * 1024;
+const MAX_BODY_BYTES = 1024 * 1024;
 /** Deepest nesting of arrays/objects accepted; documents need fewer than 10 levels. */
-export const MAX_JSON_DEPTH = 64;
+const MAX_JSON_DEPTH = 64;
 
 
 /** `size`: the declared length, or null when only "more than the limit" is known (streamed). */
@@ -19,7 +19,7 @@ function tooLarge(size: number | null, limit: number): ApiError {
  * above it before reading anything, and a streamed (chunked) body as soon as the bytes read pass
  * it; the rest is never read.
  */
-export async function readBodyText(req: Request, limit = MAX_BODY_BYTES): Promise<string> {
+async function readBodyText(req: Request, limit = MAX_BODY_BYTES): Promise<string> {
   const declared = Number(req.headers.get("content-length"));
   if (Number.isFinite(declared) && declared > limit) {
     await req.body?.cancel().catch(() => undefined);
@@ -49,7 +49,7 @@ export async function readBodyText(req: Request, limit = MAX_BODY_BYTES): Promis
 }
 
 /** Deepest array/object nesting in JSON text (strings skipped); stops counting past `stopAt`. */
-export function jsonDepth(text: string, stopAt = MAX_JSON_DEPTH + 1): number {
+function jsonDepth(text: string, stopAt = MAX_JSON_DEPTH + 1): number {
   let depth = 0;
   let max = 0;
   let inString = false;
@@ -83,7 +83,7 @@ function lineColumn(text: string, offset: number): string {
 }
 
 /** Parses JSON text; bad syntax → 400 bad-json, too deep → 400 validation, both with a field error on "". */
-export function parseJsonText(text: string): unknown {
+function parseJsonText(text: string): unknown {
   if (text.trim() === "") {
     const message = "request body is empty; send a JSON object";
     throw new ApiError(400, "bad-json", message, { fieldErrors: [{ path: "", message }] });
@@ -106,13 +106,13 @@ export function parseJsonText(text: string): unknown {
 const kindOf = (v: unknown): string => (v === null ? "null" : Array.isArray(v) ? "an array" : typeof v === "object" ? "an object" : `a ${typeof v}`);
 
 /** True for `application/json` and `application/<something>+json`, with or without parameters. */
-export function isJsonContentType(header: string | null): boolean {
+function isJsonContentType(header: string | null): boolean {
   const type = header?.split(";")[0].trim().toLowerCase() ?? "";
   return type === "application/json" || /^application\/[a-z0-9.+-]+\+json$/.test(type);
 }
 
 /** 415 unless the request says its body is JSON (a text/plain or untyped body is refused unread). */
-export function requireJsonContentType(req: Request): void {
+function requireJsonContentType(req: Request): void {
   const header = req.headers.get("content-type");
   if (isJsonContentType(header)) return;
   const message = header

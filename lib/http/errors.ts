@@ -1,7 +1,7 @@
 import type { FieldError } from "@/shared/schemas";
 import { ConflictError, NotFoundError, ValidationError } from "@/lib/db";
 
-export type ErrorCode = "validation" | "bad-json" | "unauthenticated" | "forbidden" | "not-found" | "conflict" | "rate-limited" | "unsupported-media-type";
+type ErrorCode = "validation" | "bad-json" | "unauthenticated" | "forbidden" | "not-found" | "conflict" | "rate-limited" | "unsupported-media-type";
 
 /** An error that becomes a JSON error response: `{ error: { code, message, fieldErrors?, conflict? } }`. */
 export class ApiError extends Error {
@@ -22,7 +22,7 @@ export const unauthenticated = () => new ApiError(401, "unauthenticated", "sign 
 export const forbidden = (message = "your role does not allow this") => new ApiError(403, "forbidden", message);
 export const notFound = (message: string) => new ApiError(404, "not-found", message);
 
-export function errorBody(code: ErrorCode, message: string, extra: { fieldErrors?: FieldError[]; conflict?: unknown } = {}) {
+function errorBody(code: ErrorCode, message: string, extra: { fieldErrors?: FieldError[]; conflict?: unknown } = {}) {
   return { error: { code, message, ...(extra.fieldErrors ? { fieldErrors: extra.fieldErrors } : {}), ...(extra.conflict ? { conflict: extra.conflict } : {}) } };
 }
 

@@ -8,15 +8,12 @@ export type {
   ChainArmKinematics,
   DhArmKinematics,
   ArmModel,
-  Convention,
-  DhConvention,
   IkCause,
   IkMode,
   IkMultiOptions,
   IkOptions,
   IkResult,
   JointType,
-  JointVector,
   Mat4,
 } from "./types";
 export { createModel } from "./model";
@@ -33,15 +30,13 @@ export {
 } from "./configuration";
 export { createRng, type Rng } from "./rng";
 export {
-  mat4Create,
   mat4FromPositionRpy,
   mat4InvertRigid,
   mat4MulRigid,
   positionDistance,
   rotationAngleBetween,
-  zAxisAngleBetween,
 } from "./math/mat4";
 export { minSingularValue } from "./math/linalg";
-export { IK_DEFAULTS, IK_NEAR_LIMIT_FRACTION, IK_STATIONARY_TOLERANCE, solveIk, solveIkMulti } from "./inverse";
+export { IK_NEAR_LIMIT_FRACTION, solveIk, solveIkMulti } from "./inverse";
 export { taskJacobianInto, taskRowCount, taskVelocityInto } from "./task";
 export { dhToChain, mulRigid, originFromMatrix, originMatrix, transformPointRigid } from "./chain";

@@ -40,7 +40,7 @@ import { createRng } from "./rng";
 import { taskJacobianInto, taskRowCount } from "./task";
 
 /** Default tolerances and budget (docs/design.md#inverse-kinematics: reached = 1e-5 m and 1e-4 rad). */
-export const IK_DEFAULTS = Object.freeze({
+const IK_DEFAULTS = Object.freeze({
   mode: "pose" as IkMode,
   positionTolerance: 1e-5,
   rotationTolerance: 1e-4,
@@ -288,7 +288,7 @@ function nearLimitBand(model: ArmModel, j: number): number {
  * ‖Jₛᵀeₛ‖): the best iterate is then (near) a stationary point of the error. Chosen loose (1 %)
  * because an attempt is abandoned once E stalls, a little before the stationary point itself.
  */
-export const IK_STATIONARY_TOLERANCE = 1e-2;
+const IK_STATIONARY_TOLERANCE = 1e-2;
 
 /**
  * Why a search ended without reaching the target, from the best iterate (FK, data.ik.err and

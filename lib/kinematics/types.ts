@@ -17,12 +17,10 @@ export type { ArmKinematics, ChainArmKinematics, DhArmKinematics };
 
 /** Row-major 4×4 homogeneous transform, length 16. */
 export type Mat4 = Float64Array;
-/** A joint-space vector of length n (rad for revolute joints, m for prismatic ones). */
-export type JointVector = Float64Array;
 export type JointType = "revolute" | "prismatic";
-export type DhConvention = "dh" | "mdh";
+type DhConvention = "dh" | "mdh";
 /** `dh`, `mdh` (DH tables) or `chain` (general joint chain: origin + axis per joint, URDF semantics). */
-export type Convention = DhConvention | "chain";
+type Convention = DhConvention | "chain";
 
 /**
  * Compiled, immutable arm model (made by `createModel`, never changed by any algorithm).
@@ -119,7 +117,7 @@ export interface ArmData {
 }
 
 /** Internal IK buffers, sized in `createData`. */
-export interface IkWorkspace {
+interface IkWorkspace {
   /** Current iterate, trial iterate, best of the attempt, best overall, restart seed (length n each). */
   readonly q: Float64Array;
   readonly qTrial: Float64Array;

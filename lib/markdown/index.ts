@@ -18,7 +18,7 @@ const escapeHtml = (s: string): string =>
   s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
 
 /** `@handle`: the part of a member's email before the @, lower-cased. */
-export const MENTION_RE = /@([a-z0-9](?:[a-z0-9._-]{0,62}[a-z0-9])?)/gi;
+const MENTION_RE = /@([a-z0-9](?:[a-z0-9._-]{0,62}[a-z0-9])?)/gi;
 
 /** The mention handle of an email address. */
 export const handleOf = (email: string): string => email.split("@")[0].toLowerCase();
@@ -33,7 +33,7 @@ export function mentionedHandles(body: string): string[] {
   return [...out];
 }
 
-export interface RenderOptions {
+interface RenderOptions {
   /** Handles of team members: `@handle` of one of them is marked as a mention. */
   mentions?: ReadonlySet<string>;
 }
@@ -79,7 +79,7 @@ function parser(known: ReadonlySet<string>): Marked {
 const EMPTY = new Set<string>();
 const defaultParser = parser(EMPTY);
 
-export const SANITIZE_OPTIONS: sanitizeHtml.IOptions = {
+const SANITIZE_OPTIONS: sanitizeHtml.IOptions = {
   allowedTags: ["p", "br", "strong", "em", "del", "code", "pre", "blockquote", "ul", "ol", "li", "a", "span", "hr", "table", "thead", "tbody", "tr", "th", "td"],
   allowedAttributes: { a: ["href", "title", "rel"], span: ["class"], ol: ["start"], th: ["align"], td: ["align"] },
   allowedClasses: { span: ["mention"] },

@@ -16,7 +16,7 @@ import type { Verdict } from "@/lib/analysis/types";
 import { getSharedShortlist } from "@/lib/db";
 
 
-export interface GuestVisibility {
+interface GuestVisibility {
   access: "view" | "comment";
   hidePrices: boolean;
   /** Sentences shown on the share view: what guests can and cannot see or do. */
@@ -37,7 +37,7 @@ export interface GuestShortlistView {
   };
 }
 
-export function guestVisibility(guest: LinkGuest): GuestVisibility {
+function guestVisibility(guest: LinkGuest): GuestVisibility {
   const prices = can(guest, "price:read");
   const statements = [
     "Guests see this shortlist only: its name, the requirement set and arm revisions it pins, the latest finished analysis (ranking, target and path verdicts, spec compliance) and the discussion.",

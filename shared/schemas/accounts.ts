@@ -31,7 +31,7 @@ export const signUpModeInput = z.object({ mode: z.enum(SIGN_UP_MODES, { error: "
 
 /** Days an invitation works unless the administrator says otherwise, and at most. */
 export const DEFAULT_INVITATION_DAYS = 7;
-export const MAX_INVITATION_DAYS = 90;
+const MAX_INVITATION_DAYS = 90;
 
 /** An invitation: optionally bound to one email, the role of the account it creates, days it works. */
 export const createInvitationInput = z.object({

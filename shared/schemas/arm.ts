@@ -46,7 +46,7 @@ const jointCommonShape = {
 /** A joint of a `dh` or `mdh` arm: one row of the DH table. */
 const { type: jointType, ...jointLimitsAndMass } = jointCommonShape;
 
-export const jointSchema = z.object({
+const jointSchema = z.object({
   type: jointType,
   /** DH link length a (m). In `mdh` this is a₍ᵢ₋₁₎. */
   a: finite,
@@ -67,7 +67,7 @@ export const MIN_AXIS_LENGTH = 1e-9;
  * Origin of a chain joint (URDF semantics): the fixed transform from the previous link's frame to
  * the joint frame, T(origin) = Trans(xyz) · Rz(yaw) · Ry(pitch) · Rx(roll), rpy = [roll, pitch, yaw].
  */
-export const originSchema = z.object({
+const originSchema = z.object({
   /** Translation (m) in the previous link's frame. */
   xyz: vec3,
   /** Roll, pitch, yaw (rad) about the fixed axes x, y, z. */
@@ -80,7 +80,7 @@ export type JointOrigin = z.infer<typeof originSchema>;
  * T(origin) · Rot(axis, q) for a revolute joint and T(origin) · Trans(axis · q) for a prismatic
  * one; the link frame after the joint (the frame `com` is given in) is that result.
  */
-export const chainJointSchema = z.object({
+const chainJointSchema = z.object({
   type: jointType,
   origin: originSchema,
   /** Joint axis in the joint frame (any length > 0; normalised by the kinematics). */
@@ -96,7 +96,7 @@ export const chainJointSchema = z.object({
 export type ChainJointSpec = z.infer<typeof chainJointSchema>;
 
 /** Where an arm description came from when it was imported from a file. */
-export const armSourceSchema = z.object({
+const armSourceSchema = z.object({
   format: z.enum(["urdf"], { error: "must be urdf" }),
   /** File name as given when importing (no directories). */
   file: z.string().trim().min(1, "must not be empty").max(255, "must be at most 255 characters"),
@@ -112,7 +112,7 @@ export const MOUNTINGS = ["floor", "ceiling", "wall", "angled"] as const;
 export type Mounting = (typeof MOUNTINGS)[number];
 
 /** IEC 60529 code as written on datasheets: "IP54", "IP6X", "IPX7", "IP67" (optional letters ignored). */
-export const ipCodeSchema = z
+const ipCodeSchema = z
   .string()
   .trim()
   .toUpperCase()
@@ -120,7 +120,7 @@ export const ipCodeSchema = z
   .refine((s) => !(s[2] === "X" && s[3] === "X"), "IPXX states nothing; leave the field empty instead");
 
 /** Allowable load on one wrist axis, from the datasheet's load diagram. */
-export const wristAllowableSchema = z.object({
+const wristAllowableSchema = z.object({
   /** 1-based joint number (e.g. 4, 5, 6). */
   joint: z.number().int().min(1).max(MAX_JOINTS),
   /** Allowable moment about that axis (N·m). */
@@ -238,9 +238,8 @@ export const armSchema = armObject.superRefine((arm, ctx) => {
 });
 export type ArmDocument = z.infer<typeof armSchema>;
 export type DhArmDocument = Extract<ArmDocument, { convention: "dh" | "mdh" }>;
-export type ChainArmDocument = Extract<ArmDocument, { convention: "chain" }>;
+type ChainArmDocument = Extract<ArmDocument, { convention: "chain" }>;
 export type Convention = ArmDocument["convention"];
-export const CONVENTIONS: readonly Convention[] = ["dh", "mdh", "chain"];
 
 type KinematicKeys = "name" | "convention" | "joints" | "base" | "tool";
 /** The kinematic part the analysis and the command line need (either kind of arm). */

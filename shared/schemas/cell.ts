@@ -15,10 +15,10 @@ import { finite, mat4, nameText, vec3 } from "./common";
  */
 
 /** Largest length accepted for a shape dimension (m): a cell is not a warehouse. */
-export const MAX_SHAPE_SIZE = 100;
+const MAX_SHAPE_SIZE = 100;
 /** Most capsules on one body and most obstacles in a cell. */
 export const MAX_BODY_SHAPES = 8;
-export const MAX_OBSTACLES = 200;
+const MAX_OBSTACLES = 200;
 
 const size = finite.gt(0, "must be > 0").max(MAX_SHAPE_SIZE, `must be at most ${MAX_SHAPE_SIZE} m`);
 const point = vec3;
@@ -40,7 +40,7 @@ export type ObstacleShape = (typeof OBSTACLE_SHAPES)[number];
 /** Obstacle and shape names: shown to others, and listed comma-separated in contact lists. */
 const obstacleName = nameText(80).refine((s) => !s.includes(","), "must not contain a comma (contact lists separate names with commas)");
 
-export const boxObstacleSchema = z.object({
+const boxObstacleSchema = z.object({
   name: obstacleName,
   shape: z.literal("box"),
   /** Centre and orientation in the cell frame (edges along its axes). */
@@ -48,13 +48,13 @@ export const boxObstacleSchema = z.object({
   /** Full side lengths along the pose's x, y, z (m). */
   size: z.tuple([size, size, size]),
 });
-export const sphereObstacleSchema = z.object({
+const sphereObstacleSchema = z.object({
   name: obstacleName,
   shape: z.literal("sphere"),
   center: point,
   radius: size,
 });
-export const cylinderObstacleSchema = z.object({
+const cylinderObstacleSchema = z.object({
   name: obstacleName,
   shape: z.literal("cylinder"),
   /** Centre and orientation in the cell frame; the axis is the pose's z. */
@@ -63,7 +63,7 @@ export const cylinderObstacleSchema = z.object({
   /** Full length along the axis (m). */
   length: size,
 });
-export const capsuleObstacleSchema = z.object({
+const capsuleObstacleSchema = z.object({
   name: obstacleName,
   shape: z.literal("capsule"),
   from: point,
@@ -72,7 +72,7 @@ export const capsuleObstacleSchema = z.object({
 });
 
 /** A named obstacle in the cell frame. */
-export const obstacleSchema = z.discriminatedUnion("shape", [boxObstacleSchema, sphereObstacleSchema, cylinderObstacleSchema, capsuleObstacleSchema], {
+const obstacleSchema = z.discriminatedUnion("shape", [boxObstacleSchema, sphereObstacleSchema, cylinderObstacleSchema, capsuleObstacleSchema], {
   error: "must be a box, sphere, cylinder or capsule",
 });
 export type Obstacle = z.infer<typeof obstacleSchema>;
@@ -107,7 +107,7 @@ export const legacyObstacleSchema = z.discriminatedUnion("shape", [
   z.object({ shape: z.literal("box"), name: z.string().max(80).optional(), center: point, size: z.tuple([size, size, size]) }),
   z.object({ shape: z.literal("sphere"), name: z.string().max(80).optional(), center: point, radius: size }),
 ], { error: "must be a box or a sphere" });
-export type LegacyObstacle = z.infer<typeof legacyObstacleSchema>;
+type LegacyObstacle = z.infer<typeof legacyObstacleSchema>;
 
 /**
  * The earlier obstacles as cell obstacles: a box gets the pose of a translation to its centre

@@ -60,7 +60,7 @@ export function nestingProblem(source: string): string | null {
     : null;
 }
 
-export const ANCHOR_TYPES = ["shortlist", "arm", "target", "path", "compliance"] as const;
+const ANCHOR_TYPES = ["shortlist", "arm", "target", "path", "compliance"] as const;
 export type AnchorType = (typeof ANCHOR_TYPES)[number];
 export interface Anchor {
   type: AnchorType;
@@ -68,7 +68,7 @@ export interface Anchor {
   id?: string | null;
 }
 
-export const MAX_DISPLAY_NAME = 60;
+const MAX_DISPLAY_NAME = 60;
 
 const bodySchema = z
   .string({ error: "must be text" })
@@ -102,7 +102,7 @@ export const editCommentInput = z.object({
 
 export type EditCommentInput = z.output<typeof editCommentInput>;
 
-export const displayNameSchema = z
+const displayNameSchema = z
   .string({ error: "must be text" })
   .transform(cleanName)
   .pipe(z.string().min(1, "give a display name").max(MAX_DISPLAY_NAME, `must be at most ${MAX_DISPLAY_NAME} characters`));

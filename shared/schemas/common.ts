@@ -46,8 +46,6 @@ export const nameText = (max: number) =>
 export const labelText = (max: number) =>
   z.string({ error: "must be text" }).transform(cleanName).pipe(z.string().max(max, `must be at most ${max} characters`));
 
-export const IDENTITY4: readonly number[] = Object.freeze([1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1]);
-
 /** One field-level problem, as returned by the API and shown by forms. */
 export interface FieldError {
   /** Dotted path, e.g. "joints.2.max". */

@@ -21,7 +21,7 @@ export type ConstraintMode = (typeof CONSTRAINT_MODES)[number];
 /** A list of obstacle names (checked against `cell.obstacles` by the requirement-set schema). */
 const contactSchema = z.array(nameText(80)).max(50, "at most 50 names");
 
-export const targetSchema = z.object({
+const targetSchema = z.object({
   name: nameText(80),
   /** Position of the TCP in the cell frame (m). */
   position: vec3,
@@ -42,12 +42,12 @@ export const targetSchema = z.object({
 });
 export type Target = z.infer<typeof targetSchema>;
 
-export const waypointSchema = z.object({
+const waypointSchema = z.object({
   position: vec3,
   rpy: vec3,
 });
 
-export const pathSchema = z.object({
+const pathSchema = z.object({
   name: nameText(80),
   /** Ordered waypoints, linearly interpolated (position linear, orientation by slerp). */
   waypoints: z.array(waypointSchema).min(2, "a path needs at least 2 waypoints").max(200),

@@ -3,7 +3,7 @@ import { labelText } from "./common";
 import { LINK_ACCESS } from "./roles";
 
 /** Longest expiry a link may be given. */
-export const MAX_LINK_DAYS = 366;
+const MAX_LINK_DAYS = 366;
 
 /** A new share link of a shortlist. */
 export const createLinkInput = z.object({

@@ -151,7 +151,7 @@ const GONE = "this link does not exist or no longer works";
  * The guest a token stands for. Rate limited per client address (all token requests, and
  * separately the failed ones, against guessing); any failure is the same 404.
  */
-export async function guestOf(req: Request, token: string): Promise<LinkGuest> {
+async function guestOf(req: Request, token: string): Promise<LinkGuest> {
   const r = await lookUpShareToken(clientAddress(req), token);
   if (r.kind === "limited") throw rateLimited(r.retryAfterMs, "share-link requests");
   if (r.kind === "gone") throw notFound(GONE);

@@ -105,7 +105,7 @@ export function jacobiEigenInPlace(a: Float64Array, k: number, v?: Float64Array)
  * destroyed (its diagonal holds the eigenvalues on return). Returns the smallest eigenvalue.
  * Reference: Golub & Van Loan, Matrix Computations, §8.5 (cyclic Jacobi).
  */
-export function symmetricMinEigenvalue(a: Float64Array, k: number): number {
+function symmetricMinEigenvalue(a: Float64Array, k: number): number {
   jacobiEigenInPlace(a, k);
   let min = Infinity;
   for (let i = 0; i < k; i++) if (a[i * k + i] < min) min = a[i * k + i];

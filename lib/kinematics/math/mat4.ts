@@ -6,19 +6,6 @@
 import { writeRpyPose } from "@/shared/pose";
 import type { Mat4 } from "../types";
 
-/** A new identity transform (allocates). */
-export function mat4Create(): Mat4 {
-  const m = new Float64Array(16);
-  m[0] = m[5] = m[10] = m[15] = 1;
-  return m;
-}
-
-/** Copies `a` into `out`. */
-export function mat4Copy(out: Mat4, a: ArrayLike<number>, outOffset = 0, aOffset = 0): Mat4 {
-  for (let i = 0; i < 16; i++) out[outOffset + i] = a[aOffset + i];
-  return out;
-}
-
 /**
  * out = a · b for rigid transforms (last rows assumed 0 0 0 1). Offsets allow working inside a
  * packed array of frames. Alias-safe (reads all inputs into locals first).
@@ -125,14 +112,6 @@ const angleScratch = new Float64Array(3);
 /** Rotation angle (rad, [0, π]) between the rotation blocks of two row-major transforms. */
 export function rotationAngleBetween(a: ArrayLike<number>, b: ArrayLike<number>): number {
   return rotationErrorVector(angleScratch, a, b);
-}
-
-/** Angle (rad, [0, π]) between the z-axes (third columns) of two row-major transforms. */
-export function zAxisAngleBetween(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  const ax = a[2], ay = a[6], az = a[10];
-  const bx = b[2], by = b[6], bz = b[10];
-  const cx = ay * bz - az * by, cy = az * bx - ax * bz, cz = ax * by - ay * bx;
-  return Math.atan2(Math.sqrt(cx * cx + cy * cy + cz * cz), ax * bx + ay * by + az * bz);
 }
 
 /** Translation distance (m) between two row-major transforms. */
