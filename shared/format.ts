@@ -50,6 +50,15 @@ export function editable(v: number | null | undefined, empty = ""): string {
   return numberFormat({ useGrouping: false, maximumSignificantDigits: 9 }).format(v);
 }
 
+/** A measured value with exactly `digits` significant digits, not grouped ("0.000123", "12.3"); "–" when missing. */
+export function significant(v: number | null | undefined, digits: number): string {
+  if (!finite(v)) return MISSING;
+  return numberFormat({ useGrouping: false, minimumSignificantDigits: digits, maximumSignificantDigits: digits }).format(v);
+}
+
+/** A magnitude read at a glance (forces, radii): whole from 100 up, else three significant digits. */
+export const magnitude = (v: number): string => (v >= 100 ? fixed(v, 0) : significant(v, 3));
+
 /** A whole count with thousands grouped ("1,048,576"). */
 export function count(n: number): string {
   return finite(n) ? numberFormat({ maximumFractionDigits: 0 }).format(n) : MISSING;

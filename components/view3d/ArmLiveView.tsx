@@ -12,6 +12,7 @@ import { linkGeometry } from "@/lib/geometry/arm";
 import { armFormToDoc, type ArmForm } from "../arm/armForm";
 import { createRig, homeConfiguration, poseArm, originOf, type ArmRig } from "./scene";
 import { mmText, ViewShell } from "./ViewShell";
+import { deg, fixed } from "@/shared/format";
 
 const KEEPS = "The joint table and the transforms above are unchanged.";
 
@@ -67,7 +68,6 @@ export default function ArmLiveView({ form }: { form: ArmForm }) {
   }
   const setJoint = (i: number, v: number) => setShown({ rig, q: q.map((x, k) => (k === i ? v : x)) });
   const { p, rpy } = poseRpy(figure.tool);
-  const deg = (r: number) => `${((r * 180) / Math.PI).toFixed(1)}°`;
 
   return (
     <div data-testid="arm-view">
@@ -93,11 +93,11 @@ export default function ArmLiveView({ form }: { form: ArmForm }) {
           const unit = jointUnit(type);
           const shownV = jointToDisplay(type, v);
           const lo = jointToDisplay(type, rig.model.lower[i]), hi = jointToDisplay(type, rig.model.upper[i]);
-          const text = `${shownV.toFixed(1)} ${unit}`;
+          const text = `${fixed(shownV, 1)} ${unit}`;
           return (
             <div className="v3-slider" key={i}>
               <label htmlFor={`v3-q-${i}`}>
-                Joint {i + 1} ({type}, {lo.toFixed(0)} to {hi.toFixed(0)} {unit})
+                Joint {i + 1} ({type}, {fixed(lo, 0)} to {fixed(hi, 0)} {unit})
               </label>
               <input
                 id={`v3-q-${i}`}
@@ -128,7 +128,7 @@ export default function ArmLiveView({ form }: { form: ArmForm }) {
         content={content}
         frameKey={`${rig.model.n}`}
         fileName={`armsift-arm-${(form.name || "arm").replace(/[^\w.-]+/g, "-").slice(0, 40)}`}
-        caption={`Armsift 3-D view: ${form.name || "arm"} at q = (${q.map((x, i) => `${jointToDisplay(rig.model.types[i], x).toFixed(1)} ${jointUnit(rig.model.types[i])}`).join(", ")}), base frame at the origin.`}
+        caption={`Armsift 3-D view: ${form.name || "arm"} at q = (${q.map((x, i) => `${fixed(jointToDisplay(rig.model.types[i], x), 1)} ${jointUnit(rig.model.types[i])}`).join(", ")}), base frame at the origin.`}
         label={`3-D view of ${form.name || "the arm"}`}
         keeps={KEEPS}
         legend={

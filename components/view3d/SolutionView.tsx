@@ -19,6 +19,7 @@ import { VERDICT_SYMBOL } from "../shortlist/verdict";
 import { bodyShapes, cellObstacles } from "./cell";
 import { createRig, forceScale, homeConfiguration, originOf, pathMarks, pointAtArcLength, poseArm, type ArmRig, type ForceMark, type PairMark, type PathMark, type SceneContent, type TargetMark, type Vec3 } from "./scene";
 import { mmText, ViewShell } from "./ViewShell";
+import { fixed, magnitude } from "@/shared/format";
 
 const KEEPS = "The task matrix, tables and 2-D plots on this page show the same results.";
 
@@ -148,7 +149,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
       const margin = path.profile.dexterityMargin[k];
       return {
         content: { ...base, arm, bodies: heldShapes(arm.tool), cursor: { at: originOf(arm.tool), text: `sample ${k + 1}` } },
-        status: `${where}: reached${margin !== null && margin !== undefined ? `, dexterity margin D = ${margin.toFixed(2)}` : ""}.`,
+        status: `${where}: reached${margin !== null && margin !== undefined ? `, dexterity margin D = ${fixed(margin, 2)}` : ""}.`,
         force: null,
       };
     }
@@ -195,13 +196,13 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
     const free = sol.collisionFree === false ? "; this branch collides in the cell" : "";
     return {
       content: { ...base, arm, ghosts, force, bodies, pair },
-      status: `Target ${t.name}: ${verdictText}; branch ${b + 1} of ${t.solutions.length}, ${which}, dexterity margin D = ${sol.margin.toFixed(2)}${free}.${pair ? ` ${pair.text[0].toUpperCase()}${pair.text.slice(1)}.` : ""}`,
+      status: `Target ${t.name}: ${verdictText}; branch ${b + 1} of ${t.solutions.length}, ${which}, dexterity margin D = ${fixed(sol.margin, 2)}${free}.${pair ? ` ${pair.text[0].toUpperCase()}${pair.text.slice(1)}.` : ""}`,
       force,
     };
   }, [targets, paths, obstacles, mode, path, sample, pi, t, b, chosen, showBranches, rig, req, ti, span, heldShapes, cell]);
 
   const f = scene.force;
-  const radiiText = f ? f.axes.map((x) => (x.radius === null ? "unbounded" : `${x.radius >= 100 ? x.radius.toFixed(0) : x.radius.toPrecision(3)} N`)).join(", ") : "";
+  const radiiText = f ? f.axes.map((x) => (x.radius === null ? "unbounded" : `${magnitude(x.radius)} N`)).join(", ") : "";
 
   return (
     <div data-testid="solution-view">
@@ -236,7 +237,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
                 <select id={`v3-branch-${view.armId}`} value={b ?? 0} onChange={(e) => setBranch(Number(e.target.value))}>
                   {t.solutions.map((s, i) => (
                     <option key={i} value={i}>
-                      {i + 1}{i === chosen ? " (chosen)" : ""}: D = {s.margin.toFixed(2)}{s.collisionFree === false ? ", collides" : ""}
+                      {i + 1}{i === chosen ? " (chosen)" : ""}: D = {fixed(s.margin, 2)}{s.collisionFree === false ? ", collides" : ""}
                     </option>
                   ))}
                 </select>
@@ -305,7 +306,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
             {f && (
               <li data-testid="force-legend">
                 Force ellipsoid at the payload point ({f.weighted ? "weighted by the joint torque limits" : "no torque limits: unit torque ball"}), principal semi-axes to scale, {f.scaleText}: {radiiText}.
-                {f.force ? ` Required force ${Math.hypot(...f.force).toFixed(1)} N drawn as an arrow from the TCP at the same scale.` : " No required force at this target."} The exact capability is in the force table.
+                {f.force ? ` Required force ${fixed(Math.hypot(...f.force), 1)} N drawn as an arrow from the TCP at the same scale.` : " No required force at this target."} The exact capability is in the force table.
               </li>
             )}
             {paths.length > 0 && <li>Paths: polylines with arrowheads in the direction of travel.</li>}

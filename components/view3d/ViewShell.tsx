@@ -9,6 +9,7 @@ import { bounds, contentPoints, gridStep, type SceneContent } from "./scene";
 import { NoWebGL } from "./LazyViewFrame";
 import { webglSupport } from "./webgl";
 import "./view3d.css";
+import { fixed } from "@/shared/format";
 
 const PRESETS: PresetView[] = ["iso", "top", "front", "side"];
 
@@ -16,7 +17,7 @@ const PRESETS: PresetView[] = ["iso", "top", "front", "side"];
 export function mmText(m: number): string {
   const mm = m * 1000;
   const a = Math.abs(mm);
-  const s = a >= 100 ? mm.toFixed(0) : a >= 0.05 ? mm.toFixed(1) : "0.0";
+  const s = a >= 100 ? fixed(mm, 0) : a >= 0.05 ? fixed(mm, 1) : "0.0";
   return `${s === "-0" || s === "-0.0" ? s.slice(1) : s} mm`;
 }
 

@@ -18,6 +18,7 @@ import { CSS2DObject, CSS2DRenderer } from "three/addons/renderers/CSS2DRenderer
 import { mergeGeometries } from "three/addons/utils/BufferGeometryUtils.js";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
 import { bounds, contentPoints, focusPoints, gridStep, originOf, pairBodies, type ArmFigure, type ForceMark, type ObstacleMark, type PairMark, type PathMark, type Pose, type SceneContent, type TargetMark, type Vec3 } from "./scene";
+import { magnitude } from "@/shared/format";
 
 /** The palette of the view (our own): a warm drafting-paper ground with ink-like parts. */
 export const PALETTE = {
@@ -581,7 +582,7 @@ export class Viewer {
           g.add(this.label("unbounded", p, "ellipsoid"));
         } else {
           g.add(this.rod(n, p, r, this.mats.ellipsoid));
-          g.add(this.label(`${a.radius >= 100 ? a.radius.toFixed(0) : a.radius.toPrecision(3)} ${f.weighted ? "N" : "N per N·m"}`, p, "ellipsoid"));
+          g.add(this.label(`${magnitude(a.radius)} ${f.weighted ? "N" : "N per N·m"}`, p, "ellipsoid"));
         }
       });
     }
@@ -589,7 +590,7 @@ export class Viewer {
       const v: Vec3 = [f.force[0] * k, f.force[1] * k, f.force[2] * k];
       g.add(this.arrow(f.forceAt, v, this.size * 0.005, this.mats.force));
       const n = Math.hypot(...f.force);
-      g.add(this.label(`required force ${n >= 100 ? n.toFixed(0) : n.toPrecision(3)} N`, [f.forceAt[0] + v[0], f.forceAt[1] + v[1], f.forceAt[2] + v[2]], "force"));
+      g.add(this.label(`required force ${magnitude(n)} N`, [f.forceAt[0] + v[0], f.forceAt[1] + v[1], f.forceAt[2] + v[2]], "force"));
     }
     return g;
   }

@@ -14,6 +14,7 @@ import { createData, createModel, forwardKinematics, jointAxisWorld, neutralConf
 import type { Verdict } from "@/lib/analysis/types";
 import type { LinkGeometry } from "@/lib/geometry/arm";
 import type { ArmCapsule } from "@/shared/schemas/cell";
+import { fixed, significant } from "@/shared/format";
 
 export type Vec3 = [number, number, number];
 /** Row-major 4×4 (16 numbers). */
@@ -254,7 +255,7 @@ export function niceStep(x: number): number {
   return f * 10 ** e;
 }
 
-const fmtN = (v: number) => (v >= 100 ? v.toFixed(0) : v >= 10 ? v.toFixed(1) : v.toPrecision(2));
+const fmtN = (v: number) => (v >= 100 ? fixed(v, 0) : v >= 10 ? fixed(v, 1) : significant(v, 2));
 
 /**
  * The drawing scale of the force marks: the largest finite semi-axis (or the required force, if

@@ -2,7 +2,7 @@
 // unit of the last digit), against Date.prototype.toISOString for times, and on written examples.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { count, deg, editable, fixed, mm, pct, price, upTo, utc, utcDate } from "@/shared/format";
+import { count, deg, editable, fixed, magnitude, mm, pct, price, significant, upTo, utc, utcDate } from "@/shared/format";
 
 describe("numbers", () => {
   it("fixed rounds to within half a unit of the last decimal and never groups", () => {
@@ -47,6 +47,16 @@ describe("numbers", () => {
     expect(price(18999.5, "USD").replace(/\u00a0/g, " ")).toBe("USD 18,999.50");
     expect(price(21000)).toBe("21,000");
     expect(price(undefined, "EUR")).toBe("–");
+  });
+
+  it("significant gives the digits toPrecision gives, without exponents", () => {
+    for (const [v, d] of [[12.345, 3], [0.0001234, 3], [9.99, 2], [1234.5, 2]] as const) {
+      expect(Number(significant(v, d))).toBe(Number(v.toPrecision(d)));
+    }
+    expect(significant(0.0001234, 3)).toBe("0.000123");
+    expect(significant(1234.5, 2)).toBe("1200");
+    expect(magnitude(1234.4)).toBe("1234");
+    expect(magnitude(12.345)).toBe("12.3");
   });
 
   it("writes values with their display units", () => {
