@@ -8,9 +8,9 @@ import { createData, createModel, createRng, dhToChain, forwardKinematics, rando
 import type { ArmDocument, DhArmDocument, FieldError } from "@/shared/schemas";
 import { armFormFromDoc, validateArmForm, type ArmForm } from "./armForm";
 
-export const CONVERSION_CHECK_CONFIGS = 50;
+const CONVERSION_CHECK_CONFIGS = 50;
 
-export type ChainConversion =
+type ChainConversion =
   | { ok: true; patch: Pick<ArmForm, "convention" | "joints" | "tool" | "toolOrig" | "capsules">; maxDifference: number; configs: number }
   | { ok: false; errors: FieldError[] };
 

@@ -19,7 +19,7 @@ const ordinal = (n: number) => {
 };
 
 /** "next in the queue" / "3rd in the queue (2 analyses ahead)". */
-export function queueText(position: number | null): string {
+function queueText(position: number | null): string {
   if (position === null) return "waiting to start";
   if (position <= 1) return "next in the queue";
   return `${ordinal(position)} in the queue (${position - 1} ${position === 2 ? "analysis" : "analyses"} ahead)`;

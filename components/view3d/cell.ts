@@ -5,7 +5,6 @@
  */
 import type { RequirementSet } from "@/shared/schemas/requirements";
 import type { BodyShape } from "@/shared/schemas/cell";
-import type { ArmCapsule } from "@/shared/schemas/cell";
 import type { ObstacleMark, Pose, Vec3 } from "./scene";
 
 /** The requirement set's obstacles, names as given (unique by the schema). */
@@ -41,7 +40,3 @@ export function bodyShapes(frame: ArrayLike<number>, shapes: readonly BodyShape[
   });
 }
 
-/** Capsules given in a frame (world pose) as world capsules. */
-export function framedCapsules(frame: ArrayLike<number>, capsules: readonly ArmCapsule[] | undefined): { from: Vec3; to: Vec3; radius: number }[] {
-  return (capsules ?? []).map((c) => ({ from: apply(frame, c.from), to: apply(frame, c.to), radius: c.radius }));
-}

@@ -21,7 +21,7 @@ import { bounds, contentPoints, focusPoints, gridStep, originOf, pairBodies, typ
 import { magnitude } from "@/shared/format";
 
 /** The palette of the view (our own): a warm drafting-paper ground with ink-like parts. */
-export const PALETTE = {
+const PALETTE = {
   background: "#f3f0e8",
   gridMinor: "#e1dccf",
   gridMajor: "#c9c0ad",
@@ -48,7 +48,7 @@ export const PALETTE = {
 
 export type PresetView = "iso" | "top" | "front" | "side";
 /** Direction from the point looked at to the camera, per preset (z up). */
-export const PRESET_DIRECTIONS: Record<PresetView, Vec3> = {
+const PRESET_DIRECTIONS: Record<PresetView, Vec3> = {
   iso: [1, -1.15, 0.85],
   top: [0, -1e-4, 1],
   front: [0, -1, 0],
@@ -72,17 +72,17 @@ const UP = new Vector3(0, 0, 1);
 const Y_AXIS = new Vector3(0, 1, 0);
 
 /** Row-major pose → three Matrix4. */
-export function matrixOf(p: ArrayLike<number>, out = new Matrix4()): Matrix4 {
+function matrixOf(p: ArrayLike<number>, out = new Matrix4()): Matrix4 {
   return out.set(p[0], p[1], p[2], p[3], p[4], p[5], p[6], p[7], p[8], p[9], p[10], p[11], p[12], p[13], p[14], p[15]);
 }
 /** three Matrix4 → row-major pose. */
-export function poseOf(m: Matrix4): number[] {
+function poseOf(m: Matrix4): number[] {
   const e = m.elements;
   return [e[0], e[4], e[8], e[12], e[1], e[5], e[9], e[13], e[2], e[6], e[10], e[14], e[3], e[7], e[11], e[15]];
 }
 
 /** What tests and the benchmark can read from a live view (never changes the scene). */
-export interface ViewInspection {
+interface ViewInspection {
   /** World pose (row-major) of the drawn tool-point frame, or null without an arm. */
   toolFrame(): number[] | null;
   /** World poses of the drawn joint frames. */

@@ -20,7 +20,7 @@ export type Vec3 = [number, number, number];
 /** Row-major 4×4 (16 numbers). */
 export type Pose = number[];
 
-export const IDENTITY: readonly number[] = Object.freeze([1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1]);
+const IDENTITY: readonly number[] = Object.freeze([1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1]);
 
 export const originOf = (t: ArrayLike<number>, o = 0): Vec3 => [t[o + 3], t[o + 7], t[o + 11]];
 /** Column c (0 = x, 1 = y, 2 = z axis) of the rotation block of the pose stored at offset o. */
@@ -31,7 +31,7 @@ const norm = (a: readonly number[]): number => Math.hypot(a[0], a[1], a[2]);
 const slice16 = (t: ArrayLike<number>, o = 0): Pose => Array.from({ length: 16 }, (_, i) => t[o + i]);
 
 /** One joint of the figure: where its axis is, which way it points, and the frame shown for it. */
-export interface JointMark {
+interface JointMark {
   /** 1-based joint number. */
   number: number;
   type: "revolute" | "prismatic";
@@ -46,7 +46,7 @@ export interface JointMark {
 }
 
 /** A capsule of link geometry in the world frame (m). */
-export interface CapsuleMark {
+interface CapsuleMark {
   /** 0 = base, i = link i. */
   link: number;
   from: Vec3;

@@ -70,12 +70,12 @@ const KIND_BOX = 2;
  * Tolerance of the motion check (m): a stretch of motion counts as keeping the threshold when its
  * bound is within this of it, and halving stops when the bodies move less than this.
  */
-export const MOTION_TOLERANCE = 1e-4;
+const MOTION_TOLERANCE = 1e-4;
 /** Most configurations evaluated between two samples before the motion check settles for its bound. */
-export const MOTION_MAX_EVALUATIONS = 64;
+const MOTION_MAX_EVALUATIONS = 64;
 
 /** A pair of bodies that is checked. */
-export interface CellPair {
+interface CellPair {
   /** Arm body index (0 base, 1 … n links, n+1 tool, n+2 payload). */
   a: number;
   /** Arm body index, or −1 − k for obstacle k. */
@@ -90,7 +90,7 @@ export interface CellPair {
 }
 
 /** A pair that is not checked, and why. */
-export interface SkippedPair {
+interface SkippedPair {
   a: string;
   b: string;
   why: "ignored" | "always touching";
@@ -457,7 +457,7 @@ export function checkCell(cell: CellModel, cd: CellData, model: ArmModel, data: 
 }
 
 /** {@link checkCell} on the configuration already placed. */
-export function checkPlaced(cell: CellModel, cd: CellData, exempt: Uint8Array | null, out: CellCheck): CellCheck {
+function checkPlaced(cell: CellModel, cd: CellData, exempt: Uint8Array | null, out: CellCheck): CellCheck {
   const np = cell.pairs.length, fixed = cell.pairFixed;
   out.collisionFree = true; out.clearance = Infinity; out.clearancePair = -1; out.collisionPair = -1; out.collisionDepth = 0;
   // pass 1: lower bounds; the counted pair with the smallest is likely the closest
@@ -528,7 +528,7 @@ export function pairNames(cell: CellModel, p: number): [string, string] {
 }
 
 /** The outcome of a motion check between two configurations. */
-export interface MotionCheck {
+interface MotionCheck {
   /** The motion keeps at least the threshold everywhere (proven, or found by evaluation). */
   clear: boolean;
   /** A configuration along the motion with a collision: the fraction of the way (0…1), the pair and its depth. */

@@ -17,14 +17,14 @@ import { fixed } from "@/shared/format";
 export const ASSUMED_ACCELERATION_TIME = 0.5;
 
 /** Joint limits the model uses: NaN (or ≤ 0) where the arm states none. */
-export interface CycleLimits {
+interface CycleLimits {
   n: number;
   maxSpeed: ArrayLike<number>;
   maxAcceleration: ArrayLike<number>;
 }
 
 /** Speed and acceleration per joint with the assumed values filled in. */
-export interface EffectiveLimits {
+interface EffectiveLimits {
   n: number;
   speed: Float64Array;
   acceleration: Float64Array;
@@ -62,7 +62,7 @@ export function jointMoveTime(d: number, v: number, a: number): number {
 }
 
 /** Out-parameter of {@link moveTime}: the 1-based limiting joint (null when nothing moves). */
-export interface MoveOut {
+interface MoveOut {
   limitingJoint: number | null;
 }
 
@@ -100,7 +100,7 @@ export interface CycleInputs {
   paths: ReadonlyMap<string, CyclePath>;
 }
 
-export interface CycleStep {
+interface CycleStep {
   kind: "move" | "path" | "wait";
   /** The target's or the path's name; "wait" for a wait. */
   name: string;
@@ -198,7 +198,7 @@ function buildLayers(seq: Sequence, inputs: CycleInputs): Layer[] | null {
  * cycle starts), a shortest path through layers 0 … m−1 ending at s, by dynamic programming.
  * Ties go to the lowest indices. Returns the choice and its motion time (waits excluded).
  */
-export function bestChoice(lim: EffectiveLimits, layers: readonly Layer[]): { choice: number[]; time: number } {
+function bestChoice(lim: EffectiveLimits, layers: readonly Layer[]): { choice: number[]; time: number } {
   const m = layers.length;
   if (m === 0) return { choice: [], time: 0 };
   const last = layers[m - 1];
@@ -271,7 +271,7 @@ export function analyzeCycle(limits: CycleLimits, seq: Sequence, inputs: CycleIn
 }
 
 /** The joint limits of an arm document, NaN where absent. */
-export function cycleLimitsOf(arm: Pick<ArmDocument, "joints">): CycleLimits {
+function cycleLimitsOf(arm: Pick<ArmDocument, "joints">): CycleLimits {
   return {
     n: arm.joints.length,
     maxSpeed: arm.joints.map((j) => j.maxSpeed ?? NaN),
@@ -284,7 +284,7 @@ export function cycleLimitsOf(arm: Pick<ArmDocument, "joints">): CycleLimits {
  * fully reached with its end samples and the speed it is followed at (required × achievable
  * fraction).
  */
-export function cycleInputsOf(analysis: Pick<ArmAnalysis, "targets" | "paths">, req: Pick<RequirementSet, "targets" | "paths">): CycleInputs {
+function cycleInputsOf(analysis: Pick<ArmAnalysis, "targets" | "paths">, req: Pick<RequirementSet, "targets" | "paths">): CycleInputs {
   const targets = new Map<string, number[][]>();
   req.targets.forEach((t, i) => {
     const a = analysis.targets[i];

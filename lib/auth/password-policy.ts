@@ -8,11 +8,11 @@
 import { MAX_PASSWORD_LENGTH } from "@/shared/schemas/accounts";
 import { COMMON_PASSWORDS } from "./common-passwords";
 
-export const MIN_PASSWORD_LENGTH = 10;
+const MIN_PASSWORD_LENGTH = 10;
 export { MAX_PASSWORD_LENGTH };
 
 /** What the check knows about the account. */
-export interface PasswordContext {
+interface PasswordContext {
   email?: string;
   name?: string;
 }

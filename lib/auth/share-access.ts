@@ -3,7 +3,7 @@ import { resolveShareToken, type ShareGrant } from "@/lib/db";
 import { shareTokenFailures, shareTokenRequests } from "./rate-limit";
 
 /** The outcome of presenting a share token from a client address. */
-export type ShareLookup = { kind: "guest"; guest: ShareGrant } | { kind: "limited"; retryAfterMs: number } | { kind: "gone" };
+type ShareLookup = { kind: "guest"; guest: ShareGrant } | { kind: "limited"; retryAfterMs: number } | { kind: "gone" };
 
 /**
  * Resolves a share token for the share page and the share API alike (one limiter for both):

@@ -28,7 +28,7 @@ export const BUSY_TIMEOUT_MS = 5000;
 export type DbProvider = "sqlite" | "postgres";
 
 /** "postgres" for a postgresql:// or postgres:// URL, else "sqlite". */
-export function providerOf(url: string): DbProvider {
+function providerOf(url: string): DbProvider {
   return /^postgres(ql)?:\/\//i.test(url) ? "postgres" : "sqlite";
 }
 
@@ -121,7 +121,7 @@ class ArmsiftSqliteAdapter extends PrismaBetterSQLite3 {
 }
 
 /** Attempts of a PostgreSQL transaction that keeps losing serialization conflicts. */
-export const SERIALIZATION_ATTEMPTS = 8;
+const SERIALIZATION_ATTEMPTS = 8;
 
 type AdapterCause = { originalCode?: unknown; kind?: unknown };
 
@@ -136,7 +136,7 @@ export const isRetryable = (err: unknown): boolean => {
 };
 
 /** Connections per process to PostgreSQL (pg's default); count them against max_connections. */
-export const PG_POOL_SIZE = 10;
+const PG_POOL_SIZE = 10;
 
 function createPgDb(url: string): Db {
   const adapter = new PrismaPg({ connectionString: url, max: PG_POOL_SIZE });

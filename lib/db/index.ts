@@ -15,7 +15,7 @@ export * from "./settings";
 export * from "./invitations";
 export { listAuditEvents } from "./audit-read";
 export * from "./workers";
-export { databaseUrl, dbProvider, disconnectDb, pingDatabase, providerOf, type DbProvider, type Tx } from "./client";
+export { databaseUrl, dbProvider, disconnectDb, pingDatabase, type DbProvider, type Tx } from "./client";
 export { seedDemo } from "./seed";
 export type { Change } from "./errors";
 export type { UserRef, DeletedFilter } from "./documents";

@@ -9,9 +9,9 @@ import { userRef, type UserRef } from "./documents";
 
 const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
 
-export const hashInvitationToken = (token: string): string => createHash("sha256").update(`invitation:${token}`).digest("hex");
+const hashInvitationToken = (token: string): string => createHash("sha256").update(`invitation:${token}`).digest("hex");
 
-export interface InvitationRecord {
+interface InvitationRecord {
   id: string;
   email: string | null;
   role: Role;

@@ -36,16 +36,16 @@ import type { ArmDocument } from "@/shared/schemas/arm";
 import type { ArmCapsule } from "@/shared/schemas/cell";
 import { createData, createModel, forwardKinematics } from "@/lib/kinematics";
 
-export type Vec3Tuple = [number, number, number];
+type Vec3Tuple = [number, number, number];
 
 /** A point fixed in one of the arm's frames (0 = first joint frame, k = link k). */
-export interface FramePoint {
+interface FramePoint {
   frame: number;
   point: Vec3Tuple;
 }
 
 /** A capsule whose ends are fixed in (possibly different) frames of the arm. */
-export interface AttachedCapsule {
+interface AttachedCapsule {
   from: FramePoint;
   to: FramePoint;
   radius: number;

@@ -27,7 +27,7 @@ const O_R = 8;
 const O_RADIUS = 1;
 
 /** Core distances below this (m) are treated as touching cores (no reliable direction). */
-export const CORE_TOUCH = 1e-15;
+const CORE_TOUCH = 1e-15;
 
 /** Closest points of the cores, shared scratch (synchronous code only). */
 const cp = new Float64Array(6);

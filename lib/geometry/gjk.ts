@@ -32,9 +32,9 @@ const O_R = 8;
 const O_RADIUS = 1;
 
 /** Distance accuracy of GJK on curved cores (m): the answer is within this of the true distance. */
-export const GJK_TOLERANCE = 1e-12;
+const GJK_TOLERANCE = 1e-12;
 /** Accuracy of the EPA penetration depth (m). */
-export const EPA_TOLERANCE = 1e-9;
+const EPA_TOLERANCE = 1e-9;
 const GJK_MAX_ITERATIONS = 200;
 const EPA_MAX_VERTICES = 96;
 const EPA_MAX_FACES = 256;

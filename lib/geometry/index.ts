@@ -5,9 +5,5 @@
  * row-major 4×4 poses; no dependence on the rest of Armsift. See types.ts for the conventions.
  */
 export * from "./types";
-export {
-  STRIDE, KIND_SPHERE, KIND_CAPSULE, KIND_BOX, KIND_CYLINDER,
-  packShape, packShapes, placeShape, unpackShape, updateBound, boundGap,
-} from "./packed";
+export { STRIDE, packShape, placeShape, updateBound } from "./packed";
 export { distancePacked, gjkPacked, shapeDistance } from "./distance";
-export { GJK_TOLERANCE, EPA_TOLERANCE } from "./gjk";

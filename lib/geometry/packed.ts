@@ -18,19 +18,18 @@
 import type { Shape } from "./types";
 
 export const STRIDE = 24;
-export const KIND_SPHERE = 0;
-export const KIND_CAPSULE = 1;
-export const KIND_BOX = 2;
-export const KIND_CYLINDER = 3;
+const KIND_SPHERE = 0;
+const KIND_CAPSULE = 1;
+const KIND_BOX = 2;
+const KIND_CYLINDER = 3;
 
-export const O_KIND = 0;
-export const O_RADIUS = 1;
-export const O_A = 2;
-export const O_B = 5;
-export const O_R = 8;
-export const O_H = 17;
-export const O_BC = 20;
-export const O_BR = 23;
+const O_RADIUS = 1;
+const O_A = 2;
+const O_B = 5;
+const O_R = 8;
+const O_H = 17;
+const O_BC = 20;
+const O_BR = 23;
 
 function setVec(out: Float64Array, o: number, v: ArrayLike<number>): void {
   out[o] = v[0]; out[o + 1] = v[1]; out[o + 2] = v[2];
@@ -90,13 +89,6 @@ export function packShape(shape: Shape, out: Float64Array, o: number, pose?: Arr
   if (pose) placeShape(out, o, pose, out, o);
 }
 
-/** A new buffer holding `shapes` (in their own frame) one after the other. */
-export function packShapes(shapes: readonly Shape[]): Float64Array {
-  const out = new Float64Array(STRIDE * shapes.length);
-  shapes.forEach((s, i) => packShape(s, out, STRIDE * i));
-  return out;
-}
-
 /**
  * Writes the shape at `src[so]` (in frame F) placed by `pose` = T_W_F into `dst[dOff]` (in W).
  * `src` and `dst` may be the same slot. Allocates nothing.
@@ -124,21 +116,3 @@ export function placeShape(src: Float64Array, so: number, pose: ArrayLike<number
   dst[dOff + O_BR] = src[so + O_BR];
 }
 
-/** The packed shape at `buf[o]` as a plain {@link Shape} (allocates; for output and drawing). */
-export function unpackShape(buf: Float64Array, o: number, name?: string): Shape {
-  const kind = buf[o];
-  const a: [number, number, number] = [buf[o + O_A], buf[o + O_A + 1], buf[o + O_A + 2]];
-  const named = name === undefined ? {} : { name };
-  if (kind === KIND_SPHERE) return { shape: "sphere", ...named, center: a, radius: buf[o + O_RADIUS] };
-  if (kind === KIND_CAPSULE) return { shape: "capsule", ...named, from: a, to: [buf[o + O_B], buf[o + O_B + 1], buf[o + O_B + 2]], radius: buf[o + O_RADIUS] };
-  const r = o + O_R;
-  const pose = [buf[r], buf[r + 1], buf[r + 2], a[0], buf[r + 3], buf[r + 4], buf[r + 5], a[1], buf[r + 6], buf[r + 7], buf[r + 8], a[2], 0, 0, 0, 1];
-  if (kind === KIND_BOX) return { shape: "box", ...named, pose, size: [2 * buf[o + O_H], 2 * buf[o + O_H + 1], 2 * buf[o + O_H + 2]] };
-  return { shape: "cylinder", ...named, pose, radius: buf[o + O_RADIUS], length: 2 * buf[o + O_H + 2] };
-}
-
-/** Lower bound on the distance between two packed shapes from their bounding spheres (m; may be < 0). */
-export function boundGap(a: Float64Array, ao: number, b: Float64Array, bo: number): number {
-  const dx = a[ao + O_BC] - b[bo + O_BC], dy = a[ao + O_BC + 1] - b[bo + O_BC + 1], dz = a[ao + O_BC + 2] - b[bo + O_BC + 2];
-  return Math.sqrt(dx * dx + dy * dy + dz * dz) - a[ao + O_BR] - b[bo + O_BR];
-}

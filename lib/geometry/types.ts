@@ -16,9 +16,9 @@
  * - cylinder: centred at the origin of `pose`, axis along its z, `radius`, full `length`.
  */
 
-export type Vec3 = readonly [number, number, number] | number[];
+type Vec3 = readonly [number, number, number] | number[];
 
-export interface SphereShape {
+interface SphereShape {
   shape: "sphere";
   name?: string;
   /** Centre (m). */
@@ -27,7 +27,7 @@ export interface SphereShape {
   radius: number;
 }
 
-export interface CapsuleShape {
+interface CapsuleShape {
   shape: "capsule";
   name?: string;
   /** Segment start and end (m). */
@@ -37,7 +37,7 @@ export interface CapsuleShape {
   radius: number;
 }
 
-export interface BoxShape {
+interface BoxShape {
   shape: "box";
   name?: string;
   /** Centre and orientation: row-major 4×4 rigid transform (edges along its axes). */
@@ -46,7 +46,7 @@ export interface BoxShape {
   size: Vec3;
 }
 
-export interface CylinderShape {
+interface CylinderShape {
   shape: "cylinder";
   name?: string;
   /** Centre and orientation: row-major 4×4 rigid transform; the axis is the pose's z. */
@@ -59,7 +59,6 @@ export interface CylinderShape {
 
 /** A convex primitive in one frame. */
 export type Shape = SphereShape | CapsuleShape | BoxShape | CylinderShape;
-export type ShapeKind = Shape["shape"];
 
 /**
  * The answer of a distance query between shapes A and B (all in the frame of the query).
@@ -86,7 +85,3 @@ export function createDistanceResult(): DistanceResult {
   return { distance: 0, depth: 0, pointA: new Float64Array(3), pointB: new Float64Array(3), normal: new Float64Array(3), method: "closed" };
 }
 
-/** Separation with sign: distance when apart, −depth when overlapping (m). */
-export function signedDistance(r: DistanceResult): number {
-  return r.distance > 0 ? r.distance : -r.depth;
-}

@@ -21,7 +21,7 @@ export const UNKNOWN_ADDRESS = "unknown";
 let cached: { value: string | undefined; trust: ProxyTrust } | null = null;
 
 /** The trusted proxies of ARMSIFT_TRUSTED_PROXIES (re-read when the variable changes). */
-export function trustedProxies(): ProxyTrust {
+function trustedProxies(): ProxyTrust {
   const value = process.env.ARMSIFT_TRUSTED_PROXIES;
   if (cached === null || cached.value !== value) {
     const trust = parseTrustedProxies(value);
@@ -32,7 +32,7 @@ export function trustedProxies(): ProxyTrust {
 }
 
 /** The socket address the server recorded, or null when the request did not come through it. */
-export function peerAddress(req: Request): string | null {
+function peerAddress(req: Request): string | null {
   const peer = req.headers.get(PEER_HEADER);
   return peer ? normalizeAddress(peer) : null;
 }

@@ -12,18 +12,18 @@ import { claimRun, failRun, finishRun, getRun, loadPinnedInputs, reportRunProgre
 import { AnalysisStopped, analyseInThread } from "./thread";
 
 /** Least time between two progress writes (ms). */
-export const PROGRESS_INTERVAL_MS = 200;
+const PROGRESS_INTERVAL_MS = 200;
 /**
  * The stage text stored for the run: analyzeShortlist already names the arm and the step just
  * finished ("arm 3/7 Helper Seven 7: target press-fit (4/9)"), so only " done" is added.
  */
-export function describeProgress(stage: string): string {
+function describeProgress(stage: string): string {
   return `${stage} done`;
 }
 
 export type RunOutcome = "done" | "failed" | "skipped" | "cancelled" | "retry";
 
-export interface ExecuteOptions {
+interface ExecuteOptions {
   /** Who runs it ("local:<host>:<pid>" or a worker id), stored on the run. */
   runner?: string;
   /** Take over a run that is marked running (a queue job delivered again after its worker died). */

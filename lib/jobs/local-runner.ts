@@ -20,7 +20,7 @@ export function localConcurrency(env: Record<string, string | undefined> = proce
 export const localRunnerName = (pid: number = process.pid, host: string = os.hostname()): string => `${LOCAL_RUNNER_PREFIX}${host}:${pid}`;
 
 /** Whether a process with this id exists on this machine. */
-export function processAlive(pid: number): boolean {
+function processAlive(pid: number): boolean {
   try {
     process.kill(pid, 0);
     return true;

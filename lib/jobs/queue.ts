@@ -10,7 +10,7 @@ import type { Tx } from "@/lib/db";
 
 export const ANALYSIS_QUEUE = "analysis";
 
-export interface QueueSettings {
+interface QueueSettings {
   /** A job still active this long after it started is given up and retried (must exceed the longest run). */
   expireInSeconds: number;
   /** Attempts after the first. */
@@ -64,7 +64,7 @@ export async function startQueue(boss: PgBoss, settings: QueueSettings = queueSe
 }
 
 /** pg-boss's database interface on a Prisma transaction: its SQL runs inside that transaction. */
-export function transactionDb(tx: Tx): PgBoss.Db {
+function transactionDb(tx: Tx): PgBoss.Db {
   return {
     async executeSql(text: string, values: unknown[] = []) {
       // pg would send objects as JSON; Prisma's raw parameters need them as text.

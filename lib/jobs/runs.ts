@@ -15,10 +15,10 @@ import type { CreateShortlistInput } from "@/shared/schemas/shortlists";
 import { LocalRunner } from "./local-runner";
 import { createBoss, enqueueRun, queueDepth, queueSettings, startQueue, type QueueDepth } from "./queue";
 
-export type RunnerKind = "local" | "queue";
+type RunnerKind = "local" | "queue";
 
 /** The runner of this process: ARMSIFT_RUNNER, else "queue" on PostgreSQL and "local" on SQLite. */
-export function runnerKind(env: NodeJS.ProcessEnv = process.env): RunnerKind {
+function runnerKind(env: NodeJS.ProcessEnv = process.env): RunnerKind {
   if (env.ARMSIFT_RUNNER === "local") return "local";
   if (env.ARMSIFT_RUNNER === "queue") {
     if (dbProvider(env) !== "postgres") throw new Error("ARMSIFT_RUNNER=queue needs DATABASE_URL=postgresql://…");
@@ -35,7 +35,7 @@ interface State {
 const state = ((globalThis as unknown as { __armsiftRuns?: State }).__armsiftRuns ??= {});
 
 /** The web server's own runner (created on first use). */
-export function localRunner(): LocalRunner {
+function localRunner(): LocalRunner {
   state.local ??= new LocalRunner();
   return state.local;
 }
@@ -92,12 +92,12 @@ export async function cancelRun(userId: string | null, runId: string): Promise<R
   return cancelRunRow(userId, runId);
 }
 
-export type RunnerStatus =
+type RunnerStatus =
   | { kind: "local"; concurrency: number; running: number; waiting: number; runs: Record<RunStatus, number> }
   | { kind: "queue"; depth: QueueDepth; workers: WorkerInfo[]; runs: Record<RunStatus, number> };
 
 /** What the health check and the admin page show about the runner. */
-export async function runnerStatus(): Promise<RunnerStatus> {
+async function runnerStatus(): Promise<RunnerStatus> {
   const runs = await countRunsByStatus();
   if (runnerKind() === "local") {
     const r = localRunner();

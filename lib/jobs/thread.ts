@@ -11,7 +11,7 @@ import type { RequirementSet } from "@/shared/schemas";
 import type { ThreadMessage } from "./thread-protocol";
 
 /** Heap limit of one analysis thread (MB): ARMSIFT_ANALYSIS_MEMORY_MB, default 3072. */
-export function threadMemoryMb(env: NodeJS.ProcessEnv = process.env): number {
+function threadMemoryMb(env: NodeJS.ProcessEnv = process.env): number {
   const n = Number(env.ARMSIFT_ANALYSIS_MEMORY_MB);
   return Number.isFinite(n) && n >= 64 ? Math.floor(n) : 3072;
 }
@@ -20,7 +20,7 @@ export function threadMemoryMb(env: NodeJS.ProcessEnv = process.env): number {
  * The compiled thread entry: ARMSIFT_ANALYSIS_THREAD, else dist/jobs/analysis-thread.mjs under
  * ARMSIFT_ROOT or the current directory (the repository root for `npm start` and the worker).
  */
-export function threadScript(env: NodeJS.ProcessEnv = process.env): string {
+function threadScript(env: NodeJS.ProcessEnv = process.env): string {
   if (env.ARMSIFT_ANALYSIS_THREAD) return env.ARMSIFT_ANALYSIS_THREAD;
   return path.join(/* turbopackIgnore: true */ env.ARMSIFT_ROOT ?? process.cwd(), "dist", "jobs", "analysis-thread.mjs");
 }
@@ -32,7 +32,7 @@ export class AnalysisStopped extends Error {
   }
 }
 
-export interface ThreadRun {
+interface ThreadRun {
   result: Promise<ShortlistAnalysis>;
   /** Ends the thread at once; `result` rejects with AnalysisStopped(reason). */
   stop(reason: string): void;

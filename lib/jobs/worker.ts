@@ -21,7 +21,7 @@ import {
 import { executeRun } from "./analysis-runner";
 import { ANALYSIS_QUEUE, createBoss, endedJobs, queueSettings, startQueue } from "./queue";
 
-export interface WorkerOptions {
+interface WorkerOptions {
   url: string;
   /** Analyses at once in this process (default: cores − 1, at least 1). */
   concurrency?: number;
@@ -36,7 +36,7 @@ export interface WorkerOptions {
   log?: (line: string) => void;
 }
 
-export interface RunningWorker {
+interface RunningWorker {
   id: string;
   /** Stops taking jobs, puts the runs in progress back in the queue, and closes. */
   stop(reason?: string): Promise<void>;

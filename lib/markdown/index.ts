@@ -129,5 +129,3 @@ export function renderComment(
   }
 }
 
-/** Guests' display names are cleaned like every other name (shared/text.ts). */
-export { cleanName as cleanDisplayName } from "@/shared/text";

@@ -36,7 +36,7 @@ import { fixed } from "@/shared/format";
 /** Range given to a continuous joint (rad): the widest the arm format accepts (720° in all). */
 export const CONTINUOUS_RANGE = Object.freeze({ min: -2 * Math.PI, max: 2 * Math.PI });
 
-export interface UrdfImportOptions {
+interface UrdfImportOptions {
   /** Base link (default: the root link). */
   base?: string;
   /** Tip link (default: the end of the longest chain below the base). */
@@ -48,7 +48,7 @@ export interface UrdfImportOptions {
 }
 
 /** One row of the joint table shown before saving. */
-export interface ImportedJointRow {
+interface ImportedJointRow {
   /** 1-based joint number in the arm. */
   joint: number;
   name: string;
@@ -61,7 +61,7 @@ export interface ImportedJointRow {
   mergedFixed: string[];
 }
 
-export interface SuggestedCapsule {
+interface SuggestedCapsule {
   /** 0 = the base, i = link i. */
   body: number;
   link: string;
@@ -91,7 +91,7 @@ export interface UrdfImportReport {
   notes: string[];
 }
 
-export interface UrdfImport {
+interface UrdfImport {
   arm: ArmDocument;
   report: UrdfImportReport;
 }

@@ -4,5 +4,5 @@
  */
 export { UrdfError } from "./errors";
 export { parseUrdf, URDF_LIMITS, type UrdfRobot } from "./parse";
-export { CONTINUOUS_RANGE, importUrdf, type ImportedJointRow, type SuggestedCapsule, type UrdfImport, type UrdfImportOptions, type UrdfImportReport } from "./import";
+export { CONTINUOUS_RANGE, importUrdf, type UrdfImportReport } from "./import";
 export { exportUrdf } from "./export";

@@ -46,7 +46,7 @@ export interface UrdfPose {
   absent: boolean;
 }
 
-export type UrdfGeometry =
+type UrdfGeometry =
   | { kind: "box"; size: Vec3 }
   | { kind: "cylinder"; radius: number; length: number }
   | { kind: "sphere"; radius: number }
@@ -59,7 +59,7 @@ export interface UrdfCollision {
   geometry: UrdfGeometry;
 }
 
-export interface UrdfInertial {
+interface UrdfInertial {
   origin: UrdfPose;
   /** kg */
   mass: number;
@@ -74,7 +74,7 @@ export interface UrdfLink {
   visuals: number;
 }
 
-export interface UrdfLimit {
+interface UrdfLimit {
   lower: number | null;
   upper: number | null;
   effort: number | null;

@@ -96,7 +96,7 @@ export interface TipCandidate {
 }
 
 /** Why a joint cannot be part of an arm chain, or null. */
-export function refusal(j: UrdfJoint): string | null {
+function refusal(j: UrdfJoint): string | null {
   if (j.type === "floating" || j.type === "planar") return `${j.type} joint "${j.name}"`;
   if (!MOVING_TYPES.has(j.type) && j.type !== "fixed") return `joint "${j.name}" of unknown type "${j.type}"`;
   if (j.mimic !== null && MOVING_TYPES.has(j.type)) return `mimic joint "${j.name}"`;

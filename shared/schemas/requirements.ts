@@ -62,7 +62,7 @@ const pathSchema = z.object({
 export type PathSpec = z.infer<typeof pathSchema>;
 
 /** One step of a task sequence: a move to a target (then a dwell), a path followed, or a wait. */
-export const sequenceStepSchema = z.discriminatedUnion(
+const sequenceStepSchema = z.discriminatedUnion(
   "kind",
   [
     z.object({
@@ -85,10 +85,9 @@ export const sequenceStepSchema = z.discriminatedUnion(
   ],
   { error: "must be a step of kind move, path or wait" },
 );
-export type SequenceStep = z.infer<typeof sequenceStepSchema>;
 
 /** A task sequence: a closed cycle of steps, with an optional required cycle time. */
-export const sequenceSchema = z.object({
+const sequenceSchema = z.object({
   name: nameText(80),
   steps: z.array(sequenceStepSchema).min(1, "a sequence needs at least 1 step").max(200, "at most 200 steps"),
   /** Required cycle time (s); a required rate in parts per hour is 3600 / rate. */

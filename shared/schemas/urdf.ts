@@ -1,8 +1,5 @@
 import { z } from "zod";
 
-/** Largest URDF text the import accepts (2 MiB of UTF-8, as lib/urdf checks). */
-export const URDF_MAX_BYTES = 2 * 1024 * 1024;
-
 /** Body of POST /api/arms/urdf: a URDF file's text and the chain to take from it. */
 export const urdfPreviewInput = z.object({
   /** File name as chosen (recorded in the arm's source). */
@@ -14,4 +11,3 @@ export const urdfPreviewInput = z.object({
   /** Tip link (default: the end of the longest chain below the base). */
   tip: z.string().trim().max(255).optional(),
 });
-export type UrdfPreviewInput = z.infer<typeof urdfPreviewInput>;
