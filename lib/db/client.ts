@@ -138,8 +138,48 @@ export const isRetryable = (err: unknown): boolean => {
 /** Connections per process to PostgreSQL (pg's default); count them against max_connections. */
 const PG_POOL_SIZE = 10;
 
+/**
+ * Returns a transaction's connection to the pool when its COMMIT (or ROLLBACK) fails.
+ *
+ * The client sends COMMIT as a query on the transaction and only then tells the adapter to
+ * release the connection; when COMMIT itself fails (a serialization conflict found at commit,
+ * SQLSTATE 40001) that second step never comes, so each such failure kept one pooled connection
+ * checked out for good: after PG_POOL_SIZE of them every query waited for a connection, and
+ * closing the client waited forever. PostgreSQL has already ended the transaction when COMMIT
+ * fails, so the connection is clean and goes back to the pool; the error still reaches the
+ * caller (and the retry below).
+ */
+class ArmsiftPgAdapter extends PrismaPg {
+  override async connect(): ReturnType<PrismaPg["connect"]> {
+    const adapter = await super.connect();
+    const startTransaction = adapter.startTransaction.bind(adapter);
+    adapter.startTransaction = async (isolationLevel) => {
+      const tx = await startTransaction(isolationLevel);
+      let released = false;
+      const releaseOnce = (release: () => Promise<void>) => async () => {
+        if (released) return;
+        released = true;
+        await release();
+      };
+      tx.commit = releaseOnce(tx.commit.bind(tx));
+      tx.rollback = releaseOnce(tx.rollback.bind(tx));
+      const executeRaw = tx.executeRaw.bind(tx);
+      tx.executeRaw = async (query) => {
+        try {
+          return await executeRaw(query);
+        } catch (err) {
+          if (query.sql === "COMMIT" || query.sql === "ROLLBACK") await tx.rollback();
+          throw err;
+        }
+      };
+      return tx;
+    };
+    return adapter;
+  }
+}
+
 function createPgDb(url: string): Db {
-  const adapter = new PrismaPg({ connectionString: url, max: PG_POOL_SIZE });
+  const adapter = new ArmsiftPgAdapter({ connectionString: url, max: PG_POOL_SIZE });
   const client = new PgPrismaClient({
     adapter,
     transactionOptions: { maxWait: 10_000, timeout: 20_000, isolationLevel: "Serializable" },
@@ -188,12 +228,12 @@ export function db(): Db {
   return instance;
 }
 
-/** Closes this process's client (scripts call it before they exit). */
 /** Round trip to the database (health check); throws when it does not answer. */
 export async function pingDatabase(): Promise<void> {
   await db().$queryRawUnsafe("SELECT 1");
 }
 
+/** Closes this process's client (scripts call it before they exit). */
 export async function disconnectDb(): Promise<void> {
   await db().$disconnect();
 }

@@ -3,7 +3,7 @@
 // shortlist are all stored and none answers an error (SQLite serializes writers by itself).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { armDoc, createTestDb, requirementDoc, type TestDb } from "./helpers";
-import { isRetryable } from "@/lib/db/client";
+import { db, isRetryable } from "@/lib/db/client";
 import { createArm } from "@/lib/db/arms";
 import { createComment } from "@/lib/db/comments";
 import { createRequirementSet } from "@/lib/db/requirements";
@@ -41,4 +41,29 @@ describe(`transactions (${process.env.ARMSIFT_TEST_PROVIDER ?? "sqlite"})`, () =
     expect(failed).toEqual([]);
     expect(await t.client.comment.count({ where: { shortlistId, body: { startsWith: "at once " } } })).toBe(120);
   }, 120_000);
+
+  it.runIf(process.env.ARMSIFT_TEST_PROVIDER === "postgres")(
+    "a transaction whose COMMIT fails gives its connection back: more such failures than the pool has connections, then the client still answers",
+    async () => {
+      // A deferred unique constraint is checked at COMMIT, so COMMIT itself fails (SQLSTATE 23505).
+      await db().$executeRawUnsafe("CREATE TABLE commit_probe (id int, CONSTRAINT commit_probe_once UNIQUE (id) DEFERRABLE INITIALLY DEFERRED)");
+      for (let i = 0; i < 12; i++) {
+        const outcome = await db()
+          .$transaction(async (tx) => {
+            await tx.$executeRawUnsafe("INSERT INTO commit_probe VALUES (1), (1)");
+          })
+          .then(
+            () => "committed",
+            (err: unknown) => String((err as Error).message ?? err),
+          );
+        expect(outcome).not.toBe("committed");
+        expect(outcome).not.toMatch(/Unable to start a transaction/);
+      }
+      await db().$transaction(async (tx) => {
+        await tx.$executeRawUnsafe("INSERT INTO commit_probe VALUES (2)");
+      });
+      expect(await db().$queryRawUnsafe<{ n: bigint }[]>("SELECT count(*) AS n FROM commit_probe")).toEqual([{ n: 1n }]);
+    },
+    120_000,
+  );
 });
