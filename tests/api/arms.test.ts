@@ -1,5 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
+import { describe, expect, it } from "vitest";
+import { sampleArm, sampleRequirementSet } from "../db/helpers";
 import * as arms from "@/app/api/arms/route";
 import * as armById from "@/app/api/arms/[id]/route";
 import * as armRestore from "@/app/api/arms/[id]/restore/route";
@@ -13,15 +13,9 @@ import * as reqExport from "@/app/api/requirements/[id]/export/route";
 import * as reqImport from "@/app/api/requirements/import/route";
 import * as reqRevisions from "@/app/api/requirements/[id]/revisions/route";
 import { call, expectFieldError } from "./client";
-import { makeAccounts, type Accounts } from "./setup";
+import { withAccounts } from "./setup";
 
-let t: TestDb;
-let acc: Accounts;
-beforeAll(async () => {
-  t = createTestDb();
-  acc = await makeAccounts();
-});
-afterAll(async () => t.cleanup());
+const { acc } = withAccounts();
 
 const createArm = async (cookie: string, arm: unknown = sampleArm()) => call(arms.POST, "/api/arms", { cookie, body: arm });
 

@@ -1,18 +1,12 @@
 // Request bodies: JSON only (415 for form, plain-text and untyped bodies) and the 1 MiB cap on a
 // streamed body without a declared length.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, type TestDb } from "../db/helpers";
+import { describe, expect, it } from "vitest";
+import { sampleArm } from "../db/helpers";
 import * as arms from "@/app/api/arms/route";
 import { call, type Body } from "./client";
-import { makeAccounts, type Accounts } from "./setup";
+import { withAccounts } from "./setup";
 
-let t: TestDb;
-let acc: Accounts;
-beforeAll(async () => {
-  t = createTestDb();
-  acc = await makeAccounts();
-}, 120_000);
-afterAll(async () => t.cleanup());
+const { acc } = withAccounts();
 
 describe("request bodies must be sent as JSON", () => {
   const raw = (body: BodyInit, headers: Record<string, string>) =>

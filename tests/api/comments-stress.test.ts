@@ -1,8 +1,8 @@
 // Hostile comment bodies over the API: a deeply nested body is refused with a field error, and a
 // stored one (written before the limit existed) no longer breaks the discussion for members or
 // link guests: the lists answer 200 and the comment shows as plain text.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, type TestDb, armDoc, requirementDoc } from "../db/helpers";
+import { beforeAll, describe, expect, it } from "vitest";
+import { armDoc, requirementDoc } from "../db/helpers";
 import * as comments from "@/app/api/shortlists/[id]/comments/route";
 import * as shareComments from "@/app/api/share/[token]/comments/route";
 import { createArm } from "@/lib/db/arms";
@@ -12,22 +12,18 @@ import { createShareLink } from "@/lib/db/shares";
 import { createComment } from "@/lib/db/comments";
 import { commentPosts } from "@/lib/auth/rate-limit";
 import { call, expectFieldError, type Body } from "./client";
-import { makeAccounts, type Accounts } from "./setup";
+import { withAccounts } from "./setup";
 import { STRESS_CORPUS } from "../markdown/corpus";
 
-let t: TestDb;
-let acc: Accounts;
+const { acc, t } = withAccounts();
 let shortlistId: string;
 let token: string;
 beforeAll(async () => {
-  t = createTestDb();
-  acc = await makeAccounts();
   const armId = (await createArm(acc.ids.admin, armDoc())).id;
   const setId = (await createRequirementSet(acc.ids.admin, requirementDoc())).id;
   shortlistId = (await createShortlist(acc.ids.editor, { name: "Stress", requirementSetId: setId, armIds: [armId] })).id;
   token = (await createShareLink(acc.ids.editor, shortlistId, { access: "comment" })).token;
-}, 120_000);
-afterAll(async () => t.cleanup());
+});
 
 const memberList = () => call(comments.GET, `/api/shortlists/${shortlistId}/comments`, { cookie: acc.viewer, params: { id: shortlistId } });
 const guestList = () => call(shareComments.GET, `/api/share/${token}/comments`, { params: { token } });

@@ -1,7 +1,7 @@
 // Names typed into the API are cleaned of NUL and bidirectional overrides before they are
 // stored: account names at sign-up, shortlist names, share-link labels, arm and path names.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
+import { describe, expect, it } from "vitest";
+import { sampleArm, sampleRequirementSet } from "../db/helpers";
 import * as signup from "@/app/api/auth/signup/route";
 import * as users from "@/app/api/users/route";
 import * as arms from "@/app/api/arms/route";
@@ -9,15 +9,9 @@ import * as reqs from "@/app/api/requirements/route";
 import * as shortlists from "@/app/api/shortlists/route";
 import * as links from "@/app/api/shortlists/[id]/links/route";
 import { call, expectFieldError, type Body } from "./client";
-import { makeAccounts, type Accounts } from "./setup";
+import { withAccounts } from "./setup";
 
-let t: TestDb;
-let acc: Accounts;
-beforeAll(async () => {
-  t = createTestDb();
-  acc = await makeAccounts();
-}, 120_000);
-afterAll(async () => t.cleanup());
+const { acc, t } = withAccounts();
 
 const RLO = "\u202E";
 

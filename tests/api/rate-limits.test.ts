@@ -1,22 +1,15 @@
 // Sign-in and share-token limits count the address the server saw (x-armsift-peer), not what
 // the client writes in X-Forwarded-For; failures are counted per (account, address) with growing
 // back-off, so nobody else can lock an account; one limiter serves every bundle of the app.
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { createTestDb, type TestDb } from "../db/helpers";
+import { describe, expect, it, vi } from "vitest";
 import * as signin from "@/app/api/auth/signin/route";
 import * as arms from "@/app/api/arms/route";
 import { BackoffLimiter, signInFailuresByAccount, signInFailuresByIp } from "@/lib/auth/rate-limit";
 import { PEER_HEADER } from "@/lib/http/forwarded";
 import { call } from "./client";
-import { makeAccounts, type Accounts } from "./setup";
+import { withAccounts } from "./setup";
 
-let t: TestDb;
-let acc: Accounts;
-beforeAll(async () => {
-  t = createTestDb();
-  acc = await makeAccounts();
-}, 120_000);
-afterAll(async () => t.cleanup());
+const { acc } = withAccounts();
 
 const PASSWORD = "a long enough password";
 const signIn = (email: string, password: string, headers: Record<string, string>) => call(signin.POST, "/api/auth/signin", { body: { email, password }, headers });

@@ -1,11 +1,12 @@
 // Accounts for API tests: the first sign-up is admin; later sign-ups wait for approval (the
 // default sign-up mode), are approved by the admin and get a session; an editor and a viewer are made.
-import { expect } from "vitest";
+import { afterAll, beforeAll, expect } from "vitest";
 import * as signup from "@/app/api/auth/signup/route";
 import * as userById from "@/app/api/users/[id]/route";
 import { approveUser, findUserForSignIn, listUsers } from "@/lib/db";
 import { createSession } from "@/lib/auth/session";
 import { call, sessionCookieOf } from "./client";
+import { createTestDb, type TestDb } from "../db/helpers";
 
 export interface Accounts {
   admin: string;
@@ -40,4 +41,21 @@ export async function makeAccounts(): Promise<Accounts> {
   const r = await call(userById.PATCH, `/api/users/${editor.id}`, { method: "PATCH", cookie: admin.cookie, params: { id: editor.id }, body: { role: "editor" } });
   expect(r.status).toBe(200);
   return { admin: admin.cookie, editor: editor.cookie, viewer: viewer.cookie, ids: { admin: admin.id, editor: editor.id, viewer: viewer.id } };
+}
+
+/**
+ * The set-up most API test files share: a fresh migrated database and the three accounts, made
+ * before the file's tests and removed after them. The objects returned are filled in when the
+ * tests start (read them inside tests and later hooks, not at module load); a `beforeAll`
+ * registered after this call already sees them.
+ */
+export function withAccounts(): { acc: Accounts; t: TestDb } {
+  const acc = {} as Accounts;
+  const t = {} as TestDb;
+  beforeAll(async () => {
+    Object.assign(t, createTestDb());
+    Object.assign(acc, await makeAccounts());
+  }, 120_000);
+  afterAll(async () => t.cleanup?.());
+  return { acc, t };
 }

@@ -5,8 +5,7 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { createHash } from "node:crypto";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, type TestDb } from "../db/helpers";
+import { describe, expect, it } from "vitest";
 import * as arms from "@/app/api/arms/route";
 import * as armImport from "@/app/api/arms/import/route";
 import * as urdfPreview from "@/app/api/arms/urdf/route";
@@ -14,17 +13,11 @@ import * as urdfExport from "@/app/api/arms/[id]/urdf/route";
 import { createData, createModel, forwardKinematics } from "@/lib/kinematics";
 import { importUrdf } from "@/lib/urdf";
 import { call } from "./client";
-import { makeAccounts, type Accounts } from "./setup";
+import { withAccounts } from "./setup";
 import { maxAbsDiff } from "../helpers/fd";
 
 const twin = readFileSync(path.join(__dirname, "../reference/urdf/twin-branch.urdf"), "utf8");
-let t: TestDb;
-let acc: Accounts;
-beforeAll(async () => {
-  t = createTestDb();
-  acc = await makeAccounts();
-});
-afterAll(async () => t.cleanup());
+const { acc } = withAccounts();
 
 const preview = (body: unknown, cookie = acc.editor) => call(urdfPreview.POST, "/api/arms/urdf", { cookie, body });
 

@@ -1,21 +1,17 @@
 // Malformed input never causes a 500: every case is a 400 with a field-level error naming the field.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestDb, sampleArm, sampleRequirementSet, type TestDb } from "../db/helpers";
+import { beforeAll, describe, expect, it } from "vitest";
+import { sampleArm, sampleRequirementSet } from "../db/helpers";
 import * as arms from "@/app/api/arms/route";
 import * as armById from "@/app/api/arms/[id]/route";
 import * as reqs from "@/app/api/requirements/route";
 import { call, expectFieldError, type Body } from "./client";
-import { makeAccounts, type Accounts } from "./setup";
+import { withAccounts } from "./setup";
 
-let t: TestDb;
-let acc: Accounts;
+const { acc, t } = withAccounts();
 let armId: string;
 beforeAll(async () => {
-  t = createTestDb();
-  acc = await makeAccounts();
   armId = (await call(arms.POST, "/api/arms", { cookie: acc.editor, body: sampleArm() })).body.id;
 });
-afterAll(async () => t.cleanup());
 
 const post = (body: unknown, headers?: Record<string, string>) => call(arms.POST, "/api/arms", { cookie: acc.editor, body, headers });
 const withJoint0 = (patch: Record<string, unknown>) => {
