@@ -12,6 +12,12 @@ const alias = { "@": path.resolve(__dirname), "server-only": path.resolve(__dirn
 // processes on PostgreSQL (`queue`); browser tests against a built server in headless chromium.
 // `npm test` runs them in that order (the PostgreSQL ones when a server is reachable).
 const dbFiles = ["tests/db/**/*.test.ts", "tests/api/**/*.test.ts", "tests/security/**/*.test.ts"];
+// The projects that run on PostgreSQL: the provider switch and the set-up that checks the server
+// and migrates the template database the test databases are copied from.
+const onPostgres = {
+  env: { ARMSIFT_TEST_PROVIDER: "postgres" },
+  globalSetup: ["tests/helpers/build-jobs-setup.ts", "tests/helpers/postgres-setup.ts"],
+};
 export default defineConfig({
   resolve: { alias },
   test: {
@@ -51,8 +57,7 @@ export default defineConfig({
           pool: "forks",
           testTimeout: 30_000,
           hookTimeout: 60_000,
-          env: { ARMSIFT_TEST_PROVIDER: "postgres" },
-          globalSetup: ["tests/helpers/build-jobs-setup.ts", "tests/helpers/postgres-setup.ts"],
+          ...onPostgres,
         },
       },
       {
@@ -65,8 +70,7 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 300_000,
           hookTimeout: 120_000,
-          env: { ARMSIFT_TEST_PROVIDER: "postgres" },
-          globalSetup: ["tests/helpers/build-jobs-setup.ts", "tests/helpers/postgres-setup.ts"],
+          ...onPostgres,
         },
       },
       {
