@@ -13,6 +13,7 @@ import { checkCell, createCellCheck } from "@/lib/analysis/cell";
 import { createArmContext } from "@/lib/analysis/context";
 import { armSchema } from "@/shared/schemas/arm";
 import { requirementSetSchema } from "@/shared/schemas/requirements";
+import { CAPSULE_6R_JOINTS } from "../tests/helpers/arms";
 
 const PAIRS = 512;
 // Local bindings, as the analysis uses them (an imported binding is a getter call on every use).
@@ -70,18 +71,10 @@ function medianNs(a: Shape["shape"], b: Shape["shape"], seed: number): { ns: num
  * obstacles: median CPU µs per check over random configurations.
  */
 function fullCheck(): { us: number; pairs: number; colliding: number } {
-  const D = Math.PI / 180;
   const arm = armSchema.parse({
     name: "Bench six", convention: "dh",
     baseCollision: [{ from: [0, 0, 0.07], to: [0, 0, 0.12], radius: 0.065 }],
-    joints: [
-      { type: "revolute", a: 0.1, alpha: -90 * D, d: 0.4, theta: 0, min: -3, max: 3, radius: 0.07 },
-      { type: "revolute", a: 0.45, alpha: 0, d: 0, theta: -90 * D, min: -2, max: 2, radius: 0.06 },
-      { type: "revolute", a: 0.05, alpha: -90 * D, d: 0, theta: 0, min: -2.5, max: 2.5, radius: 0.05 },
-      { type: "revolute", a: 0, alpha: 90 * D, d: 0.42, theta: 0, min: -3, max: 3, radius: 0.045 },
-      { type: "revolute", a: 0, alpha: -90 * D, d: 0, theta: 0, min: -2, max: 2, radius: 0.04 },
-      { type: "revolute", a: 0, alpha: 0, d: 0.08, theta: 0, min: -6, max: 6, radius: 0.035 },
-    ],
+    joints: CAPSULE_6R_JOINTS,
   });
   const rng = createRng(20);
   const obstacles = Array.from({ length: 20 }, (_, k) => {

@@ -8,6 +8,7 @@ import { createArmContext, type ArmContext } from "@/lib/analysis/context";
 import { checkCell, checkMotion, contactMask, createCellCheck, pairNames, placeCell } from "@/lib/analysis/cell";
 import { createRng, randomConfiguration } from "@/lib/kinematics";
 import { linkGeometry } from "@/lib/geometry/arm";
+import { CAPSULE_6R_JOINTS } from "../helpers/arms";
 
 const I = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
 const DEG = Math.PI / 180;
@@ -103,14 +104,7 @@ describe("capsules derived from the kinematic table", () => {
   // An invented spherical-wrist six-axis arm in standard DH with a collision radius on every joint.
   const six = armSchema.parse({
     name: "Derived six", convention: "dh",
-    joints: [
-      { type: "revolute", a: 0.1, alpha: -90 * DEG, d: 0.4, theta: 0, min: -3, max: 3, radius: 0.07 },
-      { type: "revolute", a: 0.45, alpha: 0, d: 0, theta: -90 * DEG, min: -2, max: 2, radius: 0.06 },
-      { type: "revolute", a: 0.05, alpha: -90 * DEG, d: 0, theta: 0, min: -2.5, max: 2.5, radius: 0.05 },
-      { type: "revolute", a: 0, alpha: 90 * DEG, d: 0.42, theta: 0, min: -3, max: 3, radius: 0.045 },
-      { type: "revolute", a: 0, alpha: -90 * DEG, d: 0, theta: 0, min: -2, max: 2, radius: 0.04 },
-      { type: "revolute", a: 0, alpha: 0, d: 0.08, theta: 0, min: -6, max: 6, radius: 0.035 },
-    ],
+    joints: CAPSULE_6R_JOINTS,
   });
   it("link k runs along joint k's axis by d, then along x_k by a (standard DH): the table's own geometry", () => {
     const g = linkGeometry(six);

@@ -84,3 +84,17 @@ export const SPHERICAL_WRIST_6R: DhArmKinematics = {
   ],
   tool: [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0.12, 0, 0, 0, 1],
 };
+
+/**
+ * Joint table of an invented spherical-wrist 6R arm in standard DH with a collision radius (m) on
+ * every joint, for cell and collision checks (the capsules come from the table). Values invented
+ * for this project.
+ */
+export const CAPSULE_6R_JOINTS = [
+  { type: "revolute", a: 0.1, alpha: -90 * DEG, d: 0.4, theta: 0, min: -3, max: 3, radius: 0.07 },
+  { type: "revolute", a: 0.45, alpha: 0, d: 0, theta: -90 * DEG, min: -2, max: 2, radius: 0.06 },
+  { type: "revolute", a: 0.05, alpha: -90 * DEG, d: 0, theta: 0, min: -2.5, max: 2.5, radius: 0.05 },
+  { type: "revolute", a: 0, alpha: 90 * DEG, d: 0.42, theta: 0, min: -3, max: 3, radius: 0.045 },
+  { type: "revolute", a: 0, alpha: -90 * DEG, d: 0, theta: 0, min: -2, max: 2, radius: 0.04 },
+  { type: "revolute", a: 0, alpha: 0, d: 0.08, theta: 0, min: -6, max: 6, radius: 0.035 },
+] as const;
