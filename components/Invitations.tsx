@@ -2,7 +2,7 @@
 import { useEffect, useState } from "react";
 import { ROLES, type Role } from "@/shared/schemas/roles";
 import { api, byPath } from "./api";
-import { ErrorSummary, SelectField, TextField, errText } from "./fields";
+import { ErrorSummary, NumberField, SelectField, TextField, errText } from "./fields";
 import { utc } from "@/shared/format";
 
 interface Invitation {
@@ -72,7 +72,7 @@ export function Invitations() {
         <ErrorSummary title={messages.length ? "Invitation not made" : undefined} messages={messages} />
         <TextField label="Email" type="email" name="email" hint="optional: only this address may use it" value={email} onChange={setEmail} error={errText(errors, "email")} />
         <SelectField label="Role" name="role" value={role} onChange={setRole} options={ROLES.map((r) => ({ value: r, label: r }))} error={errText(errors, "role")} />
-        <TextField label="Works for" name="expiresInDays" hint="days, 1 to 90" value={days} onChange={setDays} error={errText(errors, "expiresInDays")} />
+        <NumberField label="Works for" name="expiresInDays" hint="1 to 90" unit="days" value={days} onChange={setDays} error={errText(errors, "expiresInDays")} />
         <div className="toolbar">
           <button type="submit" className="primary">
             Make invitation link
@@ -98,6 +98,9 @@ export function Invitations() {
                 <th scope="col">Made</th>
                 <th scope="col">Works until</th>
                 <th scope="col">State</th>
+                <th scope="col">
+                  <span className="visually-hidden">Action</span>
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -107,8 +110,8 @@ export function Invitations() {
                   <td>{inv.role}</td>
                   <td>{utc(inv.createdAt)}</td>
                   <td>{utc(inv.expiresAt)}</td>
+                  <td>{inv.state}</td>
                   <td>
-                    {inv.state}
                     {inv.state === "open" && (
                       <button type="button" className="small" onClick={() => revoke(inv)} aria-label={`Revoke the invitation for ${inv.email ?? "anyone"} made ${utc(inv.createdAt)}`}>
                         Revoke
