@@ -91,6 +91,7 @@ export function UrdfImport({ onClose }: { onClose: () => void }) {
                 await read(next);
               }}
             />
+            {file && <span className="hint">read: {file.name}</span>}
             <button type="button" onClick={onClose}>
               Close
             </button>
