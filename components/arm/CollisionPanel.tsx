@@ -32,7 +32,7 @@ export function CollisionPanel(props: { form: ArmForm; errors: Record<string, st
     if (e.length) return null;
     try {
       const links = linkGeometry(doc);
-      return { links, touching: alwaysTouchingPairs(links) };
+      return { links, touching: alwaysTouchingPairs(links, doc) };
     } catch {
       return null;
     }

@@ -15,9 +15,9 @@
  * ## Pairs checked
  * Every body with shapes against every obstacle (less a target's or path's `contact` list for the
  * tool and the payload); links two or more apart, the base counting as link 0; the tool and the
- * payload against the base … link n−1; less the arm's `ignoredPairs` and less the pairs of derived
- * geometry that touch in every configuration ({@link alwaysTouchingPairs} and the same rule for
- * the tool and the payload against derived links).
+ * payload against the base … link n−1; less the arm's `ignoredPairs` and less the pairs of links
+ * that touch in every configuration ({@link alwaysTouchingPairs}, and the derived-geometry rule
+ * for the tool and the payload against derived links).
  *
  * ## The clearance
  * The clearance of a configuration is the smallest distance over the checked pairs, except the
@@ -255,7 +255,7 @@ export function createCellModel(arm: ArmDocument, req: RequirementSet, model: Ar
   const shapesOfBody = (b: number) => bodyOf.map((x, i) => (x === b ? i : -1)).filter((i) => i >= 0);
   const hasShapes = bodyNames.map((_, b) => shapesOfBody(b).length > 0);
   const ignored = new Set((arm.ignoredPairs ?? []).map(([a, b]) => `${Math.min(a, b)}-${Math.max(a, b)}`));
-  const touching = new Set(alwaysTouchingPairs(links).map(([a, b]) => `${a}-${b}`));
+  const touching = new Set(alwaysTouchingPairs(links, arm).map(([a, b]) => `${a}-${b}`));
   // the tool and the payload against derived links they cannot leave (same rule as alwaysTouchingPairs)
   const offsets = links.map((g) => g.length);
   const toolPointInTcp = mul4(invertRigid(tcp), IDENTITY_4);

@@ -20,7 +20,7 @@ import type { Verdict } from "./types";
 import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.6.1";
+export const ANALYSIS_VERSION = "analysis-1.7.0";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =

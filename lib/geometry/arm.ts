@@ -29,8 +29,10 @@
  * ## Pairs that always touch
  * Two links joined through links shorter in all than the sum of their radii overlap in every
  * configuration (the end of one and the start of the other are never farther apart than the
- * links between them are long). Checking them says nothing, so for derived geometry such pairs
- * are set aside ({@link alwaysTouchingPairs}), like the pairs an `ignoredPairs` list names.
+ * links between them are long); so do two links whose shapes both hold a point that the joints
+ * between them cannot move relative to either (a spherical wrist's centre). Checking such pairs
+ * says nothing, so they are set aside ({@link alwaysTouchingPairs}), like the pairs an
+ * `ignoredPairs` list names.
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { ArmCapsule } from "@/shared/schemas/cell";
@@ -169,20 +171,85 @@ function clean(v: number): number {
 }
 
 /**
- * Pairs of derived links (i < j, j − i ≥ 2) that overlap in every configuration: the links
- * between them are shorter in all than r_i + r_j. Link numbers as in `ignoredPairs`.
+ * Pairs of links (i < j, j − i ≥ 2) that overlap in every configuration, link numbers as in
+ * `ignoredPairs`, by either of two rules:
+ * - derived geometry (both links from `radius`): the links between them are shorter in all than
+ *   r_i + r_j;
+ * - any geometry: a point held still relative to both links whatever the joints between them do
+ *   (the centre of a spherical wrist, where the forearm's and the hand's housings meet) lies
+ *   inside a shape of each. The candidates are the frame origins from link i to link j; one is
+ *   held still when its coordinates in link j's frame stay the same (to 1e-9 m) as the joints
+ *   i+1 … j move through three other configurations.
  */
-export function alwaysTouchingPairs(links: readonly LinkGeometry[]): [number, number][] {
+export function alwaysTouchingPairs(links: readonly LinkGeometry[], arm: ArmLike): [number, number][] {
   const out: [number, number][] = [];
+  let frames: Float64Array[] | null = null;
   for (let i = 0; i < links.length; i++) {
     for (let j = i + 2; j < links.length; j++) {
       const a = links[i], b = links[j];
-      if (a.source !== "derived" || b.source !== "derived") continue;
-      let between = 0;
-      for (let k = i + 1; k < j; k++) between += links[k].length;
-      if (between < a.radius! + b.radius!) out.push([a.link, b.link]);
+      if (a.source === "none" || b.source === "none") continue;
+      if (a.source === "derived" && b.source === "derived") {
+        let between = 0;
+        for (let k = i + 1; k < j; k++) between += links[k].length;
+        if (between < a.radius! + b.radius!) out.push([a.link, b.link]);
+        continue;
+      }
+      if (a.stretches || b.stretches) continue;
+      frames ??= poseSamples(arm);
+      if (sharesHeldPointInside(frames, a, b)) out.push([a.link, b.link]);
     }
   }
   return out;
+}
+
+/** Joint frames at the reference configuration and three others (every joint moved). */
+function poseSamples(arm: ArmLike): Float64Array[] {
+  const model = createModel({ name: arm.name ?? "", convention: arm.convention, joints: arm.joints, tool: arm.tool } as Parameters<typeof createModel>[0]);
+  const data = createData(model);
+  const q0 = arm.joints.map((j) => Math.min(j.max, Math.max(j.min, 0)));
+  const frames: Float64Array[] = [];
+  for (const step of [0, 0.7, -1.3, 2.1]) {
+    forwardKinematics(model, data, q0.map((q, k) => q + step * (arm.joints[k].type === "prismatic" ? 0.1 : 1) * (1 + 0.17 * k)));
+    frames.push(Float64Array.from(data.frames));
+  }
+  return frames;
+}
+
+/** x in frame f's coordinates for a world point w (frames row-major 4×4, f the frame index). */
+function toLocal(F: Float64Array, f: number, w: readonly number[]): Vec3Tuple {
+  const o = 16 * f, d = [w[0] - F[o + 3], w[1] - F[o + 7], w[2] - F[o + 11]];
+  return [0, 1, 2].map((c) => F[o + c] * d[0] + F[o + 4 + c] * d[1] + F[o + 8 + c] * d[2]) as Vec3Tuple;
+}
+
+/** The world point of local point p of frame f. */
+function toWorld(F: Float64Array, f: number, p: readonly number[]): Vec3Tuple {
+  const o = 16 * f;
+  return [0, 1, 2].map((r) => F[o + 4 * r] * p[0] + F[o + 4 * r + 1] * p[1] + F[o + 4 * r + 2] * p[2] + F[o + 4 * r + 3]) as Vec3Tuple;
+}
+
+/** Whether local point p lies inside (or on) one of the capsules given in the same frame. */
+function insideCapsules(capsules: readonly ArmCapsule[], p: Vec3Tuple): boolean {
+  return capsules.some((c) => {
+    const ab = [c.to[0] - c.from[0], c.to[1] - c.from[1], c.to[2] - c.from[2]];
+    const ap = [p[0] - c.from[0], p[1] - c.from[1], p[2] - c.from[2]];
+    const len2 = ab[0] * ab[0] + ab[1] * ab[1] + ab[2] * ab[2];
+    const t = len2 > 0 ? Math.min(1, Math.max(0, (ap[0] * ab[0] + ap[1] * ab[1] + ap[2] * ab[2]) / len2)) : 0;
+    return Math.hypot(ap[0] - t * ab[0], ap[1] - t * ab[1], ap[2] - t * ab[2]) <= c.radius;
+  });
+}
+
+/** The second rule of {@link alwaysTouchingPairs} for links a and b (frames = poseSamples). */
+function sharesHeldPointInside(frames: readonly Float64Array[], a: LinkGeometry, b: LinkGeometry): boolean {
+  const [F0] = frames;
+  for (let f = a.link; f <= b.link; f++) {
+    const world = toWorld(F0, f, [0, 0, 0]);
+    const inA = toLocal(F0, a.link, world), inB = toLocal(F0, b.link, world);
+    const held = frames.slice(1).every((F) => {
+      const moved = toLocal(F, b.link, toWorld(F, a.link, inA));
+      return Math.hypot(moved[0] - inB[0], moved[1] - inB[1], moved[2] - inB[2]) <= 1e-9;
+    });
+    if (held && insideCapsules(a.capsules, inA) && insideCapsules(b.capsules, inB)) return true;
+  }
+  return false;
 }
 
