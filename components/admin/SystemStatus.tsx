@@ -1,4 +1,5 @@
 import type { HealthReport } from "@/lib/jobs/runs";
+import { utc } from "@/shared/format";
 
 const seconds = (from: Date | string, now: string) => `${Math.max(0, Math.round((Date.parse(now) - new Date(from).getTime()) / 1000))} s ago`;
 
@@ -38,32 +39,34 @@ export function SystemStatus({ report, now }: { report: HealthReport; now: strin
             </p>
             {runner.liveWorkers === 0 && <p className="notice warn">No worker is running: start `npm run worker` on a worker machine, or queued analyses wait.</p>}
             {runner.workers && runner.workers.length > 0 && (
-              <table data-testid="workers">
-                <thead>
-                  <tr>
-                    <th scope="col">Worker</th>
-                    <th scope="col">Machine</th>
-                    <th scope="col">Process</th>
-                    <th scope="col">At once</th>
-                    <th scope="col">Started</th>
-                    <th scope="col">Last heartbeat</th>
-                    <th scope="col">Analysing</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {runner.workers.map((w) => (
-                    <tr key={w.id}>
-                      <td>{w.id}</td>
-                      <td>{w.host}</td>
-                      <td className="num">{w.pid}</td>
-                      <td className="num">{w.concurrency}</td>
-                      <td>{new Date(w.startedAt).toISOString().replace("T", " ").slice(0, 19)} UTC</td>
-                      <td>{seconds(w.lastSeenAt, now)}</td>
-                      <td>{w.runIds.length ? `${w.runIds.length} run${w.runIds.length === 1 ? "" : "s"}` : "idle"}</td>
+              <div className="table-wrap">
+                <table data-testid="workers">
+                  <thead>
+                    <tr>
+                      <th scope="col">Worker</th>
+                      <th scope="col">Machine</th>
+                      <th scope="col">Process</th>
+                      <th scope="col">At once</th>
+                      <th scope="col">Started</th>
+                      <th scope="col">Last heartbeat</th>
+                      <th scope="col">Analysing</th>
                     </tr>
-                  ))}
-                </tbody>
-              </table>
+                  </thead>
+                  <tbody>
+                    {runner.workers.map((w) => (
+                      <tr key={w.id}>
+                        <td>{w.id}</td>
+                        <td>{w.host}</td>
+                        <td className="num">{w.pid}</td>
+                        <td className="num">{w.concurrency}</td>
+                        <td>{utc(w.startedAt, { seconds: true })}</td>
+                        <td>{seconds(w.lastSeenAt, now)}</td>
+                        <td>{w.runIds.length ? `${w.runIds.length} run${w.runIds.length === 1 ? "" : "s"}` : "idle"}</td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </div>
             )}
           </>
         )}

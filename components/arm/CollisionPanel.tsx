@@ -1,17 +1,19 @@
 "use client";
 import { useMemo } from "react";
 import { alwaysTouchingPairs, linkGeometry, type LinkGeometry } from "@/lib/geometry/arm";
+import { upTo } from "@/shared/format";
 import { mToMm } from "@/shared/units";
 import { CellNumber, TextField, wholeErrors } from "../fields";
 import { RowActionsCell } from "../RowControls";
 import { CellCaution } from "../CellCaution";
-import { show } from "../pose";
 import { armFormToDoc, type ArmForm } from "./armForm";
 import { CAPSULE_TEXT_KEYS, capsuleCellPaths, capsuleRow, capsuleRowPaths, newCapsuleRow, type CapsuleRow, type CapsuleTextKey } from "./collisionForm";
 
 const COL_LABEL: Record<CapsuleTextKey, string> = { fx: "from x", fy: "from y", fz: "from z", tx: "to x", ty: "to y", tz: "to z", r: "radius" };
 
-const mm3 = (p: readonly number[]) => p.map((v) => show(mToMm(v))).join(", ");
+/** A length read at a glance, to 0.1 mm (the table above keeps the full value for editing). */
+const mm = (v: number) => upTo(mToMm(v), 1);
+const mm3 = (p: readonly number[]) => p.map(mm).join(", ");
 
 /**
  * The arm's collision geometry: capsules per body (the base, link 1 … n) in that body's frame,
@@ -133,13 +135,13 @@ export function CollisionPanel(props: { form: ArmForm; errors: Record<string, st
               {geometry.links.map((g) => (
                 <tr key={g.link}>
                   <th scope="row">link {g.link}</th>
-                  <td>{g.source === "collision" ? "entered" : g.source === "derived" ? `derived (radius ${show(mToMm(g.radius!))} mm)` : "none: not checked"}</td>
+                  <td>{g.source === "collision" ? "entered" : g.source === "derived" ? `derived (radius ${mm(g.radius!)} mm)` : "none: not checked"}</td>
                   <td>
                     {g.capsules.length === 0
                       ? "–"
                       : g.capsules.map((c, k) => (
                           <div key={k}>
-                            ({mm3(c.from)}) → ({mm3(c.to)}), r {show(mToMm(c.radius))}
+                            ({mm3(c.from)}) → ({mm3(c.to)}), r {mm(c.radius)}
                           </div>
                         ))}
                     {g.stretches && <div className="hint">the part along the prismatic joint stretches with its travel (shown at q = 0)</div>}

@@ -27,6 +27,24 @@ interface Props {
 }
 
 /** A transform is shown as one pose, not as 16 matrix cells. */
+/** The two shape lists the tool carries: the tool itself and the part it holds. */
+const HELD_SHAPES = [
+  {
+    key: "toolShapes",
+    id: "tool",
+    legend: "Tool collision shapes",
+    hint: "Capsules or boxes in the arm's tool-point frame (the frame of the tool CoG): the gripper, spindle or screwdriver as it is built.",
+    caption: "Tool collision shapes in the tool-point frame",
+  },
+  {
+    key: "payloadShapes",
+    id: "payload",
+    legend: "Payload collision shapes",
+    hint: "Capsules or boxes in the TCP frame (the frame of the payload CoG): the part as it is held.",
+    caption: "Payload collision shapes in the TCP frame",
+  },
+] as const;
+
 function groupPath(path: string): string {
   const m = /^(base|tool\.tcp)\.\d+$/.exec(path);
   return m ? m[1] : path;
@@ -153,38 +171,24 @@ export function RequirementEditor(props: Props) {
       </fieldset>
 
       <div className="two-col">
-        <fieldset className="panel" data-testid="tool-shapes-panel">
-          <legend>Tool collision shapes</legend>
-          <p className="hint">Capsules or boxes in the arm&apos;s tool-point frame (the frame of the tool CoG): the gripper, spindle or screwdriver as it is built.</p>
-          <ShapeTable
-            rows={form.toolShapes}
-            errors={errMap}
-            readOnly={readOnly}
-            prefix="tool.collision"
-            noun="tool shape"
-            named={false}
-            shapes={["capsule", "box"]}
-            caption="Tool collision shapes in the tool-point frame"
-            testId="tool-shape-table"
-            onChange={(rows, s) => update({ toolShapes: rows }, s)}
-          />
-        </fieldset>
-        <fieldset className="panel" data-testid="payload-shapes-panel">
-          <legend>Payload collision shapes</legend>
-          <p className="hint">Capsules or boxes in the TCP frame (the frame of the payload CoG): the part as it is held.</p>
-          <ShapeTable
-            rows={form.payloadShapes}
-            errors={errMap}
-            readOnly={readOnly}
-            prefix="payload.collision"
-            noun="payload shape"
-            named={false}
-            shapes={["capsule", "box"]}
-            caption="Payload collision shapes in the TCP frame"
-            testId="payload-shape-table"
-            onChange={(rows, s) => update({ payloadShapes: rows }, s)}
-          />
-        </fieldset>
+        {HELD_SHAPES.map((h) => (
+          <fieldset key={h.key} className="panel" data-testid={`${h.id}-shapes-panel`}>
+            <legend>{h.legend}</legend>
+            <p className="hint">{h.hint}</p>
+            <ShapeTable
+              rows={form[h.key]}
+              errors={errMap}
+              readOnly={readOnly}
+              prefix={`${h.id}.collision`}
+              noun={`${h.id} shape`}
+              named={false}
+              shapes={["capsule", "box"]}
+              caption={h.caption}
+              testId={`${h.id}-shape-table`}
+              onChange={(rows, s) => update({ [h.key]: rows }, s)}
+            />
+          </fieldset>
+        ))}
       </div>
 
       <fieldset className="panel">

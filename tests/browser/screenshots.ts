@@ -44,6 +44,10 @@ async function main(): Promise<void> {
     await snap("signup");
     await signUp(t, { email: "shots@example.test", name: "Sam Shots", password: "screenshots only 123" });
     await snap("arms");
+    await p.getByRole("button", { name: "Import URDF…" }).click();
+    await p.getByTestId("urdf-import").getByLabel("URDF file").setInputFiles(path.join(__dirname, "..", "..", "seed-data", "urdf", "offset-wrist-8.urdf"));
+    await p.getByTestId("urdf-preview").waitFor();
+    await snap("urdf-import");
     const firstArm = await p.getByTestId("arm-table").locator("tbody tr a").first().getAttribute("href");
     // A DH arm for the table and paste screens (the catalog also holds chain arms imported from URDF).
     const dhArm = await p.getByTestId("arm-table").locator("tbody tr a", { hasText: "Compact Six 3" }).first().getAttribute("href");
@@ -65,6 +69,13 @@ async function main(): Promise<void> {
       await p.waitForTimeout(400);
       await snapView(name);
     }
+    // A chain (URDF) arm's editor with its collision geometry.
+    await p.goto(firstArm!);
+    await p.getByTestId("collision-panel").waitFor();
+    await p.getByTestId("arm-view3d").getByRole("button", { name: "Show 3-D view" }).click();
+    await p.getByTestId("view3d-canvas").waitFor();
+    await p.waitForTimeout(400);
+    await snap("arm-edit-chain");
     await p.goto(dhArm! + "/history");
     await snap("arm-history");
     await p.goto(dhArm! + "/history/1");
@@ -95,9 +106,19 @@ async function main(): Promise<void> {
     await p.getByTestId("solution-view").first().waitFor();
     await p.waitForTimeout(400);
     await snapView("shortlist-view3d");
+    await snap("shortlist");
+    await p.goto("/account");
+    await snap("account");
     await p.goto("/admin/users");
-    await p.getByRole("table").waitFor();
+    await p.getByRole("table").first().waitFor();
+    await p.getByLabel("Invitation only").check();
+    await p.getByTestId("invitations").getByLabel("Email").fill("new.colleague@example.test");
+    await p.getByTestId("invitations").getByRole("button", { name: /invitation/i }).click();
+    await p.getByLabel(/Invitation link/).waitFor();
     await snap("users");
+    await p.goto("/admin/system");
+    await p.getByTestId("system-status").waitFor();
+    await snap("system");
     await p.goto("/no-such-page");
     await snap("not-found");
     console.log(shots.map(([, f]) => f).join("\n"));
