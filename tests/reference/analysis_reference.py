@@ -33,6 +33,14 @@ rng = np.random.default_rng(20240611)
 OUT = os.path.join(os.path.dirname(__file__), "fixtures", "analysis_reference.json")
 
 
+def write_fixture(path, data):
+    """Writes a fixture as the tests read it: JSON, keys sorted, one-space indent, final newline."""
+    with open(path, "w") as f:
+        json.dump(data, f, indent=1, sort_keys=True)
+        f.write("\n")
+    print("wrote", path)
+
+
 def jac2r(l1, l2, q1, q2):
     s1, c1 = math.sin(q1), math.cos(q1)
     s12, c12 = math.sin(q1 + q2), math.cos(q1 + q2)
@@ -282,10 +290,7 @@ def main():
         "linalg": svd_cases(),
         "endToEnd": end_to_end(),
     }
-    with open(OUT, "w") as f:
-        json.dump(data, f, indent=1, sort_keys=True)
-        f.write("\n")
-    print("wrote", OUT)
+    write_fixture(OUT, data)
 
 
 if __name__ == "__main__":

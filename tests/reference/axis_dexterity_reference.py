@@ -15,13 +15,12 @@ Cases: random 6xn matrices with random tool frames (some with a joint that only 
 about its own z axis, which must not count), and a 6-axis DH arm at a few configurations with its
 own numpy forward kinematics and Jacobian (analysis_reference.py).
 """
-import json
 import math
 import os
 
 import numpy as np
 
-from analysis_reference import ARM, frames, point_jacobian
+from analysis_reference import ARM, frames, point_jacobian, write_fixture
 
 OUT = os.path.join(os.path.dirname(__file__), "fixtures", "axis_dexterity_reference.json")
 rng = np.random.default_rng(20241202)
@@ -87,10 +86,7 @@ def arm_cases():
 def main():
     data = {"source": "tests/reference/axis_dexterity_reference.py (numpy %s)" % np.__version__,
             "random": random_cases(), "arm": arm_cases()}
-    with open(OUT, "w") as f:
-        json.dump(data, f, indent=1, sort_keys=True)
-        f.write("\n")
-    print("wrote", OUT)
+    write_fixture(OUT, data)
 
 
 if __name__ == "__main__":
