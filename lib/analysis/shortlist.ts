@@ -93,6 +93,16 @@ export interface ArmAnalysis {
   summary: string;
 }
 
+/** One arm of a finished run with the arm and requirement-set revisions it was computed from (what the 3-D view draws). */
+export interface RunArmView {
+  runId: string;
+  armId: string;
+  revision: number;
+  arm: ArmDocument;
+  requirementSet: RequirementSet;
+  analysis: ArmAnalysis;
+}
+
 /** What the cell checks for one arm. */
 interface ArmCell {
   /** Pairs of bodies checked at every configuration. */
