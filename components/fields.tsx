@@ -109,6 +109,8 @@ export function CellNumber(props: {
   readOnly?: boolean;
   className?: string;
   name?: string;
+  /** Shown in an empty cell (what an empty value means, e.g. "assumed"). */
+  placeholder?: string;
 }) {
   const id = useId();
   return (
@@ -121,6 +123,7 @@ export function CellNumber(props: {
         className={props.className ?? "n"}
         aria-label={props.label}
         value={props.value}
+        placeholder={props.placeholder}
         readOnly={props.readOnly}
         {...errAria(id, props.error)}
         onChange={(e) => props.onChange(e.target.value)}

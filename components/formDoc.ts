@@ -19,5 +19,5 @@ export function checkFormDoc<D>(schema: z.ZodType, built: { doc: D; errors: Fiel
 /** "label: message" unless the message already names the field. */
 export function describeError(e: FieldError, label: (path: string) => string): string {
   const l = label(e.path);
-  return e.message.toLowerCase().startsWith(l.toLowerCase()) || /^(joint|row|wrist|target|path|spec|base|tool) /i.test(e.message) ? e.message : `${l}: ${e.message}`;
+  return e.message.toLowerCase().startsWith(l.toLowerCase()) || /^(joint|row|wrist|target|path|spec|base|tool|sequence) /i.test(e.message) ? e.message : `${l}: ${e.message}`;
 }

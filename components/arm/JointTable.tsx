@@ -2,8 +2,42 @@
 import { CellNumber } from "../fields";
 import { AXIS_FIELDS, CHAIN_FIELD_PATH, JOINT_LABEL, ORIGIN_FIELDS, jointFieldUnit, newJointRow, type JointNumField, type JointRow, type JointType } from "./armForm";
 import { RowActionsCell } from "../RowControls";
+import { ASSUMED_ACCELERATION_TIME } from "@/lib/analysis/cycle";
 
-const LIMITS: JointNumField[] = ["min", "max", "maxSpeed", "maxTorque", "mass"];
+const LIMITS: JointNumField[] = ["min", "max", "maxSpeed", "maxAcceleration", "maxTorque", "mass"];
+
+const jointList = (ns: number[]) => `${ns.length === 1 ? "Joint" : "Joints"} ${ns.join(", ")}`;
+
+/**
+ * Which joints the cycle-time model has to make assumptions for: no acceleration limit (an assumed
+ * one, the result an estimate) or no speed limit (the cycle is unknown) (docs/design.md#cycle-time).
+ */
+export function CycleLimitsNote({ rows }: { rows: JointRow[] }) {
+  const noAcc = rows.flatMap((r, i) => (r.maxAcceleration.trim() === "" ? [i + 1] : []));
+  const noSpeed = rows.flatMap((r, i) => (r.maxSpeed.trim() === "" ? [i + 1] : []));
+  if (noAcc.length === 0 && noSpeed.length === 0) {
+    return (
+      <p className="hint" data-testid="cycle-limits-note">
+        Every joint states a max speed and a max acceleration: cycle times use them as entered.
+      </p>
+    );
+  }
+  return (
+    <div className="notice warn" data-testid="cycle-limits-note">
+      {noAcc.length > 0 && (
+        <p>
+          <strong>{jointList(noAcc)}</strong> {noAcc.length === 1 ? "has" : "have"} no max acceleration: cycle times assume each reaches its max speed in {ASSUMED_ACCELERATION_TIME} s
+          (an assumed value, not the maker&apos;s) and are marked as estimates.
+        </p>
+      )}
+      {noSpeed.length > 0 && (
+        <p>
+          <strong>{jointList(noSpeed)}</strong> {noSpeed.length === 1 ? "has" : "have"} no max speed: path speeds and cycle times are unknown for this arm.
+        </p>
+      )}
+    </div>
+  );
+}
 const DH_MAIN: JointNumField[] = ["a", "alpha", "d", "theta", ...LIMITS];
 const CHAIN_MAIN: JointNumField[] = [...ORIGIN_FIELDS, ...AXIS_FIELDS, ...LIMITS];
 
@@ -94,6 +128,7 @@ export function JointTable(props: {
                         value={r[f]}
                         readOnly={readOnly}
                         error={e(i, f)}
+                        placeholder={f === "maxAcceleration" ? "assumed" : undefined}
                         onChange={(v) => set(i, { [f]: v })}
                       />
                     </td>
@@ -133,6 +168,7 @@ export function JointTable(props: {
         </table>
       </div>
       {errors["joints"] && <p className="err">{errors["joints"].join("; ")}</p>}
+      <CycleLimitsNote rows={rows} />
       {!readOnly && (
         <div className="toolbar">
           <button type="button" disabled={rows.length >= props.maxJoints} onClick={() => props.onChange([...rows, newJointRow("revolute")], true)}>

@@ -13,7 +13,7 @@ export type JointType = "revolute" | "prismatic";
 const JOINT_NUM_FIELDS = [
   "a", "alpha", "d", "theta",
   "ox", "oy", "oz", "roll", "pitch", "yaw", "axisX", "axisY", "axisZ",
-  "min", "max", "maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ", "radius",
+  "min", "max", "maxSpeed", "maxAcceleration", "maxTorque", "mass", "comX", "comY", "comZ", "radius",
 ] as const;
 export type JointNumField = (typeof JOINT_NUM_FIELDS)[number];
 /** The DH table columns (`dh`, `mdh`). */
@@ -49,6 +49,8 @@ export interface JointRow {
   min: string;
   max: string;
   maxSpeed: string;
+  /** Joint acceleration limit (°/s² or mm/s²); empty: not stated (the cycle time then assumes one). */
+  maxAcceleration: string;
   maxTorque: string;
   mass: string;
   comX: string;
@@ -119,6 +121,7 @@ export const JOINT_LABEL: Record<JointNumField, string> = {
   min: "min",
   max: "max",
   maxSpeed: "max speed",
+  maxAcceleration: "max acceleration",
   maxTorque: "max torque",
   mass: "link mass",
   comX: "CoM x",
@@ -145,6 +148,8 @@ export function jointFieldUnit(field: JointNumField, type: JointType): string {
       return jointUnit(type);
     case "maxSpeed":
       return type === "revolute" ? "°/s" : "mm/s";
+    case "maxAcceleration":
+      return type === "revolute" ? "°/s²" : "mm/s²";
     case "maxTorque":
       return type === "revolute" ? "N·m" : "N";
     case "mass":
@@ -166,6 +171,7 @@ export function jointFieldToDisplay(field: JointNumField, type: JointType, si: n
     case "min":
     case "max":
     case "maxSpeed":
+    case "maxAcceleration":
       return jointToDisplay(type, si);
     case "maxTorque":
     case "mass":
@@ -189,6 +195,7 @@ function jointFieldFromDisplay(field: JointNumField, type: JointType, shown: num
     case "min":
     case "max":
     case "maxSpeed":
+    case "maxAcceleration":
       return jointFromDisplay(type, shown);
     case "maxTorque":
     case "mass":
@@ -221,6 +228,7 @@ export function newJointRow(type: JointType = "revolute"): JointRow {
     min: type === "revolute" ? "-180" : "0",
     max: type === "revolute" ? "180" : "500",
     maxSpeed: "",
+    maxAcceleration: "",
     maxTorque: "",
     mass: "",
     comX: "",
@@ -296,6 +304,7 @@ export function armFormFromDoc(doc: ArmDocument): ArmForm {
       min: j.min,
       max: j.max,
       maxSpeed: j.maxSpeed,
+      maxAcceleration: j.maxAcceleration,
       maxTorque: j.maxTorque,
       mass: j.mass,
       comX: j.com?.[0],
@@ -419,6 +428,8 @@ export function armFormToDoc(form: ArmForm): { doc: ArmDocument; errors: FieldEr
           };
     const maxSpeed = get("maxSpeed", `joints.${i}.maxSpeed`);
     if (maxSpeed !== undefined) joint.maxSpeed = maxSpeed;
+    const maxAcceleration = get("maxAcceleration", `joints.${i}.maxAcceleration`);
+    if (maxAcceleration !== undefined) joint.maxAcceleration = maxAcceleration;
     const maxTorque = get("maxTorque", `joints.${i}.maxTorque`);
     if (maxTorque !== undefined) joint.maxTorque = maxTorque;
     const mass = get("mass", `joints.${i}.mass`);

@@ -22,6 +22,7 @@ const HEADER_ALIASES: Record<string, JointNumField | "type" | "ignore"> = {
   min: "min", lower: "min", "q min": "min", qmin: "min",
   max: "max", upper: "max", "q max": "max", qmax: "max",
   "max speed": "maxSpeed", maxspeed: "maxSpeed", speed: "maxSpeed", vmax: "maxSpeed", velocity: "maxSpeed",
+  "max acceleration": "maxAcceleration", maxacceleration: "maxAcceleration", acceleration: "maxAcceleration", amax: "maxAcceleration",
   "max torque": "maxTorque", maxtorque: "maxTorque", torque: "maxTorque", "max force": "maxTorque",
   mass: "mass", "link mass": "mass", m: "mass",
   "com x": "comX", comx: "comX", com_x: "comX", cx: "comX",
@@ -102,7 +103,7 @@ export function parseDhPaste(text: string): PasteResult {
       else if (t.trim() !== "") errors.push(`row ${row}: type '${t}' is not revolute or prismatic`);
     }
     const joint = newJointRow(type);
-    for (const f of ["maxSpeed", "maxTorque", "mass", "comX", "comY", "comZ", "radius"] as const) joint[f] = "";
+    for (const f of ["maxSpeed", "maxAcceleration", "maxTorque", "mass", "comX", "comY", "comZ", "radius"] as const) joint[f] = "";
     const values: Partial<Record<JointNumField, number>> = {};
     columns.forEach((col, ci) => {
       if (col === "type" || col === "ignore") return;
@@ -122,7 +123,7 @@ export function parseDhPaste(text: string): PasteResult {
       const u = jointFieldUnit("max", type);
       errors.push(`row ${row}: max (${show(values.max)}${u}) is below min (${show(values.min)}${u})`);
     }
-    for (const f of ["maxSpeed", "maxTorque"] as const)
+    for (const f of ["maxSpeed", "maxAcceleration", "maxTorque"] as const)
       if (values[f] !== undefined && values[f]! <= 0) errors.push(`row ${row}: ${JOINT_LABEL[f]} (${show(values[f])}) must be > 0`);
     if (values.mass !== undefined && values.mass < 0) errors.push(`row ${row}: link mass (${show(values.mass)} kg) must be ≥ 0`);
     return { row, cells, joint: errors.length ? undefined : joint, errors };

@@ -8,6 +8,7 @@ import { RPY_CONVENTION } from "../pose";
 import { WEIGHT_KEYS, WEIGHT_LABEL, emptyReqForm, formatReqValue, reqFormFromDoc, reqPathLabel, validateReqForm, type ReqForm } from "./reqForm";
 import { TargetTable } from "./TargetTable";
 import { PathEditor } from "./PathEditor";
+import { SequenceEditor } from "./SequenceEditor";
 import { SpecTable } from "./SpecTable";
 import { ShapeTable } from "./ShapeTable";
 import { CellCaution } from "../CellCaution";
@@ -205,6 +206,16 @@ export function RequirementEditor(props: Props) {
       <fieldset className="panel">
         <legend>Paths</legend>
         <PathEditor paths={form.paths} errors={errMap} readOnly={readOnly} onChange={(paths, s) => update({ paths }, s)} />
+      </fieldset>
+
+      <fieldset className="panel" data-testid="sequences-panel">
+        <legend>Sequences and cycle time</legend>
+        <p className="hint">
+          The work of one cycle, step by step: a point-to-point move to a target (then an optional dwell in s), a path followed at its required tool speed, or a wait in s. The
+          cycle is closed: it starts where its last step ends. Give a required cycle time in s or a required rate in parts per hour (saved as 3600 / rate s); each arm&apos;s
+          estimated cycle is compared with it on the shortlist page.
+        </p>
+        <SequenceEditor sequences={form.sequences} form={form} errors={errMap} readOnly={readOnly} onChange={(sequences, s) => update({ sequences }, s)} />
       </fieldset>
 
       <fieldset className="panel">

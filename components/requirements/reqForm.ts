@@ -14,6 +14,7 @@ import {
   type ConstraintMode,
   type FieldError,
   type RequirementSet,
+  type Sequence,
   type SpecField,
   type Weights,
 } from "@/shared/schemas";
@@ -55,6 +56,29 @@ export interface PathForm {
   contact: string;
   waypoints: WaypointRow[];
 }
+/** One step of a sequence; only the fields of its kind are used. */
+export interface StepRow {
+  key: string;
+  kind: "move" | "path" | "wait";
+  /** move: the target's name and the dwell (s, empty = none). */
+  target: string;
+  dwell: string;
+  /** path: the path's name. */
+  path: string;
+  /** wait: seconds. */
+  seconds: string;
+}
+/** How a sequence's requirement is entered: none, a cycle time (s) or a rate (parts per hour, saved as 3600 / rate s). */
+export type RequiredMode = "none" | "time" | "rate";
+export interface SequenceForm {
+  key: string;
+  name: string;
+  steps: StepRow[];
+  requiredMode: RequiredMode;
+  /** Required cycle time (s) and required rate (parts per hour) as typed; the mode says which one is saved. */
+  required: string;
+  rate: string;
+}
 export interface SpecRow {
   key: string;
   field: SpecField;
@@ -85,6 +109,8 @@ export interface ReqForm {
   clearance: string;
   targets: TargetRow[];
   paths: PathForm[];
+  /** Task sequences for the cycle time. */
+  sequences: SequenceForm[];
   specs: SpecRow[];
   weights: Record<WeightKey, string>;
   /** Parts the form does not edit, carried through unchanged. */
@@ -125,6 +151,37 @@ export function newPath(n: number): PathForm {
   const a = newWaypoint();
   return { key: rowKey(), name: `Path ${n}`, mode: "axis", step: "5", speed: "100", contact: "", waypoints: [a, { ...newWaypoint(a), y: "200" }] };
 }
+export function newStep(kind: StepRow["kind"], form: Pick<ReqForm, "targets" | "paths">): StepRow {
+  return { key: rowKey(), kind, target: form.targets[0]?.name.trim() ?? "", dwell: "", path: form.paths[0]?.name.trim() ?? "", seconds: kind === "wait" ? "1" : "" };
+}
+export function newSequence(n: number, form: Pick<ReqForm, "targets" | "paths">): SequenceForm {
+  return { key: rowKey(), name: `Sequence ${n}`, steps: [newStep("move", form)], requiredMode: "none", required: "", rate: "" };
+}
+
+/** Parts per hour for a cycle of t s and the other way round: 3600 / x (null unless x > 0). */
+export function perHour(x: number): number | null {
+  return Number.isFinite(x) && x > 0 ? 3600 / x : null;
+}
+
+/**
+ * The sequence's requirement switched to another way of entering it: the other field is filled
+ * from the current one (3600 / value), so a typed time shows as its rate and back.
+ */
+export function switchRequiredMode(seq: SequenceForm, mode: RequiredMode): SequenceForm {
+  const next = { ...seq, requiredMode: mode };
+  const from = seq.requiredMode === "time" ? seq.required : seq.requiredMode === "rate" ? seq.rate : "";
+  const v = parseNum(from);
+  const other = typeof v === "number" ? perHour(v) : null;
+  if (other !== null && seq.requiredMode === "time" && mode === "rate") next.rate = show(roundShown(other));
+  if (other !== null && seq.requiredMode === "rate" && mode === "time") next.required = show(roundShown(other));
+  return next;
+}
+
+/** A converted value rounded to 6 significant digits so 3600 / 7 does not fill the field. */
+function roundShown(v: number): number {
+  return Number(v.toPrecision(6));
+}
+
 export function newSpec(): SpecRow {
   return { key: rowKey(), field: "ratedPayload", comparator: "atLeast", value: "", priority: "must", note: "" };
 }
@@ -147,6 +204,7 @@ export function emptyReqForm(): ReqForm {
     clearance: show(DEFAULT_CLEARANCE * 1000),
     targets: [],
     paths: [],
+    sequences: [],
     specs: [],
     weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, String(DEFAULT_WEIGHTS[k])])) as Record<WeightKey, string>,
     keep: {},
@@ -207,6 +265,26 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
       }),
     };
   });
+  const sequences = (doc.sequences ?? []).map((q): SequenceForm => {
+    const key = rowKey();
+    return {
+      key,
+      name: q.name,
+      steps: q.steps.map((st): StepRow => {
+        const k = rowKey();
+        const row: StepRow = { key: k, kind: st.kind, target: "", dwell: "", path: "", seconds: "" };
+        if (st.kind === "move") {
+          row.target = st.target;
+          row.dwell = t(`${k}.dwell`, st.dwell, "same");
+        } else if (st.kind === "path") row.path = st.path;
+        else row.seconds = t(`${k}.seconds`, st.seconds, "same");
+        return row;
+      }),
+      requiredMode: q.required === undefined ? "none" : "time",
+      required: t(`${key}.required`, q.required, "same"),
+      rate: q.required === undefined ? "" : show(roundShown(3600 / q.required)),
+    };
+  });
   const specs = doc.specs.map((s): SpecRow => {
     const key = rowKey();
     const kind = SPEC_FIELDS[s.field].kind;
@@ -233,6 +311,7 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
     clearance: t("clearance", doc.cell?.clearance ?? DEFAULT_CLEARANCE, "mm"),
     targets,
     paths,
+    sequences,
     specs,
     weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, t(`w.${k}`, w[k], "same")])) as Record<WeightKey, string>,
     keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia },
@@ -311,6 +390,32 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     };
   });
 
+  const sequences = form.sequences.map((q, i) => {
+    const w = `sequence ${i + 1}${q.name.trim() ? ` (${q.name.trim()})` : ""}`;
+    const steps = q.steps.map((st, k): Sequence["steps"][number] => {
+      const ws = `${w} step ${k + 1}`;
+      if (st.kind === "move") {
+        const dwell = num(`${st.key}.dwell`, st.dwell, "same", `sequences.${i}.steps.${k}.dwell`, `${ws} dwell`, false);
+        return { kind: "move", target: st.target, ...(dwell !== undefined ? { dwell } : {}) };
+      }
+      if (st.kind === "path") return { kind: "path", path: st.path };
+      return { kind: "wait", seconds: num(`${st.key}.seconds`, st.seconds, "same", `sequences.${i}.steps.${k}.seconds`, `${ws} wait`) ?? 0 };
+    });
+    const out: Sequence = { name: q.name, steps };
+    const reqPath = `sequences.${i}.required`;
+    if (q.requiredMode === "time") {
+      const r = num(`${q.key}.required`, q.required, "same", reqPath, `${w} required cycle time`);
+      if (r !== undefined) out.required = r;
+    } else if (q.requiredMode === "rate") {
+      const rate = num("", q.rate, "same", reqPath, `${w} required rate`);
+      if (rate !== undefined) {
+        if (rate > 0 && Number.isFinite(rate)) out.required = 3600 / rate;
+        else errors.push({ path: reqPath, message: `${w} required rate ${show(rate)} parts per hour must be > 0` });
+      }
+    }
+    return out;
+  });
+
   const specs = form.specs.map((s, i) => {
     const kind = SPEC_FIELDS[s.field].kind;
     const w = `spec requirement ${i + 1} (${SPEC_FIELDS[s.field].label})`;
@@ -354,6 +459,7 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     cell,
     weights,
   };
+  if (sequences.length) doc.sequences = sequences;
   if (form.description.trim()) doc.description = form.description;
   return { doc, errors };
 }
@@ -387,6 +493,13 @@ export function reqPathLabel(path: string): string {
       const n = `path ${Number(p[1]) + 1}`;
       if (p[2] === "waypoints" && p[3] !== undefined) return `${n} waypoint ${Number(p[3]) + 1}${p[4] ? " " + p[4] : ""}`;
       return p[2] ? `${n} ${p[2] === "step" ? "sample step" : p[2] === "speed" ? "tool speed" : p[2]}` : n;
+    }
+    case "sequences": {
+      if (p.length < 2) return "sequences";
+      const n = `sequence ${Number(p[1]) + 1}`;
+      if (p[2] === "steps" && p[3] !== undefined) return `${n} step ${Number(p[3]) + 1}${p[4] ? " " + (p[4] === "seconds" ? "wait" : p[4]) : ""}`;
+      if (p[2] === "required") return `${n} required cycle time`;
+      return p[2] ? `${n} ${p[2]}` : n;
     }
     case "specs":
       return p.length > 1 ? `spec requirement ${Number(p[1]) + 1}${p[2] ? " " + p[2] : ""}` : "spec requirements";
@@ -433,6 +546,7 @@ export function formatReqValue(path: string, value: unknown): string {
     if (parent === "position" || parent === "cog" || last === "positionTolerance" || last === "step") return `${show(mToMm(value))} mm`;
     if (last === "clearance" || last === "radius" || last === "length" || parent === "size" || parent === "center" || parent === "from" || parent === "to") return `${show(mToMm(value))} mm`;
     if (last === "speed") return `${show(mToMm(value))} mm/s`;
+    if (p[0] === "sequences" && (last === "required" || last === "dwell" || last === "seconds")) return `${show(value)} s`;
     if (parent === "force") return `${show(value)} N`;
     if (parent === "moment") return `${show(value)} N·m`;
     if (last === "mass") return `${show(value)} kg`;

@@ -8,6 +8,7 @@ import { VerdictTag } from "./verdict";
 import { matrixColumns, matrixRows, pathProfile, workspaceData } from "./view";
 import { armClearance } from "@/lib/analysis/clearance";
 import { CellCaution } from "../CellCaution";
+import { CycleCompliance } from "./CycleCompliance";
 
 const mmText = (m: number | null | undefined, d = 1) => (m === null || m === undefined ? "–" : fixed(m * 1000, d));
 
@@ -263,6 +264,7 @@ function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
           </table>
         </div>
       )}
+      <CycleCompliance analysis={analysis} />
       {specs.length === 0 || !first ? (
         <p className="sub">The requirement set has no spec requirements.</p>
       ) : (
