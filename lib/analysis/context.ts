@@ -9,9 +9,9 @@
  */
 import { kinematicsOf, type ArmDocument, type ArmKinematics } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
-import { computeJacobian, createData, createModel, createRng, randomConfiguration, type ArmData, type ArmModel } from "@/lib/kinematics";
+import { computeJacobian, createData, createModel, createRng, randomConfiguration, transformPointRigid, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
-import { IDENTITY_4, invertRigid, mul4, transformPoint } from "./geometry";
+import { IDENTITY_4, invertRigid, mul4 } from "./geometry";
 import type { PointLoad } from "./statics";
 import { createCellCheck, createCellData, createCellModel, type CellCheck, type CellData, type CellModel } from "./cell";
 
@@ -60,7 +60,7 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   const data = createData(model);
   const jac = new Float64Array(6 * model.n);
   const tcpInverse = invertRigid(tcp);
-  const toolCogInTcp = transformPoint(tcpInverse, req.tool.cog);
+  const toolCogInTcp = transformPointRigid(tcpInverse, req.tool.cog);
   const loads: PointLoad[] = [];
   if (req.tool.mass > 0) loads.push({ mass: req.tool.mass, pointInTool: toolCogInTcp });
   if (req.payload.mass > 0) loads.push({ mass: req.payload.mass, pointInTool: req.payload.cog });
@@ -82,5 +82,20 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
     model, data, jac, ranks: structuralRanksFromJacobians(jacs, model.n, toolPoses), toolCogInTcp, loads,
     loadMass: req.tool.mass + req.payload.mass, toolMass: req.tool.mass, payloadMass: req.payload.mass, tcp, tcpInverse, hasTorqueLimits, hasSpeedLimits,
     cell, cellData: createCellData(cell, req.base), check: createCellCheck(),
+  };
+}
+
+/**
+ * The same arm and cell at another base pose T_C_B (`base`, row-major 4×4), for the placement
+ * search: a new model, its buffers and the cell's buffers at that base; the cell model, the
+ * structural ranks and the loads are shared with `ctx` (none of them depends on where the base
+ * stands: the cell's shapes are in the links' frames, its obstacles in the cell frame, the ranks
+ * are rotation-invariant).
+ */
+export function placedContext(ctx: ArmContext, arm: ArmDocument, req: Pick<RequirementSet, "tool">, base: ArrayLike<number>): ArmContext {
+  const model = createModel(placedArmKinematics(kinematicsOf(arm), { base: Array.from(base), tool: req.tool }));
+  return {
+    ...ctx, model, data: createData(model), jac: new Float64Array(6 * model.n),
+    cellData: createCellData(ctx.cell, base), check: createCellCheck(),
   };
 }
