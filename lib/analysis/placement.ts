@@ -145,8 +145,8 @@ function tightened(t: Target): Target {
   return { ...t, positionTolerance: Math.min(t.positionTolerance, PLACE_POSITION_TOLERANCE), rotationTolerance: Math.min(t.rotationTolerance, PLACE_ROTATION_TOLERANCE) };
 }
 
-/** The i-th point (i ≥ 1) of the radical-inverse sequence in base b (van der Corput). */
-function radicalInverse(i: number, b: number): number {
+/** The i-th point (i ≥ 1) of the radical-inverse sequence in base b (van der Corput; docs/references.md#halton-sequence). */
+export function radicalInverse(i: number, b: number): number {
   let f = 1, r = 0;
   while (i > 0) {
     f /= b;
@@ -492,4 +492,35 @@ function meaningful(a: PlacementGoal, b: PlacementGoal): boolean {
   if (a.must !== b.must || a.reached !== b.reached || a.followed !== b.followed) return true;
   if (a.worstMargin !== b.worstMargin) return a.worstMargin - b.worstMargin > 1e-9 || !Number.isFinite(a.worstMargin - b.worstMargin);
   return a.minClearance - b.minClearance > 1e-9 || !Number.isFinite(a.minClearance - b.minClearance);
+}
+
+/** One arm's placement in a shortlist: the search's result, or why it was not searched. */
+export interface ArmPlacement {
+  id: string;
+  result: PlacementResult | null;
+  /** Why there is no result (a mounting the datasheet does not allow, an invalid model). */
+  skipped: string | null;
+}
+
+/**
+ * The placement of every arm (same order), each searched alone: an arm's result does not depend
+ * on the other arms or its place in the list. An arm whose datasheet lists mountings without the
+ * orientation's class is not searched, and says so.
+ */
+export function placeShortlist(arms: readonly { id: string; arm: ArmDocument }[], req: RequirementSet, opts: SearchOptions & { onArm?(index: number): void } = {}): ArmPlacement[] {
+  const m = req.mounting;
+  if (!m) throw new RangeError("mounting: the requirement set has no mounting region");
+  const cls = mountingClass(m.orientation);
+  return arms.map(({ id, arm }, i) => {
+    opts.onArm?.(i);
+    if (mountingAllowed(arm.specs?.mounting, cls) === false) {
+      return { id, result: null, skipped: `a ${cls} mount is not among the datasheet's mountings (${arm.specs!.mounting!.join(", ")})` };
+    }
+    try {
+      return { id, result: searchPlacement(arm, req, opts), skipped: null };
+    } catch (e) {
+      if (e instanceof RangeError) return { id, result: null, skipped: `the arm model is invalid: ${e.message}` };
+      throw e;
+    }
+  });
 }
