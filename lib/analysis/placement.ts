@@ -125,15 +125,16 @@ export interface PlacementBudget {
   refineEvaluations: number;
   /** First compass step, as a fraction of each coordinate's range. */
   initialStep: number;
-  /** Random restarts per target after the warm starts fail. */
+  /** Random restarts per target after the warm starts fail: in the coarse stage, and in the compass search (whose steps are short, so the warm starts from its neighbours usually decide). */
   restarts: number;
+  fineRestarts: number;
   /** Warm starts tried per target (from the nearest placements that reached it). */
   warmStarts: number;
   /** IK iterations per attempt. */
   maxIterations: number;
 }
 export const DEFAULT_PLACEMENT_BUDGET: PlacementBudget = {
-  coarsePerDimension: 12, refineStarts: 3, refineEvaluations: 40, initialStep: 0.125, restarts: 3, warmStarts: 2, maxIterations: 60,
+  coarsePerDimension: 12, refineStarts: 2, refineEvaluations: 40, initialStep: 0.125, restarts: 3, fineRestarts: 1, warmStarts: 2, maxIterations: 60,
 };
 
 /** The smallest compass steps: 1 mm and 0.1°. */
@@ -145,8 +146,8 @@ function tightened(t: Target): Target {
   return { ...t, positionTolerance: Math.min(t.positionTolerance, PLACE_POSITION_TOLERANCE), rotationTolerance: Math.min(t.rotationTolerance, PLACE_ROTATION_TOLERANCE) };
 }
 
-/** The i-th point (i ≥ 1) of the radical-inverse sequence in base b (van der Corput). */
-function radicalInverse(i: number, b: number): number {
+/** The i-th point (i ≥ 1) of the radical-inverse sequence in base b (van der Corput; docs/references.md#halton-sequence). */
+export function radicalInverse(i: number, b: number): number {
   let f = 1, r = 0;
   while (i > 0) {
     f /= b;
@@ -206,6 +207,8 @@ interface Searcher {
   mustCount: number;
   evaluated: number;
   pruned: number;
+  /** In the compass search (fewer restarts). */
+  fine: boolean;
 }
 
 /** The nearest stored answers for target k from placement u (up to `count`). */
@@ -221,7 +224,7 @@ function nearestWarm(store: WarmStore, u: readonly number[], count: number): Flo
 }
 
 /** One target at a placed context: warm starts, then seeded restarts; the first collision-free answer. */
-function solveTarget(s: Searcher, pc: ArmContext, k: number, warm: Float64Array[], seed: number): PlacedTarget & { qf: Float64Array | null } {
+function solveTarget(s: Searcher, pc: ArmContext, k: number, warm: Float64Array[], seed: number, restarts: number): PlacedTarget & { qf: Float64Array | null } {
   const t = s.targets[k], pose = s.poses[k], { model, data } = pc;
   const opts = { mode: t.mode, positionTolerance: t.positionTolerance, rotationTolerance: t.rotationTolerance, maxIterations: s.budget.maxIterations };
   const exempt = pc.cell.active ? contactMask(pc.cell, t.contact) : null;
@@ -246,7 +249,7 @@ function solveTarget(s: Searcher, pc: ArmContext, k: number, warm: Float64Array[
     const a = accept(r.q);
     if (a) return done(r.q, a.clearance);
   }
-  const rs = solveIkMulti(model, data, pose, { ...opts, maxRestarts: s.budget.restarts, maxSolutions: 3, seed });
+  const rs = solveIkMulti(model, data, pose, { ...opts, maxRestarts: restarts, maxSolutions: 3, seed });
   for (const r of rs) {
     if (r.positionError < bestErr) { bestErr = r.positionError; bestQ = r.q; }
     if (r.status !== "reached") continue;
@@ -272,17 +275,17 @@ function evaluateForSearch(s: Searcher, space: SearchSpace, u: readonly number[]
   const pc = placedContext(s.ctx, s.arm, s.req, base);
   const n = s.targets.length, nP = s.req.paths.length;
   // must targets first, then those the best placement misses, then the rest (file order within each)
-  const missedByBest = new Set(ref ? ref.targets.filter((t) => !t.reached).map((t) => t.name) : []);
+  const missedByRef = new Set(ref ? ref.targets.filter((t) => !t.reached).map((t) => t.name) : []);
   const order = [...s.targets.keys()].sort((a, b) => {
-    const ra = s.targets[a].priority === "must" ? 0 : missedByBest.has(s.targets[a].name) ? 1 : 2;
-    const rb = s.targets[b].priority === "must" ? 0 : missedByBest.has(s.targets[b].name) ? 1 : 2;
+    const ra = s.targets[a].priority === "must" ? 0 : missedByRef.has(s.targets[a].name) ? 1 : 2;
+    const rb = s.targets[b].priority === "must" ? 0 : missedByRef.has(s.targets[b].name) ? 1 : 2;
     return ra - rb || a - b;
   });
   const out: PlacedTarget[] = new Array(n);
   let mustMissed = 0, missed = 0, margin = Infinity, clearance = Infinity;
   for (const k of order) {
     const seed = (contentSeed(s.seedText, "place", s.targets[k].name) + Math.imul(index, 0x9e3779b1)) >>> 0 || 1;
-    const r = solveTarget(s, pc, k, nearestWarm(s.warm[k], u, s.budget.warmStarts), seed);
+    const r = solveTarget(s, pc, k, nearestWarm(s.warm[k], u, s.budget.warmStarts), seed, s.fine ? s.budget.fineRestarts : s.budget.restarts);
     if (r.qf) { s.warm[k].u.push([...u]); s.warm[k].q.push(r.qf); }
     out[k] = { name: r.name, reached: r.reached, q: r.q, margin: r.margin, clearance: r.clearance };
     if (!r.reached) { missed++; if (s.targets[k].priority === "must") mustMissed++; }
@@ -292,11 +295,14 @@ function evaluateForSearch(s: Searcher, space: SearchSpace, u: readonly number[]
     }
     if (ref && compareGoals(bound(s.mustCount - mustMissed, n - missed, nP, margin, clearance), ref.goal) < 0) { s.pruned++; return null; }
   }
-  const paths: PlacedPath[] = [];
+  // the paths the competing placement does not follow first: if they fail here too, it cannot be beaten on paths
+  const refFails = new Set(ref ? ref.paths.filter((p) => !p.followed).map((p) => p.name) : []);
+  const pathOrder = [...s.req.paths.keys()].sort((a, b) => (refFails.has(s.req.paths[a].name) ? 0 : 1) - (refFails.has(s.req.paths[b].name) ? 0 : 1) || a - b);
+  const paths: PlacedPath[] = new Array(nP);
   let pathMissed = 0;
-  for (const p of s.req.paths) {
-    const r = placedPath(pc, p, s.seedText);
-    paths.push(r);
+  for (const i of pathOrder) {
+    const r = placedPath(pc, s.req.paths[i], s.seedText);
+    paths[i] = r;
     if (!r.followed) pathMissed++;
     else {
       if (r.margin !== null) margin = Math.min(margin, r.margin);
@@ -404,7 +410,7 @@ export function searchPlacement(arm: ArmDocument, req: RequirementSet, opts: Sea
     poses: targets.map((t) => poseFromRpy(t.position, t.rpy)),
     warm: targets.map(() => ({ u: [], q: [] })),
     mustCount: targets.filter((t) => t.priority === "must").length,
-    evaluated: 0, pruned: 0,
+    evaluated: 0, pruned: 0, fine: false,
   };
   const d = space.free.length;
   let best: PlacementEvaluation | null = null;
@@ -436,6 +442,7 @@ export function searchPlacement(arm: ArmDocument, req: RequirementSet, opts: Sea
 
   // ---- fine: compass search from the best few coarse placements (kept ones; the pruned lost to an earlier best)
   if (d > 0) {
+    s.fine = true;
     const starts = coarse
       .map((c, i) => ({ ...c, i }))
       .sort((a, b) => compareGoals(b.r.goal, a.r.goal) || a.i - b.i)
@@ -492,4 +499,35 @@ function meaningful(a: PlacementGoal, b: PlacementGoal): boolean {
   if (a.must !== b.must || a.reached !== b.reached || a.followed !== b.followed) return true;
   if (a.worstMargin !== b.worstMargin) return a.worstMargin - b.worstMargin > 1e-9 || !Number.isFinite(a.worstMargin - b.worstMargin);
   return a.minClearance - b.minClearance > 1e-9 || !Number.isFinite(a.minClearance - b.minClearance);
+}
+
+/** One arm's placement in a shortlist: the search's result, or why it was not searched. */
+export interface ArmPlacement {
+  id: string;
+  result: PlacementResult | null;
+  /** Why there is no result (a mounting the datasheet does not allow, an invalid model). */
+  skipped: string | null;
+}
+
+/**
+ * The placement of every arm (same order), each searched alone: an arm's result does not depend
+ * on the other arms or its place in the list. An arm whose datasheet lists mountings without the
+ * orientation's class is not searched, and says so.
+ */
+export function placeShortlist(arms: readonly { id: string; arm: ArmDocument }[], req: RequirementSet, opts: SearchOptions & { onArm?(index: number): void } = {}): ArmPlacement[] {
+  const m = req.mounting;
+  if (!m) throw new RangeError("mounting: the requirement set has no mounting region");
+  const cls = mountingClass(m.orientation);
+  return arms.map(({ id, arm }, i) => {
+    opts.onArm?.(i);
+    if (mountingAllowed(arm.specs?.mounting, cls) === false) {
+      return { id, result: null, skipped: `a ${cls} mount is not among the datasheet's mountings (${arm.specs!.mounting!.join(", ")})` };
+    }
+    try {
+      return { id, result: searchPlacement(arm, req, opts), skipped: null };
+    } catch (e) {
+      if (e instanceof RangeError) return { id, result: null, skipped: `the arm model is invalid: ${e.message}` };
+      throw e;
+    }
+  });
 }
