@@ -218,6 +218,29 @@ describe("shortlist page", () => {
     expect(text).not.toContain("Skip to content");
   });
 
+  it("sends the arm sections beyond the first three collapsed and loads one on demand from the run's view endpoint", async () => {
+    const p = t.page;
+    await p.goto(shortlistUrl);
+    const sections = p.getByTestId("arm-section");
+    await sections.first().waitFor();
+    expect(await sections.count()).toBe(9);
+    const collapsed = p.locator('[data-testid="arm-section"][data-collapsed="true"]');
+    expect(await collapsed.count()).toBe(6);
+    // the page's HTML has the heading and summary of a collapsed arm, not its tables
+    const fourth = sections.nth(3);
+    expect(await fourth.getByRole("heading", { level: 4 }).count()).toBe(0);
+    const asked = p.waitForRequest((r) => /\/api\/shortlists\/[^/]+\/runs\/[^/]+\/view\?arm=/.test(r.url()));
+    await fourth.getByTestId("arm-section-load").click();
+    await asked;
+    await sections.nth(3).getByRole("heading", { name: "Payload", level: 4 }).waitFor();
+    await sections.nth(3).getByTestId("solution-view3d").waitFor();
+    expect(await collapsed.count()).toBe(5);
+    await p.getByTestId("arm-sections-load-all").click();
+    await expect.poll(() => collapsed.count()).toBe(0);
+    expect(await p.getByRole("heading", { name: "Payload", level: 4 }).count()).toBe(9);
+    expect(t.errors()).toEqual([]);
+  });
+
   it("says when an arm has a newer revision; re-pinning gives a new result and keeps the old one readable", async () => {
     const p = t.page;
     const exported = (await p.evaluate(async (u) => (await fetch(`/api/shortlists/${u.split("/")[2]}/export?format=json`)).json(), shortlistUrl)) as ExportJson;
