@@ -31,6 +31,7 @@ export const SUB_SCORE_ROWS = [
   { key: "force", label: "Force margin", colour: "#c2a36b", defaultWeight: 1, measures: "1 − 1 / (force capability ÷ required force) at the worst target" },
   { key: "pathSpeed", label: "Path speed", colour: "#4f7a5a", defaultWeight: 1, measures: "achievable fraction of the required tool speed on the worst path" },
   { key: "clearance", label: "Clearance", colour: "#7d6a8f", defaultWeight: 1, measures: "smallest clearance over the reached targets and followed paths ÷ twice the required clearance (at least 20 mm)" },
+  { key: "cycleTime", label: "Cycle time", colour: "#a8705f", defaultWeight: 1, measures: "1 − cycle time ÷ twice the required time, on the worst sequence with a required time (½ at the required time)" },
   { key: "price", label: "Price", colour: "#9aa5b1", defaultWeight: 1, measures: "cheapest candidate's price / this arm's price (same currency)" },
 ] as const satisfies readonly SubScoreRow[];
 

@@ -9,6 +9,7 @@ import { matrixColumns, matrixRows, pathProfile, workspaceData } from "./view";
 import { armClearance } from "@/lib/analysis/clearance";
 import { CellCaution } from "../CellCaution";
 import { ArmCycles, CycleSection } from "./CycleView";
+import { CycleCompliance } from "./CycleCompliance";
 
 const mmText = (m: number | null | undefined, d = 1) => (m === null || m === undefined ? "–" : fixed(m * 1000, d));
 
@@ -265,6 +266,7 @@ function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
           </table>
         </div>
       )}
+      <CycleCompliance analysis={analysis} />
       {specs.length === 0 || !first ? (
         <p className="sub">The requirement set has no spec requirements.</p>
       ) : (

@@ -9,11 +9,11 @@
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { placedArmKinematics } from "@/lib/analysis/context";
 import { linkGeometry } from "@/lib/geometry/arm";
-import { invertRigid, mul4, poseFromRpy, transformPoint } from "@/lib/analysis/geometry";
-import type { ArmAnalysis } from "@/lib/analysis/shortlist";
+import { invertRigid, mul4, poseFromRpy } from "@/lib/analysis/geometry";
+import { transformPointRigid } from "@/lib/kinematics";
+import type { RunArmView } from "@/lib/analysis/shortlist";
 import type { TargetAnalysis } from "@/lib/analysis/targets";
-import { kinematicsOf, type ArmDocument } from "@/shared/schemas/arm";
-import type { RequirementSet } from "@/shared/schemas/requirements";
+import { kinematicsOf } from "@/shared/schemas/arm";
 import { api } from "../api";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
 import { bodyShapes, cellObstacles } from "./cell";
@@ -28,16 +28,6 @@ export interface SolutionViewProps {
   runId: string;
   armId: string;
   armName: string;
-}
-
-/** GET /api/shortlists/{id}/runs/{runId}/view?arm=ID: one arm of a finished run with the documents it was pinned to. */
-interface RunArmView {
-  runId: string;
-  armId: string;
-  revision: number;
-  arm: ArmDocument;
-  requirementSet: RequirementSet;
-  analysis: ArmAnalysis;
 }
 
 /** The clearance check at a target (`cell` of its result; null when the cell checks nothing for the arm). */
@@ -181,7 +171,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
       const fe = t.forceEllipsoid;
       const sc = forceScale(fe.radii, required, span * 0.3);
       force = {
-        point: transformPoint(arm.tool, req.payload.cog),
+        point: transformPointRigid(arm.tool, req.payload.cog),
         axes: fe.directions.map((d, i) => ({ dir: d as Vec3, radius: fe.radii[i] })),
         weighted: fe.weighted,
         force: required ? (required.slice() as Vec3) : null,

@@ -9,9 +9,9 @@
  */
 import { kinematicsOf, type ArmDocument, type ArmKinematics } from "@/shared/schemas/arm";
 import type { RequirementSet } from "@/shared/schemas/requirements";
-import { computeJacobian, createData, createModel, createRng, randomConfiguration, type ArmData, type ArmModel } from "@/lib/kinematics";
+import { computeJacobian, createData, createModel, createRng, randomConfiguration, transformPointRigid, type ArmData, type ArmModel } from "@/lib/kinematics";
 import { structuralRanksFromJacobians, type StructuralRanks } from "./dexterity";
-import { IDENTITY_4, invertRigid, mul4, transformPoint } from "./geometry";
+import { IDENTITY_4, invertRigid, mul4 } from "./geometry";
 import type { PointLoad } from "./statics";
 import { createCellCheck, createCellData, createCellModel, type CellCheck, type CellData, type CellModel } from "./cell";
 
@@ -60,7 +60,7 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
   const data = createData(model);
   const jac = new Float64Array(6 * model.n);
   const tcpInverse = invertRigid(tcp);
-  const toolCogInTcp = transformPoint(tcpInverse, req.tool.cog);
+  const toolCogInTcp = transformPointRigid(tcpInverse, req.tool.cog);
   const loads: PointLoad[] = [];
   if (req.tool.mass > 0) loads.push({ mass: req.tool.mass, pointInTool: toolCogInTcp });
   if (req.payload.mass > 0) loads.push({ mass: req.payload.mass, pointInTool: req.payload.cog });

@@ -2,39 +2,17 @@
  * Row-major 4×4 rigid transforms, roll-pitch-yaw and quaternions for the analysis (allocating,
  * not a hot path). Conventions as in the requirement sets: R = Rz(yaw)·Ry(pitch)·Rx(roll).
  */
+import { mat4InvertRigid, mat4MulRigid } from "@/lib/kinematics";
 import { writeRpyPose } from "@/shared/pose";
 
-/** a·b for row-major 4×4 matrices (new array). */
+/** a·b for row-major rigid 4×4 transforms (new array). */
 export function mul4(a: ArrayLike<number>, b: ArrayLike<number>): Float64Array {
-  const out = new Float64Array(16);
-  for (let r = 0; r < 4; r++) {
-    for (let c = 0; c < 4; c++) {
-      let s = 0;
-      for (let k = 0; k < 4; k++) s += a[r * 4 + k] * b[k * 4 + c];
-      out[r * 4 + c] = s;
-    }
-  }
-  return out;
+  return mat4MulRigid(new Float64Array(16), a, b);
 }
 
 /** Inverse of a rigid transform [R p; 0 1] → [Rᵀ −Rᵀp; 0 1] (new array). */
 export function invertRigid(t: ArrayLike<number>): Float64Array {
-  const out = new Float64Array(16);
-  for (let r = 0; r < 3; r++) {
-    for (let c = 0; c < 3; c++) out[r * 4 + c] = t[c * 4 + r];
-    out[r * 4 + 3] = -(t[r] * t[3] + t[4 + r] * t[7] + t[8 + r] * t[11]);
-  }
-  out[15] = 1;
-  return out;
-}
-
-/** T·p for a point p (new 3-vector). */
-export function transformPoint(t: ArrayLike<number>, p: ArrayLike<number>): [number, number, number] {
-  return [
-    t[0] * p[0] + t[1] * p[1] + t[2] * p[2] + t[3],
-    t[4] * p[0] + t[5] * p[1] + t[6] * p[2] + t[7],
-    t[8] * p[0] + t[9] * p[1] + t[10] * p[2] + t[11],
-  ];
+  return mat4InvertRigid(new Float64Array(16), t);
 }
 
 /** Rotation block of a 4×4 as a row-major 3×3. */

@@ -20,11 +20,11 @@ import type { Verdict } from "./types";
 import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.7.0";
+export const ANALYSIS_VERSION = "analysis-1.8.0";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
-  "Armsift is a kinematic and static screening aid. It is not a substitute for the maker's data, a risk assessment (ISO 12100, ISO 10218-2), the collaborative-operation limits of ISO/TS 15066, or local codes and licensed engineering practice. Collisions are checked only between the rigid capsules and primitives entered (links, base, tool, payload, obstacles): no cable packs, dress packs or people unless modelled, and the check is not a safety function. Dynamics, deflection and cycle time are not analysed.";
+  "Armsift is a kinematic and static screening aid. It is not a substitute for the maker's data, a risk assessment (ISO 12100, ISO 10218-2), the collaborative-operation limits of ISO/TS 15066, or local codes and licensed engineering practice. Collisions are checked only between the rigid capsules and primitives entered (links, base, tool, payload, obstacles): no cable packs, dress packs or people unless modelled, and the check is not a safety function. Dynamics and deflection are not analysed; cycle times are estimates from the joint speed and acceleration limits for comparing arms (no blending, payload effect or controller limits), not a promise: the maker's data and a trial in the cell decide.";
 
 /** One arm of the shortlist: a pinned revision of an arm document. */
 export interface ShortlistArm {
@@ -91,6 +91,16 @@ export interface ArmAnalysis {
   counts: { targets: VerdictCounts; paths: VerdictCounts; specs: VerdictCounts };
   /** One-line summary. */
   summary: string;
+}
+
+/** One arm of a finished run with the arm and requirement-set revisions it was computed from (what the 3-D view draws). */
+export interface RunArmView {
+  runId: string;
+  armId: string;
+  revision: number;
+  arm: ArmDocument;
+  requirementSet: RequirementSet;
+  analysis: ArmAnalysis;
 }
 
 /** What the cell checks for one arm. */
@@ -234,7 +244,8 @@ function finishArm(
   specs.forEach((s) => counts.specs[s.verdict]++);
   const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map((s) => requirementText(s));
   const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map((s) => requirementText(s));
-  const sub = subScores(arm, error ? null : ctx, targets, paths, req, candidates);
+  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req);
+  const sub = subScores(arm, error ? null : ctx, targets, paths, cycles, req, candidates);
   const reached = targets.filter((t) => t.reached).length;
   const summary = error
     ? `not analysed: ${error}`
@@ -243,7 +254,6 @@ function finishArm(
   const cell: ArmCell | null = ctx && !error
     ? { checkedPairs: ctx.cell.pairs.length, skipped: [...ctx.cell.skipped], unmodelled: [...ctx.cell.unmodelled], linkSources: ctx.cell.links.map((l) => l.source) }
     : null;
-  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req);
   return { ...ident, error, ranks: ctx?.ranks ?? null, targets, paths, specs, cycles, workspace, cell, subScores: sub, failedMusts, unknownMusts, counts, summary };
 }
 
@@ -251,12 +261,12 @@ function finishArm(
  * The sub-scores in [0, 1], one per row of the sub-score table, each computed by its rule in
  * ./sub-scores (definitions in docs/design.md#ranking).
  */
-function subScores(arm: ArmDocument, ctx: ArmContext | null, targets: TargetAnalysis[], paths: PathAnalysis[], req: RequirementSet, candidates: readonly ArmDocument[]): Record<SubScoreKey, SubScore> {
+function subScores(arm: ArmDocument, ctx: ArmContext | null, targets: TargetAnalysis[], paths: PathAnalysis[], cycles: CycleResult[], req: RequirementSet, candidates: readonly ArmDocument[]): Record<SubScoreKey, SubScore> {
   const out = {} as Record<SubScoreKey, SubScore>;
   for (const k of SUB_SCORES.keys) {
     const rule = SUB_SCORE_RULES[k];
     if (!rule) throw new Error(`sub-score ${k} has no rule in lib/analysis/sub-scores.ts`);
-    out[k] = ctx ? rule.score({ arm, ctx, targets, paths, req, candidates }) : rule.unanalysed ? rule.unanalysed(arm, candidates) : zeroScore("arm not analysed");
+    out[k] = ctx ? rule.score({ arm, ctx, targets, paths, cycles, req, candidates }) : rule.unanalysed ? rule.unanalysed(arm, candidates) : zeroScore("arm not analysed");
   }
   return out;
 }

@@ -10,6 +10,7 @@ import type { ArmContext } from "./context";
 import type { PathAnalysis } from "./paths";
 import type { SubScore } from "./ranking";
 import type { TargetAnalysis } from "./targets";
+import type { CycleResult } from "./cycle";
 import { fixed } from "@/shared/format";
 
 /** What a rule sees of an analysed arm. */
@@ -19,6 +20,8 @@ interface AnalysedArm {
   /** Same order as the requirement set's targets and paths. */
   targets: readonly TargetAnalysis[];
   paths: readonly PathAnalysis[];
+  /** The cycle of each requirement-set sequence, same order (empty without sequences). */
+  cycles: readonly CycleResult[];
   req: RequirementSet;
   /** Every arm document of the shortlist, for relative scores (price); never their order. */
   candidates: readonly ArmDocument[];
@@ -152,6 +155,37 @@ const clearance: SubScoreRule = {
   },
 };
 
+/** The cycle time that scores 0, as a multiple of the required time. */
+const CYCLE_SCORE_ZERO = 2;
+
+/**
+ * cycleTime: min over the sequences with a required time R of 1 − t/(2R) clipped to [0, 1], t the
+ * arm's cycle time: 1 for an instant cycle, ½ at the required time, 0 at twice it or slower; a
+ * cycle that cannot be estimated (a target not reached, a path not followed, every branch
+ * combination blocked, a speed limit missing) scores 0. Sequences without a required time give
+ * the time no scale and are left out; not applicable without sequences or without any required
+ * time. An estimate (an assumed acceleration) scores like a figure and says so in the note.
+ */
+const cycleTime: SubScoreRule = {
+  score({ cycles }) {
+    if (cycles.length === 0) return notApplicable("no sequences");
+    const timed = cycles.filter((c): c is CycleResult & { required: number } => c.required !== null);
+    if (timed.length === 0) return notApplicable("no sequence has a required cycle time");
+    let worst = Infinity, note = "";
+    for (const c of timed) {
+      let v: number, why: string;
+      if (c.time === null) { v = 0; why = `${c.name}: cycle time unknown, scored 0`; }
+      else {
+        v = clamp01(1 - c.time / (CYCLE_SCORE_ZERO * c.required));
+        why = `${c.name}: ${fixed(c.time, 2)} s against the required ${fixed(c.required, 2)} s${c.estimate ? " (an estimate: assumed acceleration)" : ""}`;
+      }
+      if (v < worst) { worst = v; note = why; }
+    }
+    const skipped = cycles.length - timed.length;
+    return { value: worst, applicable: true, note: note + (skipped ? `; ${skipped} sequence${skipped === 1 ? "" : "s"} without a required time not scored` : "") };
+  },
+};
+
 /** The priced candidates' cheapest offer; ties on price broken by currency code (content, not list order). */
 function cheapestOffer(candidates: readonly ArmDocument[]): { price: number; currency: string | null } | null {
   const priced = candidates
@@ -180,4 +214,4 @@ const price: SubScoreRule = {
 };
 
 /** One rule per row of the sub-score table. */
-export const SUB_SCORE_RULES: Readonly<Record<SubScoreKey, SubScoreRule>> = { coverage, dexterity, payload, force, pathSpeed, clearance, price };
+export const SUB_SCORE_RULES: Readonly<Record<SubScoreKey, SubScoreRule>> = { coverage, dexterity, payload, force, pathSpeed, clearance, cycleTime, price };

@@ -7,14 +7,14 @@
  */
 import type { ArmDocument } from "@/shared/schemas/arm";
 import type { RequirementSet, Target } from "@/shared/schemas/requirements";
-import { computeJacobian, createRng, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, maxJointDistance, randomConfiguration, solveIk, solveIkMulti, type ArmModel, type IkResult } from "@/lib/kinematics";
+import { computeJacobian, createRng, IK_NEAR_LIMIT_FRACTION, jointAxisWorld, maxJointDistance, randomConfiguration, solveIk, solveIkMulti, transformPointRigid, type ArmModel, type IkResult } from "@/lib/kinematics";
 import { checkCell, contactMask, pairNames, type CellCheck } from "./cell";
 import type { ArmContext } from "./context";
 import { centredCopy, type JointCopyChoice } from "./copies";
 import { dexterityAt, DEXTERITY_MARGINAL_THRESHOLD, type DexterityReport } from "./dexterity";
 import { deg, mm, num, pct } from "@/shared/format";
 import { quoteBody } from "./bodies";
-import { poseFromRpy, rotationOf, transformPoint, mul4 } from "./geometry";
+import { poseFromRpy, rotationOf, mul4 } from "./geometry";
 import {
   capacityAlong, ellipsoidEstimateAlong, forceEllipsoid, gravityTorque, payloadCapacity, transposeTimes, wristAxisLoad,
   type CapacityResult, type ForceEllipsoid, type WristBody,
@@ -536,8 +536,8 @@ function wristCheck(ctx: ArmContext, arm: ArmDocument, req: RequirementSet, q: F
   const tcpPose = data.toolPose;
   const toolPointPose = mul4(tcpPose, ctx.tcpInverse);
   const bodies: WristBody[] = [
-    { mass: req.tool.mass, cog: transformPoint(toolPointPose, req.tool.cog), rotation: rotationOf(toolPointPose), inertia: req.tool.inertia ?? null },
-    { mass: req.payload.mass, cog: transformPoint(tcpPose, req.payload.cog), rotation: rotationOf(tcpPose), inertia: req.payload.inertia ?? null },
+    { mass: req.tool.mass, cog: transformPointRigid(toolPointPose, req.tool.cog), rotation: rotationOf(toolPointPose), inertia: req.tool.inertia ?? null },
+    { mass: req.payload.mass, cog: transformPointRigid(tcpPose, req.payload.cog), rotation: rotationOf(tcpPose), inertia: req.payload.inertia ?? null },
   ];
   const axes: WristAxisCheck[] = [];
   let verdict: Verdict = "meets";

@@ -4,7 +4,7 @@ import { z } from "zod";
 import { armSchema, requirementSetSchema, type ArmDocument, type ArmSpecs, type RequirementSet } from "@/shared/schemas";
 import type { CreateShortlistInput } from "@/shared/schemas/shortlists";
 import { analysisKey } from "@/lib/analysis/key";
-import { ANALYSIS_VERSION, type ArmAnalysis, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
+import { ANALYSIS_VERSION, type RunArmView, type ShortlistAnalysis, type ShortlistArm } from "@/lib/analysis/shortlist";
 import { db, type Tx } from "./client";
 import { recordAudit } from "./audit";
 import { NotFoundError, ValidationError } from "./errors";
@@ -384,16 +384,6 @@ export async function getRunResult(runId: string): Promise<ShortlistAnalysis | n
   resultCache.set(runId, parsed);
   if (resultCache.size > RESULT_CACHE_SIZE) resultCache.delete(resultCache.keys().next().value!);
   return parsed;
-}
-
-/** One arm of a finished run with the pinned documents its result was computed from (what the 3-D view draws). */
-interface RunArmView {
-  runId: string;
-  armId: string;
-  revision: number;
-  arm: ArmDocument;
-  requirementSet: RequirementSet;
-  analysis: ArmAnalysis;
 }
 
 /**

@@ -6,7 +6,7 @@
 import type { Weights } from "@/shared/schemas/requirements";
 import { SUB_SCORES } from "@/shared/sub-scores";
 import { rerank, type ShortlistAnalysis } from "@/lib/analysis/shortlist";
-import { complianceTable, rankingTable, taskMatrixTable, type ExportMeta } from "./tables";
+import { complianceTable, cycleStepsTable, cycleTable, rankingTable, taskMatrixTable, type ExportMeta } from "./tables";
 import { toCsv } from "./csv";
 import { toXlsx } from "./xlsx";
 import { toShortlistJson } from "./json";
@@ -18,7 +18,7 @@ interface ShortlistExportRequest {
   analysis: ShortlistAnalysis;
   format: "csv" | "xlsx" | "json";
   /** Which table a CSV holds (default ranking). */
-  table?: "ranking" | "compliance";
+  table?: "ranking" | "compliance" | "cycle";
   /** Weights to rank with; the stored ones when absent. */
   weights?: Weights;
   exportedAt: Date;
@@ -45,9 +45,10 @@ export async function shortlistExport(r: ShortlistExportRequest): Promise<Export
     return { fileName: `${base}.json`, contentType: "application/json; charset=utf-8", body: toShortlistJson(meta, analysis, ranking) };
   }
   if (r.format === "xlsx") {
-    const bytes = await toXlsx([rankingTable(analysis, ranking), taskMatrixTable(analysis), complianceTable(analysis)], meta);
+    const cycles = (analysis.requirementSet.sequences ?? []).length > 0 ? [cycleTable(analysis), cycleStepsTable(analysis)] : [];
+    const bytes = await toXlsx([rankingTable(analysis, ranking), taskMatrixTable(analysis), complianceTable(analysis), ...cycles], meta);
     return { fileName: `${base}.xlsx`, contentType: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", body: new Uint8Array(bytes) };
   }
-  const table = r.table === "compliance" ? complianceTable(analysis) : rankingTable(analysis, ranking);
+  const table = r.table === "compliance" ? complianceTable(analysis) : r.table === "cycle" ? cycleTable(analysis) : rankingTable(analysis, ranking);
   return { fileName: `${base}.${r.table ?? "ranking"}.csv`, contentType: "text/csv; charset=utf-8", body: "\uFEFF" + toCsv(table, meta) };
 }

@@ -85,7 +85,61 @@ export function complianceTable(analysis: ShortlistAnalysis): Table {
       rows.push(["Clearance in the cell (targets and paths)", "must", COMPARATOR_TEXT.atLeast.words, round(req * 1000, 1), "mm", a.name, a.revision, c.value === null ? "no data" : round(c.value * 1000, 1), c.value === null ? null : "mm", c.verdict, c.reason]);
     }
   }
+  // each sequence's required cycle time, against each arm's estimated cycle (a required time informs, it never disqualifies)
+  (analysis.requirementSet.sequences ?? []).forEach((name, i) => {
+    for (const a of analysis.arms) {
+      const c = a.cycles?.[i];
+      if (!c || c.required === null) continue;
+      rows.push([
+        `Cycle time of sequence ${name}${c.estimate ? " (an estimate)" : ""}`, "want", COMPARATOR_TEXT.atMost.words, round(c.required, 3), "s",
+        a.name, a.revision, c.time === null ? "no data" : round(c.time, 3), c.time === null ? null : "s", c.verdict, c.reason,
+      ]);
+    }
+  });
   return { title: "Compliance", columns, rows };
+}
+
+/**
+ * The cycle time of each sequence for each arm (docs/design.md#cycle-time): one row per
+ * (sequence, arm) with the time, the required time, parts per hour, the verdict, whether the figure
+ * is an estimate from an assumed acceleration (and which joints lacked the limit), the step that
+ * blocks the cycle (if any) and the reason. Empty without sequences (and in results made before them).
+ */
+export function cycleTable(analysis: ShortlistAnalysis): Table {
+  const columns = [
+    "Sequence", "Arm", "Arm revision", "Cycle time (s)", "Required cycle time (s)", "Parts per hour (1/h)", "Verdict",
+    "Estimate (assumed acceleration)", "Joints with assumed acceleration", "Steps (count)", "Reason",
+  ];
+  const rows: Cell[][] = [];
+  (analysis.requirementSet.sequences ?? []).forEach((name, i) => {
+    for (const a of analysis.arms) {
+      const c = a.cycles?.[i];
+      if (!c) { rows.push([name, a.name, a.revision, null, null, null, "unknown", null, null, null, a.error ? `not analysed: ${a.error}` : "not in this result"]); continue; }
+      rows.push([
+        name, a.name, a.revision, c.time === null ? null : round(c.time, 3), c.required === null ? null : round(c.required, 3),
+        c.partsPerHour === null ? null : round(c.partsPerHour, 1), c.verdict, c.estimate ? "yes" : "no",
+        c.assumedAcceleration.length ? c.assumedAcceleration.map((j) => `joint ${j}`).join(", ") : null, c.steps.length, c.reason,
+      ]);
+    }
+  });
+  return { title: "Cycle time", columns, rows };
+}
+
+/**
+ * Each cycle's steps (the breakdown behind the cycle table): one row per (sequence, arm, step)
+ * with the step's kind, target or path, time and limiting joint.
+ */
+export function cycleStepsTable(analysis: ShortlistAnalysis): Table {
+  const columns = ["Sequence", "Arm", "Arm revision", "Step", "Kind", "Target or path", "Time (s)", "Limiting joint"];
+  const rows: Cell[][] = [];
+  (analysis.requirementSet.sequences ?? []).forEach((name, i) => {
+    for (const a of analysis.arms) {
+      (a.cycles?.[i]?.steps ?? []).forEach((st, k) => {
+        rows.push([name, a.name, a.revision, k + 1, st.kind, st.kind === "wait" ? null : st.name, round(st.time, 3), st.limitingJoint]);
+      });
+    }
+  });
+  return { title: "Cycle steps", columns, rows };
 }
 
 /**

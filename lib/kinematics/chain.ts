@@ -17,21 +17,13 @@
  */
 import type { ChainJointSpec, DhArmKinematics, JointOrigin, JointSpec } from "@/shared/schemas/arm";
 import { writeRpyPose } from "@/shared/pose";
+import { mat4MulRigid } from "./math/mat4";
 
 const I4 = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
 
 /** Row-major rigid product a·b (plain arrays, allocates). */
 export function mulRigid(a: ArrayLike<number>, b: ArrayLike<number>): number[] {
-  const out = new Array<number>(16).fill(0);
-  for (let r = 0; r < 3; r++) {
-    for (let c = 0; c < 4; c++) {
-      let v = a[4 * r] * b[c] + a[4 * r + 1] * b[4 + c] + a[4 * r + 2] * b[8 + c];
-      if (c === 3) v += a[4 * r + 3];
-      out[4 * r + c] = v;
-    }
-  }
-  out[15] = 1;
-  return out;
+  return Array.from(mat4MulRigid(new Float64Array(16), a, b));
 }
 
 /** Applies the rigid transform m to the point p (allocates). */

@@ -200,3 +200,52 @@ describe("cycle time in the shortlist analysis", () => {
     expect(far).toMatchObject({ time: null, verdict: "unknown" });
   });
 });
+
+describe("cycle-time sub-score (docs/design.md#ranking)", () => {
+  const rule = async () => (await import("@/lib/analysis/sub-scores")).SUB_SCORE_RULES.cycleTime;
+  const cycle = (name: string, time: number | null, required: number | null, estimate = false) =>
+    ({ name, time, required, estimate, partsPerHour: time ? 3600 / time : null, verdict: required === null || time === null ? "unknown" : time <= required ? "meets" : "fails", assumedAcceleration: [], reason: "", steps: [] }) as const;
+  const score = async (cycles: ReturnType<typeof cycle>[]) => (await rule()).score({ cycles } as unknown as Parameters<Awaited<ReturnType<typeof rule>>["score"]>[0]);
+
+  it("is 1 − t/(2R), clipped, on the worst sequence with a required time (hand values)", async () => {
+    // t = 3 s against R = 4 s: 1 − 3/8 = 0.625; t = 4 s against R = 4 s: ½; t = 9 s against 4 s: 0 (clipped).
+    expect((await score([cycle("a", 3, 4)])).value).toBeCloseTo(0.625, 12);
+    expect((await score([cycle("a", 4, 4)])).value).toBeCloseTo(0.5, 12);
+    expect((await score([cycle("a", 9, 4)])).value).toBe(0);
+    const two = await score([cycle("fast", 1, 4), cycle("slow", 5, 8), cycle("free", 50, null)]);
+    expect(two.value).toBeCloseTo(Math.min(1 - 1 / 8, 1 - 5 / 16), 12);
+    expect(two.note).toMatch(/^slow: 5\.00 s against the required 8\.00 s; 1 sequence without a required time not scored$/);
+  });
+
+  it("scores an unknown cycle 0, marks an estimate, and does not apply without sequences or required times", async () => {
+    expect(await score([cycle("a", null, 4)])).toMatchObject({ value: 0, applicable: true, note: "a: cycle time unknown, scored 0" });
+    expect((await score([cycle("a", 2, 4, true)])).note).toMatch(/an estimate/);
+    expect(await score([])).toMatchObject({ applicable: false, note: "no sequences" });
+    expect(await score([cycle("a", 2, null)])).toMatchObject({ applicable: false });
+  });
+
+  it("is computed from the arm's cycles in the shortlist analysis and enters the ranking with its weight", async () => {
+    const { analyzeShortlist, rerank } = await import("@/lib/analysis");
+    const { armSchema } = await import("@/shared/schemas/arm");
+    const { requirementSetSchema } = await import("@/shared/schemas/requirements");
+    const I4 = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+    const planar = (name: string, v: number) => armSchema.parse({ name, convention: "dh", joints: [1, 0.8].map((a) => ({ type: "revolute", a, alpha: 0, d: 0, theta: 0, min: -3, max: 3, maxSpeed: v, maxAcceleration: 4 * v })) });
+    const base = {
+      name: "loop", base: I4, tool: { tcp: I4, mass: 0, cog: [0, 0, 0] }, payload: { mass: 0, cog: [0, 0, 0] }, paths: [], specs: [],
+      targets: [{ name: "a", position: [1.2, 0.5, 0], rpy: [0, 0, 0], mode: "point" }, { name: "b", position: [-0.4, 1.3, 0], rpy: [0, 0, 0], mode: "point" }],
+    };
+    const req = requirementSetSchema.parse({ ...base, sequences: [{ name: "ab", required: 3, steps: [{ kind: "move", target: "a" }, { kind: "move", target: "b" }] }] });
+    const out = analyzeShortlist([{ id: "slow", revision: 1, arm: planar("slow", 1) }, { id: "quick", revision: 1, arm: planar("quick", 3) }], req);
+    for (const a of out.arms) {
+      const t = a.cycles[0].time!;
+      expect(a.subScores.cycleTime.value).toBeCloseTo(Math.max(0, 1 - t / 6), 12);
+      expect(a.subScores.cycleTime.applicable).toBe(true);
+    }
+    // Everything else equal (same reach, dexterity, no price), the cycle weight alone orders them.
+    const only = Object.fromEntries(Object.keys(out.weights).map((k) => [k, k === "cycleTime" ? 1 : 0])) as typeof out.weights;
+    expect(rerank(out, only).map((r) => r.armId)).toEqual(["quick", "slow"]);
+    const none = analyzeShortlist([{ id: "slow", revision: 1, arm: planar("slow", 1) }], requirementSetSchema.parse(base));
+    expect(none.arms[0].subScores.cycleTime).toMatchObject({ applicable: false, note: "no sequences" });
+    expect(none.ranking[0].weights.cycleTime).toBe(0);
+  });
+});

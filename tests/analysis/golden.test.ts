@@ -33,6 +33,9 @@ const GOLDEN: Record<string, string> = {
   // 1.7.0: link pairs whose shapes both hold a point the joints between them cannot move (a spherical
   // wrist's centre) are set aside as always touching, for explicit geometry too (here only the version differs).
   "analysis-1.7.0": "d2a484ee7728f24c89484e82da821f8ebffa11b3c3c99c6fd5adeb0082ee32ac",
+  // 1.8.0: a cycle-time sub-score in the ranking (1 − t/2R on the worst sequence with a required time), and
+  // the caution says cycle times are estimates for comparing arms.
+  "analysis-1.8.0": "2728bcaeff8ac0480b564b0ab57508da6493e57a57efe04e28a2569efae8cb00",
 };
 
 const DEG = Math.PI / 180;

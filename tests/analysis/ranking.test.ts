@@ -13,7 +13,7 @@ function arm(id: string, values: Partial<Record<SubScoreKey, number | null>>, fa
 
 describe("rankArms", () => {
   it("is a weighted mean of the applicable sub-scores with each contribution returned (hand-computed)", () => {
-    const w = { coverage: 2, dexterity: 1, payload: 1, force: 0, pathSpeed: 1, clearance: 0, price: 0 };
+    const w = { coverage: 2, dexterity: 1, payload: 1, force: 0, pathSpeed: 1, clearance: 0, cycleTime: 0, price: 0 };
     const [r] = rankArms([arm("a", { coverage: 1, dexterity: 0.4, payload: 0.2, force: null, pathSpeed: null, price: 0.9 })], w);
     // applicable weights: coverage 2, dexterity 1, payload 1, price 0 → sum 4
     expect(r.score).toBeCloseTo((2 * 1 + 0.4 + 0.2) / 4, 14);
@@ -35,7 +35,7 @@ describe("rankArms", () => {
     expect(tie.map((r) => r.rank)).toEqual([1, 2]);
   });
   it("all-zero weights give score 0 rather than NaN", () => {
-    const zero = { coverage: 0, dexterity: 0, payload: 0, force: 0, pathSpeed: 0, clearance: 0, price: 0 };
+    const zero = { coverage: 0, dexterity: 0, payload: 0, force: 0, pathSpeed: 0, clearance: 0, cycleTime: 0, price: 0 };
     expect(rankArms([arm("a", { coverage: 1 })], zero)[0].score).toBe(0);
   });
 });

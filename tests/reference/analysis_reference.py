@@ -185,7 +185,9 @@ def capacity_cases():
         b = J[:rows, :].T @ u
         lp = lp_capacity(a.tolist(), b.tolist(), T.tolist())
         lim = [i for i in range(n) if not math.isnan(T[i])]
-        ell = 1.0 / math.sqrt(sum((b[i] / T[i]) ** 2 for i in lim)) if lim else None
+        # Unbounded (no limited joint feels the direction): the estimate is infinite, written null
+        # (1/|rounding noise| would be a different huge number on every machine).
+        ell = 1.0 / math.sqrt(sum((b[i] / T[i]) ** 2 for i in lim)) if lim and lp["status"] != "unbounded" else None
         cases.append({
             "n": n, "rows": rows, "jacobian": J.flatten().tolist(), "tauHold": a.tolist(),
             "maxTorque": [None if math.isnan(x) else float(x) for x in T], "direction": u.tolist(),
