@@ -1,5 +1,6 @@
 "use client";
-import { Bar, BarChart, CartesianGrid, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { useSyncExternalStore } from "react";
+import { Bar, BarChart, CartesianGrid, LabelList, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { fixed } from "@/shared/format";
 import { useMounted } from "./useMounted";
 import type { CycleChartData } from "./view";
@@ -17,6 +18,30 @@ export function stepColours(steps: CycleChartData["steps"]): string[] {
   return steps.map((s) => SHADES[s.kind][seen[s.kind]++ % 2]);
 }
 
+const NARROW = "(max-width: 640px)";
+const subscribeNarrow = (cb: () => void) => {
+  const m = window.matchMedia(NARROW);
+  m.addEventListener("change", cb);
+  return () => m.removeEventListener("change", cb);
+};
+/** True on a narrow screen (the arm names then get a narrower axis). */
+function useNarrow(): boolean {
+  return useSyncExternalStore(subscribeNarrow, () => window.matchMedia(NARROW).matches, () => false);
+}
+
+/** An arm's name on the axis, cut with "…" to fit `chars` characters; the whole name in its tooltip. */
+function ArmTick(props: { x?: number; y?: number; payload?: { value?: string }; chars: number }) {
+  const { x = 0, y = 0, payload, chars } = props;
+  const full = String(payload?.value ?? "");
+  const text = full.length > chars ? `${full.slice(0, chars - 1).trimEnd()}…` : full;
+  return (
+    <text x={x - 6} y={y} dy={4} textAnchor="end" fontSize={11} fill="#3d444d">
+      <title>{full}</title>
+      {text}
+    </text>
+  );
+}
+
 interface SegmentProps {
   x?: number;
   y?: number;
@@ -32,9 +57,12 @@ interface SegmentProps {
  */
 export function CycleChart({ data }: { data: CycleChartData }) {
   const mounted = useMounted();
+  const narrow = useNarrow();
+  const axisWidth = narrow ? 100 : 190;
+  const chars = narrow ? 13 : 30;
   const colours = stepColours(data.steps);
   const rows = data.rows.map((r) => ({ ...r, label: `${r.estimate ? "≈ " : ""}${r.arm}${r.time === null ? " (unknown)" : ""}` }));
-  const height = 56 + 34 * rows.length;
+  const height = 60 + 40 * rows.length;
   const longest = Math.max(...data.rows.map((r) => r.time ?? 0), data.required ?? 0);
   if (!mounted) return <div className="chart-placeholder" style={{ height: height + 40 }} aria-hidden="true" />;
   return (
@@ -44,7 +72,7 @@ export function CycleChart({ data }: { data: CycleChartData }) {
         {data.required !== null ? `; dashed line: the required ${fixed(data.required, 2)} s` : ""}.
       </figcaption>
       <ResponsiveContainer width="100%" height={height} initialDimension={{ width: 640, height }}>
-        <BarChart data={rows} layout="vertical" margin={{ top: 14, right: 18, bottom: 18, left: 4 }} barCategoryGap="22%">
+        <BarChart data={rows} layout="vertical" margin={{ top: 16, right: narrow ? 40 : 52, bottom: 18, left: 4 }} barCategoryGap="24%">
           <CartesianGrid stroke="#e7eaee" horizontal={false} />
           <XAxis
             type="number"
@@ -53,7 +81,7 @@ export function CycleChart({ data }: { data: CycleChartData }) {
             tickFormatter={(v) => fixed(Number(v), longest < 5 ? 1 : 0)}
             label={{ value: "cycle time (s)", position: "insideBottom", offset: -10, fontSize: 11 }}
           />
-          <YAxis type="category" dataKey="label" tick={{ fontSize: 11 }} width={120} interval={0} />
+          <YAxis type="category" dataKey="label" tick={<ArmTick chars={chars} />} width={axisWidth} interval={0} />
           <Tooltip formatter={(v, name) => [`${fixed(Number(v), 2)} s`, String(name)]} cursor={{ fill: "rgba(47, 93, 138, 0.06)" }} />
           {data.steps.map((s, k) => (
             <Bar
@@ -66,7 +94,9 @@ export function CycleChart({ data }: { data: CycleChartData }) {
               shape={(p: SegmentProps) => (
                 <rect x={p.x} y={p.y} width={Math.max(0, p.width ?? 0)} height={p.height} fill={p.fill} stroke="#fff" strokeWidth={1} data-testid="cycle-segment" data-step={k + 1} data-arm-id={p.payload?.armId} />
               )}
-            />
+            >
+              {k === data.steps.length - 1 && <LabelList dataKey="time" position="right" fontSize={11} fill="#1f2328" formatter={(v) => (v === null || v === undefined ? "" : `${fixed(Number(v), 2)} s`)} />}
+            </Bar>
           ))}
           {data.required !== null && (
             <ReferenceLine x={data.required} stroke="#a3231a" strokeDasharray="5 3" label={{ value: `required ${fixed(data.required, 2)} s`, fontSize: 10, position: "top", fill: "#a3231a" }} />

@@ -14,13 +14,20 @@ const joints = (ns: number[]) => `joint${ns.length === 1 ? "" : "s"} ${ns.join("
 /** What the figure rests on: the stated limits, or an assumed acceleration for the joints named. */
 function basisText(c: CycleResult): string {
   if (c.time === null) return "–";
-  return c.estimate ? `estimate: no max acceleration for ${joints(c.assumedAcceleration)} (assumed to reach full speed in ${ASSUMED_ACCELERATION_TIME} s)` : "stated speed and acceleration limits";
+  return c.estimate ? `assumed acceleration: ${joints(c.assumedAcceleration)}` : "stated speed and acceleration limits";
+}
+
+/** The verdict, or "no requirement" when the sequence has no required time (not a verdict of "unknown"). */
+function CycleVerdict({ c }: { c: CycleResult | undefined }) {
+  if (!c) return <VerdictTag v="unknown" />;
+  if (c.required === null && c.time !== null) return <span className="sub">no requirement</span>;
+  return <VerdictTag v={c.verdict} />;
 }
 
 function EstimateTag({ c }: { c: CycleResult }) {
   if (!c.estimate) return null;
   return (
-    <span className="tag estimate" data-testid="cycle-estimate" title={basisText(c)}>
+    <span className="tag estimate" data-testid="cycle-estimate" title={`${basisText(c)}, taken to reach full speed in ${ASSUMED_ACCELERATION_TIME} s`}>
       estimate
     </span>
   );
@@ -70,9 +77,11 @@ export function CycleSection({ analysis }: { analysis: ShortlistAnalysis }) {
                           {sText(c?.time ?? null)}
                         </td>
                         <td className="num">{rateText(c?.partsPerHour ?? null)}</td>
-                        <td title={c?.reason}>{c ? <VerdictTag v={c.verdict} /> : <VerdictTag v="unknown" />}</td>
-                        <td>
-                          {c ? (c.time === null ? c.reason : c.estimate ? <><EstimateTag c={c} /> {basisText(c).replace(/^estimate: /, "")}</> : basisText(c)) : "not in this result"}
+                        <td title={c?.reason}>
+                          <CycleVerdict c={c} />
+                        </td>
+                        <td className="cycle-basis">
+                          {c ? (c.time === null ? c.reason : c.estimate ? <><EstimateTag c={c} /> {basisText(c)}</> : basisText(c)) : "not in this result"}
                         </td>
                       </tr>
                     );
@@ -80,6 +89,12 @@ export function CycleSection({ analysis }: { analysis: ShortlistAnalysis }) {
                 </tbody>
               </table>
             </div>
+            {analysis.arms.some((a) => a.cycles?.[i]?.estimate) && (
+              <p className="sub">
+                An estimate rests on an assumed acceleration: a joint without a max acceleration is taken to reach its max speed in {ASSUMED_ACCELERATION_TIME} s (an assumed value, not
+                the maker&apos;s). Enter the joints&apos; accelerations in the arm editor to replace it.
+              </p>
+            )}
             {chart ? <CycleChart data={chart} /> : <p className="sub">No arm has a known cycle for {name}: no chart.</p>}
           </div>
         );
@@ -99,7 +114,7 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
       {cycles.map((c) => (
         <div key={c.name} data-testid="arm-cycle">
           <p className="sub">
-            <VerdictTag v={c.verdict} /> <strong>{c.name}</strong>: {c.reason}
+            <CycleVerdict c={c} /> <strong>{c.name}</strong>: {c.reason}
           </p>
           {c.steps.length > 0 && c.time !== null && (
             <div className="table-wrap">
@@ -125,7 +140,7 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
                       <td>{s.kind === "wait" ? "–" : s.name}</td>
                       <td className="num">{sText(s.time)}</td>
                       <td className="num">{c.time! > 0 ? fixed((100 * s.time) / c.time!, 0) : "–"}</td>
-                      <td>
+                      <td className="cycle-nowrap">
                         {s.limitingJoint === null
                           ? "–"
                           : `joint ${s.limitingJoint}${c.assumedAcceleration.includes(s.limitingJoint) ? " (assumed acceleration)" : ""}`}

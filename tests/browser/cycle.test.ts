@@ -2,9 +2,14 @@
 // limit; a shortlist shows each arm's cycle, its verdict, the estimate mark and the stacked bars;
 // a step added by keyboard in the requirement-set editor (and a required rate entered as parts per
 // hour) changes the cycle and the chart after the analysis runs again. The page's figures are
-// compared with the stored analysis result the export returns.
+// compared with the stored analysis result the export returns, and the XLSX download's cycle
+// sheet with the page.
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ShortlistAnalysis } from "@/lib/analysis";
+import { readXlsx, sheetRecords } from "../export/parse";
 import { signUp, startHarness, type Browser, type Harness, type TrackedPage } from "./harness";
 
 const ADMIN = { email: "cyra@example.test", name: "Cyra Cycle", password: "a long takt-time passphrase" };
@@ -17,8 +22,10 @@ describe("cycle time on the pages", () => {
   let reqId = "";
   let shortlistId = "";
   let armIds: string[] = [];
+  let tmp = "";
 
   beforeAll(async () => {
+    tmp = mkdtempSync(path.join(os.tmpdir(), "armsift-cycle-"));
     h = await startHarness();
     b = await h.browser();
     t = await b.open("/signup");
@@ -26,6 +33,7 @@ describe("cycle time on the pages", () => {
   });
   afterAll(async () => {
     await h?.close();
+    rmSync(tmp, { recursive: true, force: true });
   });
 
   const exported = async () =>
@@ -151,5 +159,28 @@ describe("cycle time on the pages", () => {
     }
     await p.getByTestId("cycle-section").getByText("required 15.00 s per cycle (240 parts per hour)").waitFor();
     expect(t.errors()).toEqual([]);
+  });
+
+  it("the XLSX download has the cycle of each arm as the page shows it, and its steps", async () => {
+    const p = t.page;
+    const [dl] = await Promise.all([p.waitForEvent("download"), p.getByTestId("exports").getByRole("link", { name: "Ranking + compliance XLSX" }).click()]);
+    const file = path.join(tmp, dl.suggestedFilename());
+    await dl.saveAs(file);
+    const sheets = await readXlsx(readFileSync(file));
+    const cycles = sheetRecords(sheets["Cycle time"]);
+    const steps = sheetRecords(sheets["Cycle steps"]);
+    const names = ["Cycle Probe Plain", "Cycle Probe Stated"];
+    for (const [k, id] of armIds.entries()) {
+      const rec = cycles.find((r) => r.Arm === names[k] && r.Sequence === "pick and place")!;
+      expect(rec).toBeDefined();
+      const shown = await p.locator(`[data-testid='cycle-row'][data-arm-id='${id}']`).getByTestId("cycle-time").textContent();
+      // the sheet keeps 3 decimals, the page shows 2
+      expect(Math.abs((rec["Cycle time (s)"] as number) - Number(shown))).toBeLessThanOrEqual(0.0051);
+      expect(rec["Required cycle time (s)"]).toBe(15);
+      expect(rec.Verdict).toBe("meets");
+      expect(rec["Estimate (assumed acceleration)"]).toBe("yes");
+      const own = steps.filter((r) => r.Arm === names[k]);
+      expect(own.map((r) => r.Kind)).toEqual(["move", "move", "wait"]);
+    }
   });
 });
