@@ -56,7 +56,7 @@ function reachablePoses(arm: ArmDocument, rng: Rng, count: number, near?: number
   return out;
 }
 
-function syntheticSet(): { arms: ShortlistArm[]; req: RequirementSet } {
+export function syntheticSet(): { arms: ShortlistArm[]; req: RequirementSet } {
   const rng = createRng(4242);
   const docs = Array.from({ length: 8 }, (_, i) => syntheticArm(rng, i));
   const ref = docs[0];
@@ -93,7 +93,7 @@ function syntheticSet(): { arms: ShortlistArm[]; req: RequirementSet } {
  * scale, joint by joint smaller), a tool capsule, and 20 seeded obstacles (boxes, spheres,
  * cylinders, capsules) around the workspace: some in the arms' way, most near it.
  */
-function withCell({ arms, req }: { arms: ShortlistArm[]; req: RequirementSet }): { arms: ShortlistArm[]; req: RequirementSet } {
+export function withCell({ arms, req }: { arms: ShortlistArm[]; req: RequirementSet }): { arms: ShortlistArm[]; req: RequirementSet } {
   const rng = createRng(777);
   const kinds = ["box", "sphere", "cylinder", "capsule"] as const;
   const obstacles = Array.from({ length: 20 }, (_, k) => {

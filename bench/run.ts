@@ -1,6 +1,6 @@
 /**
  * `npm run bench`: runs the kinematics and distance-query benchmarks, then the analysis benchmark when
- * bench/analysis.ts exists, then the URDF import/export benchmark, then the shortlist page benchmark
+ * bench/analysis.ts exists, then the placement search benchmark, then the URDF import/export benchmark, then the shortlist page benchmark
  * and the 3-D view benchmark (chunk sizes, frame time) and the team set-up benchmark (PostgreSQL,
  * queue workers; each module exports `async function run()`).
  */
@@ -18,6 +18,7 @@ async function main(): Promise<void> {
     const mod = (await import(pathToFileURL(analysis).href)) as { run?: () => Promise<void> };
     if (typeof mod.run === "function") await mod.run();
   }
+  await (await import("./placement")).run();
   await (await import("./urdf")).run();
   await (await import("./page")).run();
   await (await import("./view")).run();

@@ -16,6 +16,7 @@ const COMMANDS: Record<string, () => Promise<CliCommand>> = {
   "import-urdf": () => import("./commands/import-urdf").then((m) => m.command),
   "export-urdf": () => import("./commands/export-urdf").then((m) => m.command),
   cycle: () => import("./commands/cycle").then((m) => m.command),
+  place: () => import("./commands/place").then((m) => m.command),
 };
 
 async function main(argv: readonly string[]): Promise<number> {

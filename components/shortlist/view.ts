@@ -50,7 +50,9 @@ function pathCell(p: PathAnalysis): MatrixCell {
   const details = [`${p.reached} of ${p.samples} samples reached (step ${fixed(mm(p.step), 1)} mm over ${fixed(mm(p.length), 0)} mm)`, `speed: ${p.speed.note}`];
   if (p.firstUnreached) details.push(`first sample not reached at ${fixed(mm(p.firstUnreached.s), 0)} mm: ${p.firstUnreached.detail}`);
   for (const f of p.flips.slice(0, 5)) details.push(`configuration flip at ${fixed(mm(f.s), 0)} mm: ${f.detail}`);
-  if (p.limitHits.length) details.push(`${p.limitHits.length} sample${p.limitHits.length === 1 ? "" : "s"} at a joint limit`);
+  // the stored result keeps the first few events; eventCounts has how many there were
+  const limitHits = p.eventCounts?.limitHits ?? p.limitHits.length;
+  if (limitHits) details.push(`${limitHits} sample${limitHits === 1 ? "" : "s"} at a joint limit`);
   if (p.cell) {
     const c = p.cell;
     if (c.firstCollision) details.push(`cell: collides ${c.firstCollision.between ? "between samples" : "at a sample"} at ${fixed(mm(c.firstCollision.s), 0)} mm: ${c.firstCollision.a} hits ${c.firstCollision.b}`);

@@ -13,6 +13,7 @@ import { invertRigid, mul4, poseFromRpy } from "@/lib/analysis/geometry";
 import { transformPointRigid } from "@/lib/kinematics";
 import type { RunArmView } from "@/lib/analysis/shortlist";
 import type { TargetAnalysis } from "@/lib/analysis/targets";
+import type { PathAnalysis } from "@/lib/analysis/paths";
 import { kinematicsOf } from "@/shared/schemas/arm";
 import { api } from "../api";
 import { VERDICT_SYMBOL } from "../shortlist/verdict";
@@ -33,6 +34,8 @@ export interface SolutionViewProps {
 /** The clearance check at a target (`cell` of its result; null when the cell checks nothing for the arm). */
 type CellCheck = NonNullable<TargetAnalysis["cell"]>;
 const cellOf = (t: TargetAnalysis): CellCheck | null => t.cell;
+/** 1-based number, among all of the path's samples, of the k-th sample the stored result keeps. */
+const sampleNo = (p: PathAnalysis, k: number) => (p.profile.index?.[Math.min(k, p.q.length - 1)] ?? Math.min(k, p.q.length - 1)) + 1;
 const quoted = (name: string) => (/^(base|link \d+|tool|payload)$/.test(name) ? name : `“${name}”`);
 
 function closestPair(c: NonNullable<CellCheck["closest"]>, required: number): PairMark {
@@ -127,10 +130,12 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
   const scene = useMemo((): { content: SceneContent; status: string; force: ForceMark | null } => {
     const base: SceneContent = { targets, paths, obstacles, toolLabel: "TCP", floorZ: req.base[11] };
     if (mode === "path" && path) {
-      const k = Math.min(sample, path.samples - 1);
+      // the stored result keeps a bounded number of samples per path (profile.index: their places)
+      const k = Math.min(sample, path.q.length - 1);
+      const no = (path.profile.index?.[k] ?? k) + 1;
       const q = path.q[k];
       const s = path.profile.s[k] ?? 0;
-      const where = `sample ${k + 1} of ${path.samples}, ${mmText(s)} along ${path.name}`;
+      const where = `sample ${no} of ${path.samples}, ${mmText(s)} along ${path.name}`;
       if (!q) {
         const pts = paths[pi]?.points ?? [];
         return { content: { ...base, arm: null, cursor: { at: pointAtArcLength(pts, s), text: `${VERDICT_SYMBOL.fails} not reached` } }, status: `${where}: not reached, no configuration to show.`, force: null };
@@ -138,7 +143,7 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
       const arm = poseArm(rig, q);
       const margin = path.profile.dexterityMargin[k];
       return {
-        content: { ...base, arm, bodies: heldShapes(arm.tool), cursor: { at: originOf(arm.tool), text: `sample ${k + 1}` } },
+        content: { ...base, arm, bodies: heldShapes(arm.tool), cursor: { at: originOf(arm.tool), text: `sample ${no}` } },
         status: `${where}: reached${margin !== null && margin !== undefined ? `, dexterity margin D = ${fixed(margin, 2)}` : ""}.`,
         force: null,
       };
@@ -265,15 +270,15 @@ function Solutions({ view, rig, armName }: { view: RunArmView; rig: ArmRig; armN
                 id={`v3-sample-${view.armId}`}
                 type="range"
                 min={0}
-                max={Math.max(0, path.samples - 1)}
+                max={Math.max(0, path.q.length - 1)}
                 step={1}
-                value={Math.min(sample, path.samples - 1)}
-                aria-valuetext={`sample ${Math.min(sample, path.samples - 1) + 1} of ${path.samples}`}
+                value={Math.min(sample, path.q.length - 1)}
+                aria-valuetext={`sample ${sampleNo(path, sample)} of ${path.samples}`}
                 data-testid="path-slider"
                 onChange={(e) => setSample(Number(e.target.value))}
               />
               <output htmlFor={`v3-sample-${view.armId}`}>
-                {Math.min(sample, path.samples - 1) + 1} / {path.samples}
+                {sampleNo(path, sample)} / {path.samples}
               </output>
             </div>
           </>

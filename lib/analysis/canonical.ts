@@ -56,7 +56,7 @@ export function armSeedText(arm: Pick<ArmDocument, "convention" | "joints" | "ba
 }
 
 /** What a seed is for; part of the hashed text so the streams differ. */
-type SeedPurpose = "ranks" | "target" | "path" | "workspace";
+type SeedPurpose = "ranks" | "target" | "path" | "workspace" | "place";
 
 /** Seed for one purpose of one arm; `item` is the target's or path's name ("" otherwise). */
 export function contentSeed(armText: string, purpose: SeedPurpose, item = ""): number {

@@ -84,3 +84,18 @@ export function createArmContext(arm: ArmDocument, req: RequirementSet, seed = 1
     cell, cellData: createCellData(cell, req.base), check: createCellCheck(),
   };
 }
+
+/**
+ * The same arm and cell at another base pose T_C_B (`base`, row-major 4×4), for the placement
+ * search: a new model, its buffers and the cell's buffers at that base; the cell model, the
+ * structural ranks and the loads are shared with `ctx` (none of them depends on where the base
+ * stands: the cell's shapes are in the links' frames, its obstacles in the cell frame, the ranks
+ * are rotation-invariant).
+ */
+export function placedContext(ctx: ArmContext, arm: ArmDocument, req: Pick<RequirementSet, "tool">, base: ArrayLike<number>): ArmContext {
+  const model = createModel(placedArmKinematics(kinematicsOf(arm), { base: Array.from(base), tool: req.tool }));
+  return {
+    ...ctx, model, data: createData(model), jac: new Float64Array(6 * model.n),
+    cellData: createCellData(ctx.cell, base), check: createCellCheck(),
+  };
+}

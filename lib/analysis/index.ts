@@ -14,6 +14,7 @@ export * from "./paths";
 export * from "./workspace";
 export * from "./cycle";
 export * from "./shortlist";
+export * from "./compact";
 export { createArmContext, placedArmKinematics, type ArmContext } from "./context";
 export { armClearance } from "./clearance";
 export * from "./copies";

@@ -85,6 +85,11 @@ export interface PathAnalysis {
   restarts: PathEvent[];
   /** Samples with a joint at (within 0.5 % of range of) a limit. */
   limitHits: PathEvent[];
+  /**
+   * How many flips, restarts and limit hits there were: set in the stored form (compact.ts), whose
+   * lists keep only the first few; absent in a fresh analysis (the lists are whole).
+   */
+  eventCounts?: { flips: number; restarts: number; limitHits: number };
   speed: {
     /** Required TCP speed (m/s); rotation-only segments carry no speed requirement. */
     required: number;
@@ -123,8 +128,13 @@ export interface PathAnalysis {
   minDexterityMargin: number | null;
   /** The collision check in the cell (null when the cell checks nothing for this arm). */
   cell: PathCell | null;
-  /** Per-sample profiles (same length as `samples`; null where a sample was not reached). */
+  /**
+   * Per-sample profiles (null where a sample was not reached): every sample in a fresh analysis;
+   * in the stored form (compact.ts) at most PROFILE_POINTS of them, `index` giving each one's
+   * place among the `samples` (absent: every sample is there).
+   */
   profile: {
+    index?: number[];
     s: number[];
     sigmaMinTranslation: (number | null)[];
     dexterityMargin: (number | null)[];
@@ -135,7 +145,7 @@ export interface PathAnalysis {
     /** Clearance at each reached sample (m; 0 when colliding), null where not reached or nothing is checked. */
     clearance: (number | null)[];
   };
-  /** Joint values at each sample (rad or m), for plotting; null where not reached. */
+  /** Joint values at each sample of `profile` (rad or m), for plotting; null where not reached. */
   q: (number[] | null)[];
 }
 

@@ -55,6 +55,12 @@ interface AnalyzeOptions {
   timer?: (stage: "ik" | "dexterity" | "statics" | "targets" | "paths" | "workspace" | "spec", ms: number) => void;
   /** A clock for `timer` (e.g. performance.now); never used otherwise. */
   now?: () => number;
+  /**
+   * Applied to each arm's analysis as soon as it is complete (its sub-scores included), before the
+   * next arm: e.g. compactArm (compact.ts), so that a large shortlist never holds every arm's
+   * per-sample data at once. The ranking is made from the arms it returns.
+   */
+  mapArm?: (arm: ArmAnalysis) => ArmAnalysis;
 }
 
 /** Counts of verdicts. */
@@ -182,6 +188,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
   };
 
   const candidates = arms.map((a) => a.arm);
+  const mapArm = opts.mapArm ?? ((a: ArmAnalysis) => a);
   const results: ArmAnalysis[] = arms.map((entry, ai) => {
     const arm = entry.arm;
     const label = `arm ${ai + 1}/${arms.length} ${arm.name}`;
@@ -195,7 +202,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
       progress(`${label}: not analysed (invalid model)`, stepsPerArm);
-      return finishArm(ident, arm, null, [], [], specs, null, req, candidates, `the arm model is invalid: ${message}`);
+      return mapArm(finishArm(ident, arm, null, [], [], specs, null, req, candidates, `the arm model is invalid: ${message}`));
     }
     const targets = time("targets", () => req.targets.map((t, i) => {
       const r = analyzeTarget(ctx, arm, req, t, budget.target, contentSeed(seedText, "target", t.name), clock);
@@ -209,7 +216,7 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     }));
     const workspace = time("workspace", () => analyzeWorkspace(ctx, arm.specs?.reach, req.targets.map((t, i) => ({ name: t.name, position: t.position, reached: targets[i].reached })), budget.workspace, contentSeed(seedText, "workspace")));
     progress(`${label}: workspace and specs`);
-    return finishArm(ident, arm, ctx, targets, paths, specs, workspace, req, candidates, null);
+    return mapArm(finishArm(ident, arm, ctx, targets, paths, specs, workspace, req, candidates, null));
   });
 
   const ranking = rerank({ arms: results }, req.weights);

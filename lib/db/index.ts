@@ -9,6 +9,7 @@ export * from "./users";
 export * from "./sessions";
 export * from "./errors";
 export * from "./shortlists";
+export { readResultArm, readResultArms, readResultHead, storedResultSize } from "./results";
 export * from "./comments";
 export * from "./shares";
 export * from "./settings";

@@ -12,6 +12,7 @@ import { readStoredDocument, userRef, type UserRef } from "./documents";
 import { listArms, type ArmSummary } from "./arms";
 import { listRequirementSets, type RequirementSummary } from "./requirements";
 import { unreadCounts, type UnreadCount } from "./comments";
+import { hasStoredResult, readResult, storedForm, storeResultInTx, type ResultToStore } from "./results";
 
 /**
  * A run analysed by a web server's own runner that has not reported progress for this long is
@@ -292,13 +293,15 @@ export async function loadPinnedInputs(pins: Pins, c: Tx = db()): Promise<{ arms
  */
 async function newRun(tx: Tx, shortlistId: string, pins: Pins, key: string, enqueue?: EnqueueInTx): Promise<{ run: RunInfo; cached: boolean; needsStart: boolean }> {
   const now = new Date();
-  const done = await tx.analysisRun.findFirst({ where: { key, status: "done", reusedFromId: null }, orderBy: { finishedAt: "desc" }, select: { id: true, resultJson: true } });
+  const done = await tx.analysisRun.findFirst({ where: { key, status: "done", resultKey: key, reusedFromId: null }, orderBy: { finishedAt: "desc" }, select: { id: true } })
+    ?? await tx.analysisRun.findFirst({ where: { key, status: "done", resultKey: key }, orderBy: { finishedAt: "asc" }, select: { id: true } });
   const id = randomUUID();
-  if (done) {
+  if (done && (await hasStoredResult(key, tx))) {
+    // the new run refers to the stored result of the same key: nothing is copied
     const row = await tx.analysisRun.create({
       data: {
         id, shortlistId, key, analysisVersion: ANALYSIS_VERSION, status: "done", progress: 1, stage: "reused an earlier result with the same inputs",
-        resultJson: done.resultJson, pins: JSON.stringify(pins), createdAt: now, startedAt: now, finishedAt: now, reusedFromId: done.id,
+        resultKey: key, pins: JSON.stringify(pins), createdAt: now, startedAt: now, finishedAt: now, reusedFromId: done.id,
       },
       select: runSelect,
     });
@@ -366,24 +369,17 @@ export async function listRuns(shortlistId: string): Promise<RunInfo[]> {
   return Promise.all(rows.map((r) => withPosition(db(), r)));
 }
 
-/** Results of finished runs are immutable: keep the parsed form of the most recent few in memory. */
-const resultCache = new Map<string, ShortlistAnalysis>();
-const RESULT_CACHE_SIZE = 16;
-
-/** The stored result of a finished run (parsed once per process), or null. */
+/** The stored result of a finished run (assembled arm by arm, see ./results), or null. */
 export async function getRunResult(runId: string): Promise<ShortlistAnalysis | null> {
-  const hit = resultCache.get(runId);
-  if (hit) {
-    resultCache.delete(runId);
-    resultCache.set(runId, hit);
-    return hit;
-  }
-  const row = await db().analysisRun.findUnique({ where: { id: runId }, select: { status: true, resultJson: true } });
-  if (!row || row.status !== "done" || !row.resultJson) return null;
-  const parsed = JSON.parse(row.resultJson) as ShortlistAnalysis;
-  resultCache.set(runId, parsed);
-  if (resultCache.size > RESULT_CACHE_SIZE) resultCache.delete(resultCache.keys().next().value!);
-  return parsed;
+  const row = await db().analysisRun.findUnique({ where: { id: runId }, select: { status: true, resultKey: true } });
+  if (!row || row.status !== "done" || !row.resultKey) return null;
+  return readResult(row.resultKey);
+}
+
+/** The analysis key of a finished run's stored result, or null (not finished, or nothing stored). */
+export async function getRunResultKey(runId: string): Promise<string | null> {
+  const row = await db().analysisRun.findUnique({ where: { id: runId }, select: { status: true, resultKey: true } });
+  return row && row.status === "done" ? row.resultKey : null;
 }
 
 /**
@@ -430,14 +426,25 @@ export async function reportRunProgress(runId: string, attempt: number, progress
   return r.count === 1;
 }
 
-/** Stores the result of the current attempt; false (nothing stored) when the run is no longer its own. */
-export async function finishRun(runId: string, attempt: number, result: ShortlistAnalysis): Promise<boolean> {
-  const now = new Date();
-  const r = await db().analysisRun.updateMany({
-    where: { id: runId, status: "running", attempt },
-    data: { status: "done", progress: 1, stage: "done", resultJson: JSON.stringify(result), finishedAt: now, heartbeatAt: now },
+/**
+ * Stores the result of the current attempt (once per analysis key: a result already stored with
+ * the run's key is referred to, not stored again); false (nothing stored) when the run is no
+ * longer its own. A fresh result is put in its stored form here; the runner hands over the stored
+ * form its thread made.
+ */
+export async function finishRun(runId: string, attempt: number, result: ResultToStore): Promise<boolean> {
+  const stored = storedForm(result);
+  return db().$transaction(async (tx) => {
+    const run = await tx.analysisRun.findUnique({ where: { id: runId }, select: { key: true, analysisVersion: true, status: true, attempt: true } });
+    if (!run || run.status !== "running" || run.attempt !== attempt) return false;
+    await storeResultInTx(tx, run.key, run.analysisVersion, stored);
+    const now = new Date();
+    const r = await tx.analysisRun.updateMany({
+      where: { id: runId, status: "running", attempt },
+      data: { status: "done", progress: 1, stage: "done", resultKey: run.key, finishedAt: now, heartbeatAt: now },
+    });
+    return r.count === 1;
   });
-  return r.count === 1;
 }
 
 /** Fails an unfinished run (only the given attempt's, when one is named). */

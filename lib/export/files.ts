@@ -1,8 +1,8 @@
-/** An export as a download: its file name, content type and bytes or text. */
+/** An export as a download: its file name, content type and bytes, text or a stream of bytes. */
 export interface ExportFile {
   fileName: string;
   contentType: string;
-  body: string | Uint8Array<ArrayBuffer>;
+  body: string | Uint8Array<ArrayBuffer> | ReadableStream<Uint8Array>;
 }
 
 /** An ASCII file-name stem from a name shown to people (accents dropped, other characters → "-"). */

@@ -6,7 +6,8 @@
 import { existsSync } from "node:fs";
 import path from "node:path";
 import { Worker } from "node:worker_threads";
-import type { ShortlistAnalysis, ShortlistArm } from "@/lib/analysis/shortlist";
+import type { ShortlistArm } from "@/lib/analysis/shortlist";
+import type { StoredResult } from "@/lib/analysis/stored";
 import type { RequirementSet } from "@/shared/schemas";
 import type { ThreadMessage } from "./thread-protocol";
 
@@ -33,7 +34,8 @@ export class AnalysisStopped extends Error {
 }
 
 interface ThreadRun {
-  result: Promise<ShortlistAnalysis>;
+  /** The result in its stored form. */
+  result: Promise<StoredResult>;
   /** Ends the thread at once; `result` rejects with AnalysisStopped(reason). */
   stop(reason: string): void;
 }
@@ -56,7 +58,7 @@ export function analyseInThread(
   // path for a module to bundle (and try every file of the project).
   const worker: Worker = Reflect.construct(Worker, [script, { workerData: inputs, resourceLimits: { maxOldGenerationSizeMb: memoryMb }, stdout: false, stderr: false }]);
   let stopped: string | null = null;
-  const result = new Promise<ShortlistAnalysis>((resolve, reject) => {
+  const result = new Promise<StoredResult>((resolve, reject) => {
     let settled = false;
     const settle = (fn: () => void) => {
       if (!settled) {

@@ -160,7 +160,7 @@ function capsuleOf(c: UrdfCollision, ownerToLink: number[]): { capsule: Capsule;
     case "sphere":
       return { capsule: { from: at([0, 0, 0]), to: at([0, 0, 0]), radius: g.radius } };
     case "cylinder":
-      return { capsule: { from: at([0, 0, -g.length / 2]), to: at([0, 0, g.length / 2]), radius: g.radius }, converted: `cylinder (radius ${mm(g.radius)}, length ${mm(g.length)}) → capsule around its axis` };
+      return { capsule: { from: at([0, 0, -g.length / 2]), to: at([0, 0, g.length / 2]), radius: g.radius }, converted: `cylinder (radius ${mm(g.radius)}, length ${mm(g.length)}) → capsule around its axis, reaching ${mm(g.radius)} beyond each end face` };
     case "box": {
       const k = g.size[0] >= g.size[1] && g.size[0] >= g.size[2] ? 0 : g.size[1] >= g.size[2] ? 1 : 2;
       const others = [0, 1, 2].filter((i) => i !== k).map((i) => g.size[i]);

@@ -4,3 +4,4 @@ export * from "./requirements";
 export * from "./roles";
 export * from "./cell";
 export * from "./urdf";
+export * from "./mounting";

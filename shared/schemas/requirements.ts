@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { finite, nameText, nonNegative, positive, vec3, mat4 } from "./common";
 import { SUB_SCORES, type SubScoreKey } from "../sub-scores";
+import { cellExtent, mountingSchema, regionOutsideCell } from "./mounting";
 import { bodyShapeSchema, cellSchema, convertLegacyObstacles, DEFAULT_CLEARANCE, legacyObstacleSchema, MAX_BODY_SHAPES, type Cell } from "./cell";
 
 /**
@@ -39,6 +40,8 @@ const targetSchema = z.object({
   moment: vec3.optional(),
   /** Obstacle names the tool and the payload (not the links) may touch at this target. */
   contact: contactSchema.optional(),
+  /** `must`: the placement search reaches it before any other target (docs/design.md#mount-placement); default want. */
+  priority: z.enum(["must", "want"], { error: "must be must or want" }).optional(),
 });
 export type Target = z.infer<typeof targetSchema>;
 
@@ -203,6 +206,8 @@ const requirementSetObject = z.object({
   weights: weightsSchema.default(DEFAULT_WEIGHTS),
   /** Task sequences for the cycle time (docs/design.md#cycle-time). */
   sequences: z.array(sequenceSchema).max(20, "at most 20 sequences").optional(),
+  /** Where the base may be mounted, for the placement search (docs/design.md#mount-placement); `base` stays the nominal placement. */
+  mounting: mountingSchema.optional(),
 });
 
 /** Every obstacle name, the converted earlier ones included (as {@link convertLegacyObstacles} names them). */
@@ -252,6 +257,10 @@ export const requirementSetSchema = requirementSetObject
       });
     });
     rs.paths.forEach((p, i) => checkContact(p.contact, ["paths", i, "contact"], `path "${p.name}" contact`));
+    if (rs.mounting) {
+      const extent = cellExtent({ base: rs.base, targets: rs.targets, paths: rs.paths, obstacles: [...rs.cell.obstacles, ...convertLegacyObstacles(rs.obstacles ?? [], [])] });
+      for (const [path, message] of regionOutsideCell(rs.mounting, extent)) ctx.addIssue({ code: "custom", path: ["mounting", ...path], message });
+    }
   })
   .transform(({ obstacles, ...rs }) => {
     if (!obstacles || obstacles.length === 0) return rs;

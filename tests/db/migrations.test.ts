@@ -104,7 +104,12 @@ describe(`migrations (${testProvider})`, () => {
     await c.$executeRaw`INSERT INTO "RequirementRevision" ("id", "setId", "revision", "document", "summary", "createdAt") VALUES (${id()}, ${set}, 1, '{}', 'created', ${now})`;
     await c.$executeRaw`INSERT INTO "Shortlist" ("id", "name", "requirementSetId", "requirementRevision", "createdById", "createdAt", "updatedAt") VALUES (${shortlist}, 'Kept', ${set}, 1, ${user}, ${now}, ${now})`;
     await c.$executeRaw`INSERT INTO "ShortlistArm" ("shortlistId", "armId", "armRevision", "position", "addedAt") VALUES (${shortlist}, ${arm}, 1, 0, ${now})`;
-    await c.$executeRaw`INSERT INTO "AnalysisRun" ("id", "shortlistId", "key", "analysisVersion", "status", "progress", "createdAt", "pins", "resultJson") VALUES (${run}, ${shortlist}, 'k', 'v', 'done', 1, ${now}, '{"requirement":{"setId":"s","revision":1},"arms":[]}', '{}')`;
+    await c.$executeRaw`INSERT INTO "AnalysisRun" ("id", "shortlistId", "key", "analysisVersion", "status", "progress", "createdAt", "pins", "resultJson") VALUES (${run}, ${shortlist}, 'k', 'v', 'done', 1, ${now}, '{"requirement":{"setId":"s","revision":1},"arms":[]}', '{"version":"v","arms":[]}')`;
+    // a run that reused the first one's result (it held a copy of the JSON), and one without a result
+    const reuse = id(), queued = id();
+    await c.$executeRaw`INSERT INTO "AnalysisRun" ("id", "shortlistId", "key", "analysisVersion", "status", "progress", "createdAt", "pins", "resultJson", "reusedFromId") VALUES (${reuse}, ${shortlist}, 'k', 'v', 'done', 1, ${now}, '{"requirement":{"setId":"s","revision":1},"arms":[]}', '{"version":"v","arms":[]}', ${run})`;
+    await c.$executeRaw`INSERT INTO "AnalysisRun" ("id", "shortlistId", "key", "analysisVersion", "status", "progress", "createdAt", "pins") VALUES (${queued}, ${shortlist}, 'k2', 'v', 'queued', 0, ${now}, '{"requirement":{"setId":"s","revision":1},"arms":[]}')`;
+    await c.$executeRaw`INSERT INTO "WorkerProcess" ("id", "host", "pid", "concurrency", "startedAt", "lastSeenAt") VALUES ('h:1:x', 'h', 1, 1, ${now}, ${now})`;
     await c.$executeRaw`INSERT INTO "ShareLink" ("id", "shortlistId", "tokenHash", "access", "createdAt") VALUES (${link}, ${shortlist}, ${id()}, 'view', ${now})`;
     await c.$executeRaw`INSERT INTO "Comment" ("id", "shortlistId", "anchorType", "authorId", "body", "revision", "createdAt", "updatedAt") VALUES (${comment}, ${shortlist}, 'shortlist', ${user}, 'kept', 1, ${now}, ${now})`;
     await c.$executeRaw`INSERT INTO "CommentRevision" ("id", "commentId", "revision", "body", "editorId", "createdAt") VALUES (${comment + ":1"}, ${comment}, 1, 'kept', ${user}, ${now})`;
@@ -125,6 +130,10 @@ describe(`migrations (${testProvider})`, () => {
     // The rows read back with the newest client; the new columns have their defaults.
     expect(await c.analysisRun.findUnique({ where: { id: run }, select: { status: true, attempt: true, runner: true } })).toEqual({ status: "done", attempt: 0, runner: null });
     expect((await c.comment.findUnique({ where: { id: comment } }))!.body).toBe("kept");
+    // The stored results moved to one shared row per analysis key, whole, and the runs refer to it.
+    expect(await c.analysisResult.findMany({ select: { key: true, format: true, head: true, armCount: true } })).toEqual([{ key: "k", format: "whole-json", head: '{"version":"v","arms":[]}', armCount: 0 }]);
+    const runs = await c.analysisRun.findMany({ where: { id: { in: [run, reuse, queued] } }, select: { id: true, resultKey: true } });
+    expect(Object.fromEntries(runs.map((r) => [r.id, r.resultKey]))).toEqual({ [run]: "k", [reuse]: "k", [queued]: null });
   }, 180_000);
 
   it("tells that nothing is pending while another process holds the database busy", async () => {

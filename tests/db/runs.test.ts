@@ -12,7 +12,7 @@ import { createRequirementSet } from "@/lib/db/requirements";
 import { cancelRun, claimRun, createShortlist, finishRun, getRun, getRunResult, reportRunProgress, requestAnalysisRun } from "@/lib/db/shortlists";
 import { executeRun } from "@/lib/jobs/analysis-runner";
 import { LocalRunner, localConcurrency, localRunnerName } from "@/lib/jobs/local-runner";
-import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
+import { STORED_FORMAT, type StoredResult } from "@/lib/analysis/stored";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 
 const ROOT = path.resolve(__dirname, "..", "..");
@@ -43,7 +43,8 @@ describe("analysis runs", () => {
     expect(await claimRun(run.id, "worker-b")).toBeNull(); // running: only a takeover may claim it
     const second = await claimRun(run.id, "worker-b", { takeOver: true });
     expect(second).toBe(2);
-    const result = { stand: "in for a stored result" } as unknown as ShortlistAnalysis;
+    // a stand-in for a stored result (its stored form: an empty head, no arms)
+    const result: StoredResult = { format: STORED_FORMAT, head: "{}", arms: [], bytes: 2, jsonBytes: 2 };
     expect(await reportRunProgress(run.id, 1, 0.5, "late")).toBe(false);
     expect(await finishRun(run.id, 1, result)).toBe(false);
     expect((await getRun(run.id))!.status).toBe("running");

@@ -13,6 +13,7 @@ import {
 import { NotFoundError } from "@/lib/db/errors";
 import { executeRun } from "@/lib/jobs/analysis-runner";
 import { analyzeShortlist } from "@/lib/analysis/shortlist";
+import { compactResult } from "@/lib/analysis/compact";
 import { analysisKey } from "@/lib/analysis/key";
 
 let t: TestDb;
@@ -52,11 +53,11 @@ describe("shortlists and analysis runs", () => {
     expect(done).toMatchObject({ status: "done", progress: 1, error: null, pins });
     expect(done!.finishedAt!.getTime()).toBeGreaterThanOrEqual(done!.startedAt!.getTime());
 
-    // The stored result is the analysis library's result for the pinned documents.
+    // The stored result is the stored form of the analysis library's result for the pinned documents.
     const inputs = await loadPinnedInputs(pins);
     expect(done!.key).toBe(analysisKey(inputs.arms, inputs.requirementSet));
     const stored = await getRunResult(first.run.id);
-    expect(JSON.parse(JSON.stringify(stored))).toEqual(JSON.parse(JSON.stringify(analyzeShortlist(inputs.arms, inputs.requirementSet))));
+    expect(JSON.parse(JSON.stringify(stored))).toEqual(JSON.parse(JSON.stringify(compactResult(analyzeShortlist(inputs.arms, inputs.requirementSet)))));
     expect(stored!.arms.map((a) => a.id)).toEqual([armB, armA]);
 
     // Same inputs: a cache hit, no new run.
@@ -67,6 +68,11 @@ describe("shortlists and analysis runs", () => {
     const reused = await createShortlist(null, { name: "Same inputs", requirementSetId: setId, armIds: [armB, armA] });
     expect(reused).toMatchObject({ cached: true, needsStart: false, run: { status: "done", reusedFromId: first.run.id, queuePosition: null } });
     expect(await getRunResult(reused.run.id)).toEqual(stored);
+    // ...by referring to the one stored result of that key: nothing is copied.
+    const rows = await t.client.analysisRun.findMany({ where: { id: { in: [first.run.id, reused.run.id] } }, select: { resultKey: true } });
+    expect(rows.map((r) => r.resultKey)).toEqual([done!.key, done!.key]);
+    expect(await t.client.analysisResult.count({ where: { key: done!.key } })).toBe(1);
+    expect(await t.client.analysisResultArm.count({ where: { resultKey: done!.key } })).toBe(2);
 
     // An arm edit makes the pins stale; the shortlist says which and from which revision.
     await updateArm(null, armA, 1, armDoc({ specs: { ratedPayload: 6, reach: 0.7, price: 21000, currency: "EUR" } }));

@@ -11,6 +11,7 @@ import { createRequirementSet } from "@/lib/db/requirements";
 import { cancelRun, getRun, getRunResult, loadPinnedInputs } from "@/lib/db/shortlists";
 import { createShortlistWithRun } from "@/lib/jobs/runs";
 import { analyzeShortlist } from "@/lib/analysis/shortlist";
+import { compactResult } from "@/lib/analysis/compact";
 import { loadSeedArms, loadSeedRequirementSets } from "@/seed-data/index";
 import { killWorkers, startWorkerProcess, waitFor, type WorkerProcess } from "./workers";
 
@@ -56,7 +57,7 @@ async function shortlists(n: number, setId: string, armIds: string[], label: str
 }
 
 const statusOf = async (runIds: string[]) => {
-  const rows = await t.client.analysisRun.findMany({ where: { id: { in: runIds } }, select: { id: true, status: true, attempt: true, runner: true, resultJson: true, error: true } });
+  const rows = await t.client.analysisRun.findMany({ where: { id: { in: runIds } }, select: { id: true, status: true, attempt: true, runner: true, resultKey: true, error: true } });
   return new Map(rows.map((r) => [r.id, r]));
 };
 
@@ -79,7 +80,7 @@ describe("analysis jobs on the queue with worker processes", () => {
     );
     const runs = [...done.values()];
     expect(runs.filter((r) => r.status === "done")).toHaveLength(200);
-    expect(runs.every((r) => r.resultJson !== null)).toBe(true);
+    expect(runs.every((r) => r.resultKey !== null)).toBe(true);
     // Exactly once: one claim per run, 200 claims in all, and every job completed once.
     expect(runs.map((r) => r.attempt)).toEqual(runIds.map(() => 1));
     const jobs = await jobsOf(runIds);
@@ -90,10 +91,10 @@ describe("analysis jobs on the queue with worker processes", () => {
     expect(byWorker.reduce((a, b) => a + b, 0)).toBe(200);
     expect(Math.min(...byWorker)).toBeGreaterThan(0);
     console.log(`[queue] 200 jobs: worker A ran ${byWorker[0]}, worker B ${byWorker[1]}`);
-    // The stored result is the analysis of the pinned inputs, as computed here.
+    // The stored result is the stored form of the analysis of the pinned inputs, as computed here.
     const first = await getRun(runIds[0]);
     const inputs = await loadPinnedInputs(first!.pins!);
-    expect(JSON.parse(JSON.stringify(await getRunResult(runIds[0])))).toEqual(JSON.parse(JSON.stringify(analyzeShortlist(inputs.arms, inputs.requirementSet))));
+    expect(JSON.parse(JSON.stringify(await getRunResult(runIds[0])))).toEqual(JSON.parse(JSON.stringify(compactResult(analyzeShortlist(inputs.arms, inputs.requirementSet)))));
 
     // A stopped worker leaves its row stopped.
     await Promise.all(workers.map((w) => w.kill("SIGTERM")));
@@ -131,7 +132,7 @@ describe("analysis jobs on the queue with worker processes", () => {
     expect(run.status).toBe("done");
     expect(run.runner).toBe(b.id());
     expect(run.attempt).toBe(2);
-    expect(run.resultJson).not.toBeNull();
+    expect(run.resultKey).not.toBeNull();
     expect(job).toMatchObject({ state: "completed", retry_count: 1 });
   }, 180_000);
 

@@ -168,6 +168,9 @@ describe("importUrdf: collision shapes", () => {
     expect(maxAbsDiff(c.from, [0, 0, 0])).toBeLessThan(1e-15);
     expect(maxAbsDiff(c.to, [0.34, 0, 0])).toBeLessThan(1e-15);
     for (const t of [0, 0.34]) for (const a of [0, 1, 2, 3, 4, 5]) expect(inside([t, 0.06 * Math.cos(a), 0.06 * Math.sin(a)], c)).toBe(true);
+    // The capsule's caps stick out of the end faces by the radius, and the report says so.
+    expect(inside([-0.059, 0, 0], c)).toBe(true);
+    expect(r.report.converted.find((m) => m.includes(": cylinder (radius 60 mm"))).toMatch(/capsule around its axis, reaching 60(\.0)? mm beyond each end face/);
   });
 
   it("a box becomes the capsule along its longest edge that contains all 8 corners", () => {

@@ -1,8 +1,7 @@
 import { createShortlistInput, exportQuery, runViewQuery, weightsParam } from "@/shared/schemas/shortlists";
-import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
-import { getRun, getRunArmView, getRunResult, getShortlist, listRuns, listShortlists, type RunInfo } from "@/lib/db";
+import { getRun, getRunArmView, getRunResultKey, getShortlist, listRuns, listShortlists, readResultArms, readResultHead, type RunInfo } from "@/lib/db";
 import { cancelRun, createShortlistWithRun, repinAndRun, requestRun } from "@/lib/jobs/runs";
-import { shortlistExport } from "@/lib/export";
+import { shortlistExportStream } from "@/lib/export";
 import { notFound } from "@/lib/http/errors";
 import { readJsonObject } from "@/lib/http/body";
 import { download, json, parseWith, requireUser, route } from "@/lib/http/route";
@@ -68,6 +67,10 @@ export const runArmView = route<{ id: string; runId: string }>(async (req, ctx) 
   return json(await getRunArmView(id, runId, q.arm));
 });
 
+/**
+ * A shortlist's export, written as it is sent (lib/export shortlistExportStream): the stored
+ * result is read arm by arm, never parsed or serialised in one piece on this thread.
+ */
 export const exportResult = route<{ id: string }>(async (req, ctx) => {
   await requireUser(req, "shortlist:read");
   const { id } = await ctx.params;
@@ -77,15 +80,16 @@ export const exportResult = route<{ id: string }>(async (req, ctx) => {
   const runs = await listRuns(id);
   const run = q.run ? await runOf(id, q.run) : runs.find((r) => r.status === "done");
   if (!run) throw notFound(`shortlist ${id} has no finished analysis yet`);
-  const analysis: ShortlistAnalysis | null = await getRunResult(run.id);
-  if (!analysis || !run.pins) throw notFound(`analysis run ${run.id} has no result (status ${run.status})`);
-  const file = await shortlistExport({
+  const key = await getRunResultKey(run.id);
+  const head = key ? await readResultHead(key) : null;
+  if (!key || !head || !run.pins) throw notFound(`analysis run ${run.id} has no result (status ${run.status})`);
+  const file = await shortlistExportStream({
     shortlist: { id, name: shortlist.name },
     run: { id: run.id, finishedAt: run.finishedAt, requirement: run.pins.requirement },
-    analysis,
+    source: { head, arms: () => readResultArms(key) },
     format: q.format,
     table: q.table,
-    weights: q.weights ? parseWith(weightsParam(analysis.weights), q.weights, "weights") : undefined,
+    weights: q.weights ? parseWith(weightsParam(head.weights), q.weights, "weights") : undefined,
     exportedAt: new Date(),
   });
   return download(file);
