@@ -18,9 +18,10 @@ import { analyzeTarget, DEFAULT_TARGET_BUDGET, FORCE_MARGINAL_FRACTION, type Tar
 import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, type WorkspaceBudget } from "./workspace";
 import type { Verdict } from "./types";
 import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
+import { createMoveChecker } from "./cycle-cell";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.8.0";
+export const ANALYSIS_VERSION = "analysis-1.9.0";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
@@ -251,7 +252,7 @@ function finishArm(
   specs.forEach((s) => counts.specs[s.verdict]++);
   const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map((s) => requirementText(s));
   const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map((s) => requirementText(s));
-  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req);
+  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req, ctx ? createMoveChecker(ctx, req) : null);
   const sub = subScores(arm, error ? null : ctx, targets, paths, cycles, req, candidates);
   const reached = targets.filter((t) => t.reached).length;
   const summary = error

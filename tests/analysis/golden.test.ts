@@ -36,6 +36,9 @@ const GOLDEN: Record<string, string> = {
   // 1.8.0: a cycle-time sub-score in the ranking (1 − t/2R on the worst sequence with a required time), and
   // the caution says cycle times are estimates for comparing arms.
   "analysis-1.8.0": "2728bcaeff8ac0480b564b0ab57508da6493e57a57efe04e28a2569efae8cb00",
+  // 1.9.0: the cycle in the cell: colliding branches and paths left out, each move checked along its
+  // joint-space line and a blocked one left out of the branch choice; steps carry their clearance.
+  "analysis-1.9.0": "4ecb560f9dc35d11503765b7f0a3076800c8ceedf7f8140b7fa1f40c6d32d414",
 };
 
 const DEG = Math.PI / 180;
