@@ -61,7 +61,7 @@ export function CycleChart({ data }: { data: CycleChartData }) {
   const axisWidth = narrow ? 100 : 190;
   const chars = narrow ? 13 : 30;
   const colours = stepColours(data.steps);
-  const rows = data.rows.map((r) => ({ ...r, label: `${r.estimate ? "≈ " : ""}${r.arm}${r.time === null ? " (unknown)" : ""}` }));
+  const rows = data.rows.map((r) => ({ ...r, label: `${r.estimate ? "≈ " : ""}${r.arm}${r.time === null ? (r.blocked ? " (blocked)" : " (unknown)") : ""}` }));
   const height = 60 + 40 * rows.length;
   const longest = Math.max(...data.rows.map((r) => r.time ?? 0), data.required ?? 0);
   if (!mounted) return <div className="chart-placeholder" style={{ height: height + 40 }} aria-hidden="true" />;

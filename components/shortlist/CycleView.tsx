@@ -108,6 +108,7 @@ export function CycleSection({ analysis }: { analysis: ShortlistAnalysis }) {
 export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
   const cycles = arm.cycles ?? [];
   if (cycles.length === 0) return null;
+  const mmText = (m: number | null | undefined) => (m === null || m === undefined ? "–" : fixed(m * 1000, 1));
   return (
     <>
       <h4>Cycle time</h4>
@@ -116,6 +117,11 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
           <p className="sub">
             <CycleVerdict c={c} /> <strong>{c.name}</strong>: {c.reason}
           </p>
+          {(c.movesChecked ?? 0) > 0 && (
+            <p className="sub">
+              Moves checked in the cell along their joint-space line: {c.movesChecked}, of which {c.movesBlocked} collide and were left out of the choice of branches. The clearance along a move is exact where the move was evaluated and a proven lower bound elsewhere.
+            </p>
+          )}
           {c.steps.length > 0 && c.time !== null && (
             <div className="table-wrap">
               <table className="printable" data-testid="cycle-steps">
@@ -130,6 +136,7 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
                     <th scope="col" className="num">Time (s)</th>
                     <th scope="col" className="num">Share (%)</th>
                     <th scope="col">Limiting joint</th>
+                    {c.steps.some((s) => s.clearance !== null && s.clearance !== undefined) && <th scope="col" className="num">Clearance along the move (mm)</th>}
                   </tr>
                 </thead>
                 <tbody>
@@ -145,6 +152,7 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
                           ? "–"
                           : `joint ${s.limitingJoint}${c.assumedAcceleration.includes(s.limitingJoint) ? " (assumed acceleration)" : ""}`}
                       </td>
+                      {c.steps.some((x) => x.clearance !== null && x.clearance !== undefined) && <td className="num">{mmText(s.clearance)}</td>}
                     </tr>
                   ))}
                 </tbody>
@@ -155,7 +163,7 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
                     </th>
                     <td className="num">{sText(c.time)}</td>
                     <td className="num">100</td>
-                    <td />
+                    <td colSpan={c.steps.some((x) => x.clearance !== null && x.clearance !== undefined) ? 2 : 1} />
                   </tr>
                 </tfoot>
               </table>

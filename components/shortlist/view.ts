@@ -122,7 +122,7 @@ export interface CycleChartData {
   /** The sequence's steps in order (the same for every arm); `key` names the data field. */
   steps: { key: string; label: string; kind: "move" | "path" | "wait" }[];
   /** One row per arm, in the analysis's order: the step times under the steps' keys (s). */
-  rows: ({ arm: string; armId: string; time: number | null; estimate: boolean } & Record<string, number | string | boolean | null>)[];
+  rows: ({ arm: string; armId: string; time: number | null; estimate: boolean; blocked: boolean } & Record<string, number | string | boolean | null>)[];
 }
 
 const ms = (t: number) => Math.round(t * 1000) / 1000;
@@ -138,7 +138,7 @@ export function cycleChartData(a: ShortlistAnalysis, index: number): CycleChartD
   const steps = known.steps.map((s, k) => ({ key: `s${k}`, label: `${k + 1}. ${s.kind === "wait" ? "wait" : s.kind === "path" ? `path ${s.name}` : s.name}`, kind: s.kind }));
   const rows = a.arms.map((arm, i) => {
     const c = cycles[i];
-    const row: CycleChartData["rows"][number] = { arm: arm.name, armId: arm.id, time: c?.time ?? null, estimate: c?.estimate ?? false };
+    const row: CycleChartData["rows"][number] = { arm: arm.name, armId: arm.id, time: c?.time ?? null, estimate: c?.estimate ?? false, blocked: !!c?.blocked };
     if (c && c.time !== null) c.steps.forEach((s, k) => (row[`s${k}`] = ms(s.time)));
     return row;
   });
