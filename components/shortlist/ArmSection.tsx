@@ -1,6 +1,6 @@
 /**
  * One arm's section of the shortlist page: the 3-D view, force capability, payload, the cell,
- * the path profiles and the workspace. Rendered on the server for the first few arms and in the
+ * the cycle, the path profiles and the workspace. Rendered on the server for the first few arms and in the
  * browser for the others once their data is loaded (LazyArmSection), so it takes its arm as props.
  */
 import type { ArmAnalysis } from "@/lib/analysis/shortlist";
@@ -9,6 +9,7 @@ import { fixed } from "@/shared/format";
 import { VerdictTag } from "./verdict";
 import { pathProfile, workspaceData } from "./view";
 import { SolutionViewPanel } from "../view3d/launchers";
+import { ArmCycles } from "./CycleView";
 
 export const mmText = (m: number | null | undefined, d = 1) => (m === null || m === undefined ? "–" : fixed(m * 1000, d));
 
@@ -200,6 +201,7 @@ export function ArmSection({ arm, index, shortlistId, runId, required }: { arm: 
               <CellTable arm={arm} required={required} />
             </>
           )}
+          <ArmCycles arm={arm} />
           {arm.paths.length > 0 && <h4>Path profiles</h4>}
           {arm.paths.map((p) => (
             <div key={p.name}>

@@ -50,7 +50,7 @@ export function LazyArmSection({ arm, index, shortlistId, runId, required }: { a
         <button type="button" onClick={() => void load()} disabled={state.kind === "loading"} data-testid="arm-section-load" aria-describedby={`arm-${index}-h`}>
           {state.kind === "loading" ? "Loading…" : "Show details"}
         </button>{" "}
-        <span className="sub">3-D view, force capability, payload, cell, path profiles and workspace of this arm.</span>
+        <span className="sub">3-D view, force capability, payload, cell, cycle, path profiles and workspace of this arm.</span>
       </p>
       {state.kind === "failed" && (
         <p role="alert" className="err">

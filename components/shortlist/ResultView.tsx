@@ -14,6 +14,7 @@ import { LazyArmSection, LoadAllArmSections } from "./LazyArmSection";
 const EAGER_ARM_SECTIONS = 3;
 import { armClearance } from "@/lib/analysis/clearance";
 import { CellCaution } from "../CellCaution";
+import { CycleSection } from "./CycleView";
 import { CycleCompliance } from "./CycleCompliance";
 
 
@@ -148,6 +149,7 @@ export function ResultView(props: {
       />
       <TaskMatrix columns={matrixColumns(analysis)} rows={matrixRows(analysis)} threshold={analysis.thresholds.dexterityMarginal} />
       <ComplianceTable analysis={analysis} />
+      <CycleSection analysis={analysis} />
       <h2 className="print-break">Per arm</h2>
       {analysis.arms.length > EAGER_ARM_SECTIONS && <LoadAllArmSections count={analysis.arms.length - EAGER_ARM_SECTIONS} />}
       {analysis.arms.map((a, i) =>
