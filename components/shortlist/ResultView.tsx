@@ -3,7 +3,7 @@ import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import { RankingPanel, type RankingArm } from "./RankingPanel";
 import { TaskMatrix } from "./TaskMatrix";
 import { VerdictTag } from "./verdict";
-import { matrixColumns, matrixRows } from "./view";
+import { matrixColumns, matrixRows, matrixSummaryRows } from "./view";
 import { ArmSection, mmText } from "./ArmSection";
 import { LazyArmSection, LoadAllArmSections } from "./LazyArmSection";
 
@@ -147,7 +147,16 @@ export function ResultView(props: {
         requirementName={analysis.requirementSet.name}
         canSaveWeights={props.canSaveWeights}
       />
-      <TaskMatrix columns={matrixColumns(analysis)} rows={matrixRows(analysis)} threshold={analysis.thresholds.dexterityMarginal} />
+      {analysis.arms.length > EAGER_ARM_SECTIONS ? (
+        <TaskMatrix
+          columns={matrixColumns(analysis)}
+          rows={matrixSummaryRows(analysis)}
+          threshold={analysis.thresholds.dexterityMarginal}
+          source={{ shortlistId: props.shortlistId, runId: props.runId, requirementSet: { targets: analysis.requirementSet.targets, paths: analysis.requirementSet.paths } }}
+        />
+      ) : (
+        <TaskMatrix columns={matrixColumns(analysis)} rows={matrixRows(analysis)} threshold={analysis.thresholds.dexterityMarginal} />
+      )}
       <ComplianceTable analysis={analysis} />
       <CycleSection analysis={analysis} />
       <h2 className="print-break">Per arm</h2>

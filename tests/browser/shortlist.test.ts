@@ -131,6 +131,9 @@ describe("shortlist page", () => {
     await p.keyboard.press("Enter");
     const details = p.getByRole("region", { name: "Cell details" });
     await details.getByText("Limiting factor:").waitFor();
+    // the page sent this 9-arm matrix without reasons and details: they load with the arm on opening
+    await expect.poll(() => details.locator("li").count()).toBeGreaterThan(0);
+    expect(await details.getByText("Loading the details…").count()).toBe(0);
     const heading = (await details.locator("h3").textContent())!;
     expect(label.startsWith(heading.split(":")[0].replace(" · ", ", "))).toBe(true);
     expect(await second.getAttribute("aria-expanded")).toBe("true");
