@@ -21,7 +21,7 @@ import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
 import { createMoveChecker } from "./cycle-cell";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.9.1";
+export const ANALYSIS_VERSION = "analysis-1.10.0";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
