@@ -36,6 +36,9 @@ const GOLDEN: Record<string, string> = {
   // 1.8.0: a cycle-time sub-score in the ranking (1 − t/2R on the worst sequence with a required time), and
   // the caution says cycle times are estimates for comparing arms.
   "analysis-1.8.0": "2728bcaeff8ac0480b564b0ab57508da6493e57a57efe04e28a2569efae8cb00",
+  // 1.9.0: with a mounting region, every arm's placement, its analysis there and the ranking at the
+  // placements (this input has no region: only the version differs).
+  "analysis-1.9.0": "43d90eb0ade3ce4d4a84b89012fff57278970191f65dc4ddcd02b39818797881",
 };
 
 const DEG = Math.PI / 180;
