@@ -5,7 +5,8 @@ import { RankingPanel, type RankingArm } from "./RankingPanel";
 import { TaskMatrix } from "./TaskMatrix";
 import { fixed } from "@/shared/format";
 import { VerdictTag } from "./verdict";
-import { matrixColumns, matrixRows, pathProfile, workspaceData } from "./view";
+import { matrixColumns, matrixRows, pathProfile, placementRows, workspaceData } from "./view";
+import { PlacementPanel } from "./PlacementPanel";
 import { armClearance } from "@/lib/analysis/clearance";
 import { CellCaution } from "../CellCaution";
 import { CycleCompliance } from "./CycleCompliance";
@@ -328,6 +329,8 @@ export function ResultView(props: {
   shortlistId: string;
   runId: string;
   requirementSetId: string;
+  /** The requirement-set revision the result was made for (saving a placement refuses a later one). */
+  requirementRevision?: number | null;
   canSaveWeights: boolean;
 }) {
   const { analysis } = props;
@@ -351,6 +354,16 @@ export function ResultView(props: {
         requirementName={analysis.requirementSet.name}
         canSaveWeights={props.canSaveWeights}
       />
+      {analysis.placement && (
+        <PlacementPanel
+          rows={placementRows(analysis.arms, analysis.ranking, analysis.placement)}
+          placement={analysis.placement}
+          targets={analysis.placement.targets}
+          requirementSetId={props.requirementSetId}
+          requirementRevision={props.requirementRevision ?? null}
+          canSave={props.canSaveWeights}
+        />
+      )}
       <TaskMatrix columns={matrixColumns(analysis)} rows={matrixRows(analysis)} threshold={analysis.thresholds.dexterityMarginal} />
       <ComplianceTable analysis={analysis} />
       <h2 className="print-break">Per arm</h2>
