@@ -79,7 +79,9 @@ function walkPoses(arm: ArmDocument, rng: Rng, count: number, stepRad: number, e
     forwardKinematics(model, data, q);
     const t = data.toolPose;
     const pitch = Math.asin(Math.max(-1, Math.min(1, -t[8])));
-    out.push({ position: [t[3], t[7], t[11]], rpy: [Math.atan2(t[9], t[10]), pitch, Math.atan2(t[4], t[0])] });
+    // rounded to 1 µm and 1 µrad (well inside the default tolerances) to keep request bodies small
+    const r6 = (v: number) => Math.round(v * 1e6) / 1e6;
+    out.push({ position: [r6(t[3]), r6(t[7]), r6(t[11])], rpy: [r6(Math.atan2(t[9], t[10])), r6(pitch), r6(Math.atan2(t[4], t[0]))] });
   }
   return out;
 }

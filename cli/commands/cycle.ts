@@ -1,10 +1,9 @@
 /**
  * `cycle`: the cycle time of each task sequence of a requirement set for one arm
  * (docs/design.md#cycle-time), from the same analysis the server runs: its reached branches of
- * each target and its paths.
+ * each target, its paths and the moves checked in the cell.
  */
 import { analyzeShortlist } from "@/lib/analysis";
-import { analyzeCycles } from "@/lib/analysis/cycle";
 import { requirementSetSchema } from "@/shared/schemas/requirements";
 import { CliError, parseOptions, readArm, readJsonFile, required, round, type CliCommand } from "../io";
 
@@ -26,7 +25,7 @@ export const command: CliCommand = {
     if (!req.sequences?.length) throw new CliError(`--requirements ${reqFile}: sequences`, "the requirement set has no sequences");
     const analysis = analyzeShortlist([{ id: "1", revision: 1, arm }], req).arms[0];
     if (analysis.error) throw new CliError("--arm", analysis.error);
-    const cycles = analyzeCycles(arm, analysis, req);
+    const cycles = analysis.cycles;
     return {
       sequences: cycles.map((c) => ({
         name: c.name,
@@ -37,6 +36,7 @@ export const command: CliCommand = {
         verdict: c.verdict,
         estimate: c.estimate,
         assumedAcceleration: c.assumedAcceleration,
+        blocked: c.blocked,
         reason: c.reason,
       })),
     };

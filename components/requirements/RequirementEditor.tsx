@@ -12,6 +12,7 @@ import { SequenceEditor } from "./SequenceEditor";
 import { SpecTable } from "./SpecTable";
 import { ShapeTable } from "./ShapeTable";
 import { CellCaution } from "../CellCaution";
+import { CycleCaution } from "../CycleCaution";
 import { CellViewPanel } from "../view3d/launchers";
 
 interface Props {
@@ -216,6 +217,7 @@ export function RequirementEditor(props: Props) {
           estimated cycle is compared with it on the shortlist page.
         </p>
         <SequenceEditor sequences={form.sequences} form={form} errors={errMap} readOnly={readOnly} onChange={(sequences, s) => update({ sequences }, s)} />
+        <CycleCaution />
       </fieldset>
 
       <fieldset className="panel">

@@ -6,7 +6,7 @@ import { RowActionsCell } from "../RowControls";
 import { parseNum } from "../pose";
 import { newSequence, newStep, perHour, switchRequiredMode, type ReqForm, type RequiredMode, type SequenceForm, type StepRow } from "./reqForm";
 
-const KIND_LABEL: Record<StepRow["kind"], string> = { move: "move to a target", path: "follow a path", wait: "wait" };
+const KIND_LABEL: Record<StepRow["kind"], string> = { move: "move", path: "follow path", wait: "wait" };
 const MODE_OPTIONS: { value: RequiredMode; label: string }[] = [
   { value: "none", label: "none" },
   { value: "time", label: "a cycle time (s)" },
@@ -109,7 +109,6 @@ export function SequenceEditor(props: {
               <TextField label="Name" name={`${pre}.name`} value={q.name} onChange={(v) => setSeq(i, { ...q, name: v })} error={e(`${pre}.name`)} readOnly={readOnly} />
               <SelectField
                 label="Required"
-                hint="the cycle time to meet"
                 name={`${pre}.requiredMode`}
                 value={q.requiredMode}
                 options={MODE_OPTIONS}
@@ -127,7 +126,7 @@ export function SequenceEditor(props: {
             {q.requiredMode !== "none" && (
               <p className="hint" data-testid={`sequence-${n}-required-other`} aria-live="polite">
                 {other ?? "Enter a number greater than 0."}
-                {q.requiredMode === "rate" ? " Saved as the cycle time 3600 / rate." : ""}
+                {q.requiredMode === "rate" ? "; saved as the cycle time 3600 / rate." : ""}
               </p>
             )}
             <div className="table-wrap">
@@ -138,7 +137,7 @@ export function SequenceEditor(props: {
                     <th scope="col">Step</th>
                     <th scope="col">Kind</th>
                     <th scope="col">Target or path</th>
-                    <th scope="col" className="num">Dwell or wait (s)</th>
+                    <th scope="col">Dwell or wait (s)</th>
                     {!readOnly && <th scope="col">Order</th>}
                   </tr>
                 </thead>

@@ -9,6 +9,7 @@ import { matrixColumns, matrixRows, pathProfile, placementRows, workspaceData } 
 import { PlacementPanel } from "./PlacementPanel";
 import { armClearance } from "@/lib/analysis/clearance";
 import { CellCaution } from "../CellCaution";
+import { ArmCycles, CycleSection } from "./CycleView";
 import { CycleCompliance } from "./CycleCompliance";
 
 const mmText = (m: number | null | undefined, d = 1) => (m === null || m === undefined ? "–" : fixed(m * 1000, d));
@@ -202,6 +203,7 @@ function ArmSection({ arm, index, shortlistId, runId, required }: { arm: ArmAnal
               <CellTable arm={arm} required={required} />
             </>
           )}
+          <ArmCycles arm={arm} />
           {arm.paths.length > 0 && <h4>Path profiles</h4>}
           {arm.paths.map((p) => (
             <div key={p.name}>
@@ -366,6 +368,7 @@ export function ResultView(props: {
       )}
       <TaskMatrix columns={matrixColumns(analysis)} rows={matrixRows(analysis)} threshold={analysis.thresholds.dexterityMarginal} />
       <ComplianceTable analysis={analysis} />
+      <CycleSection analysis={analysis} />
       <h2 className="print-break">Per arm</h2>
       {analysis.arms.map((a, i) => (
         <ArmSection key={a.id} arm={a} index={i} shortlistId={props.shortlistId} runId={props.runId} required={analysis.cell?.clearance ?? 0} />

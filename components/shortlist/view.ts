@@ -137,3 +137,33 @@ export function placementRows(arms: readonly ArmAnalysis[], ranking: readonly Ra
   });
 }
 
+/** One sequence across the arms, for the stacked-bar chart (s). */
+export interface CycleChartData {
+  sequence: string;
+  /** Required cycle time (s), or null. */
+  required: number | null;
+  /** The sequence's steps in order (the same for every arm); `key` names the data field. */
+  steps: { key: string; label: string; kind: "move" | "path" | "wait" }[];
+  /** One row per arm, in the analysis's order: the step times under the steps' keys (s). */
+  rows: ({ arm: string; armId: string; time: number | null; estimate: boolean; blocked: boolean } & Record<string, number | string | boolean | null>)[];
+}
+
+const ms = (t: number) => Math.round(t * 1000) / 1000;
+
+/**
+ * The cycle of sequence `index` for every arm: each arm's step times as one row (null time for an
+ * arm whose cycle is unknown). Null when no arm has a known cycle for it.
+ */
+export function cycleChartData(a: ShortlistAnalysis, index: number): CycleChartData | null {
+  const cycles = a.arms.map((arm) => arm.cycles?.[index]);
+  const known = cycles.find((c) => c && c.time !== null && c.steps.length > 0);
+  if (!known) return null;
+  const steps = known.steps.map((s, k) => ({ key: `s${k}`, label: `${k + 1}. ${s.kind === "wait" ? "wait" : s.kind === "path" ? `path ${s.name}` : s.name}`, kind: s.kind }));
+  const rows = a.arms.map((arm, i) => {
+    const c = cycles[i];
+    const row: CycleChartData["rows"][number] = { arm: arm.name, armId: arm.id, time: c?.time ?? null, estimate: c?.estimate ?? false, blocked: !!c?.blocked };
+    if (c && c.time !== null) c.steps.forEach((s, k) => (row[`s${k}`] = ms(s.time)));
+    return row;
+  });
+  return { sequence: known.name, required: known.required, steps, rows };
+}

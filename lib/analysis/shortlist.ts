@@ -20,9 +20,10 @@ import type { Verdict } from "./types";
 import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
 import { placeShortlist, type CoverageMap, type Placement } from "./placement";
 import type { MountingSpec } from "@/shared/schemas/mounting";
+import { createMoveChecker } from "./cycle-cell";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.9.0";
+export const ANALYSIS_VERSION = "analysis-1.10.0";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
@@ -341,7 +342,7 @@ function finishArm(
   specs.forEach((s) => counts.specs[s.verdict]++);
   const failedMusts = specs.filter((s) => s.priority === "must" && s.verdict === "fails").map((s) => requirementText(s));
   const unknownMusts = specs.filter((s) => s.priority === "must" && s.verdict === "unknown").map((s) => requirementText(s));
-  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req);
+  const cycles = error ? (req.sequences ?? []).map((q) => unknownCycle(q, `not analysed: ${error}`)) : analyzeCycles(arm, { targets, paths }, req, ctx ? createMoveChecker(ctx, req) : null);
   const sub = subScores(arm, error ? null : ctx, targets, paths, cycles, req, candidates);
   const reached = targets.filter((t) => t.reached).length;
   const summary = error

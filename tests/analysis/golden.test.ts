@@ -36,9 +36,12 @@ const GOLDEN: Record<string, string> = {
   // 1.8.0: a cycle-time sub-score in the ranking (1 − t/2R on the worst sequence with a required time), and
   // the caution says cycle times are estimates for comparing arms.
   "analysis-1.8.0": "2728bcaeff8ac0480b564b0ab57508da6493e57a57efe04e28a2569efae8cb00",
-  // 1.9.0: with a mounting region, every arm's placement, its analysis there and the ranking at the
+  // 1.9.0: the cycle in the cell: colliding branches and paths left out, each move checked along its
+  // joint-space line and a blocked one left out of the branch choice; steps carry their clearance.
+  "analysis-1.9.0": "4ecb560f9dc35d11503765b7f0a3076800c8ceedf7f8140b7fa1f40c6d32d414",
+  // 1.10.0: with a mounting region, every arm's placement, its analysis there and the ranking at the
   // placements (this input has no region: only the version differs).
-  "analysis-1.9.0": "43d90eb0ade3ce4d4a84b89012fff57278970191f65dc4ddcd02b39818797881",
+  "analysis-1.10.0": "ba2a67087d6e126d6e4fea2708ea7c7c23c4e90cb3d1d5d0018f5dfe47971aed",
 };
 
 const DEG = Math.PI / 180;

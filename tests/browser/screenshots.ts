@@ -1,14 +1,73 @@
 /**
  * Screenshots of every page at 1280 and 390 px wide, for looking at the UI (not a test):
- *   npx tsx tests/browser/screenshots.ts [outDir]
- * Uses the harness: temporary seeded database, built server, headless Chromium.
+ *   npx tsx tests/browser/screenshots.ts [outDir] [--only=cycle] [--widths=1366,390]
+ * `--only=cycle` takes just the cycle-time screens (the joint table's acceleration column and
+ * note, the sequences editor, the shortlist's cycle section and an arm's breakdown) on a set made
+ * for them. Uses the harness: temporary seeded database, built server, headless Chromium.
  */
 import { mkdirSync } from "node:fs";
 import path from "node:path";
+import type { Page } from "playwright-core";
 import { signUp, startHarness } from "./harness";
 
+const flag = (name: string) => process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=")[1];
+const WIDTHS = (flag("widths") ?? "1280,390").split(",").map(Number);
+
+/** The cycle-time screens: arms with and without acceleration limits, a set with two sequences, a shortlist of three arms. */
+async function cycleShots(p: Page, out: string, shots: [string, string][]): Promise<void> {
+  const element = async (name: string, testId: string) => {
+    for (const width of WIDTHS) {
+      await p.setViewportSize({ width, height: 900 });
+      await p.waitForTimeout(300);
+      const el = p.getByTestId(testId).first();
+      await el.scrollIntoViewIfNeeded();
+      const file = path.join(out, `${name}-${width}.png`);
+      await el.screenshot({ path: file });
+      shots.push([name, file]);
+    }
+  };
+  const I = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+  // Page-side calls one by one (a named helper inside evaluate would need tsx's __name there).
+  const post = (url: string, body: unknown) =>
+    p.evaluate(async (a) => (await fetch(a.url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(a.body) })).json(), { url, body }) as Promise<{ id: string }>;
+  const get = (url: string) => p.evaluate(async (u) => (await fetch(u)).json(), url);
+  const arms = (await get("/api/arms")).arms as { id: string; name: string }[];
+  const reach = arms.find((a) => a.name === "Reach Cobot 10")!.id;
+  const src = (await get(`/api/arms/${reach}`)).arm as { joints: object[] };
+  const stated = await post("/api/arms", { ...src, name: "Reach Cobot 10 (accelerations stated)", joints: src.joints.map((j, i) => ({ ...j, ...(i < 4 ? { maxAcceleration: 4 + i } : {}) })) });
+  const req = await post("/api/requirements", {
+    name: "Cycle screens", base: I, tool: { tcp: [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0.1, 0, 0, 0, 1], mass: 0.5, cog: [0, 0, 0.05] }, payload: { mass: 0, cog: [0, 0, 0] },
+    targets: [
+      { name: "pick", position: [0.45, 0.2, 0.3], rpy: [Math.PI, 0, 0], mode: "axis" },
+      { name: "place", position: [0.4, -0.2, 0.25], rpy: [Math.PI, 0, 0], mode: "axis" },
+      { name: "press", position: [0.5, 0, 0.35], rpy: [Math.PI, 0, 0], mode: "axis" },
+    ],
+    paths: [{ name: "inspect", mode: "axis", step: 0.005, speed: 0.1, waypoints: [{ position: [0.4, -0.1, 0.3], rpy: [Math.PI, 0, 0] }, { position: [0.4, 0.1, 0.3], rpy: [Math.PI, 0, 0] }] }],
+    specs: [],
+    sequences: [
+      { name: "pick, press, place", steps: [{ kind: "move", target: "pick", dwell: 0.4 }, { kind: "move", target: "press", dwell: 1.2 }, { kind: "move", target: "place", dwell: 0.3 }, { kind: "wait", seconds: 0.5 }], required: 6 },
+      { name: "inspection", steps: [{ kind: "move", target: "pick" }, { kind: "path", path: "inspect" }] },
+    ],
+  });
+  const shortlist = await post("/api/shortlists", { name: "Cycle screens", requirementSetId: req.id, armIds: [reach, stated.id, arms.find((a) => a.name === "Compact Six 3")!.id] });
+  const ids = { arm: stated.id, req: req.id, shortlist: shortlist.id };
+  await p.goto(`/arms/${ids.arm}`);
+  await element("cycle-arm-joints", "joint-table");
+  await element("cycle-arm-note", "cycle-limits-note");
+  await p.goto(`/requirements/${ids.req}`);
+  await element("cycle-sequences", "sequences-panel");
+  await p.getByTestId("sequence-1").getByLabel(/^Required/).first().selectOption("rate");
+  await p.getByTestId("sequence-1").getByLabel("sequence 1 step 2 dwell (s)").fill("abc");
+  await p.getByRole("button", { name: /^Save/ }).first().click();
+  await element("cycle-sequences-errors", "sequence-1");
+  await p.goto(`/shortlists/${ids.shortlist}`);
+  await p.getByTestId("ranking").waitFor({ timeout: 180_000 });
+  await element("cycle-section", "cycle-section");
+  await element("cycle-arm-breakdown", "arm-cycle");
+}
+
 async function main(): Promise<void> {
-  const out = path.resolve(process.argv[2] ?? "test-results/shots");
+  const out = path.resolve(process.argv.slice(2).find((a) => !a.startsWith("--")) ?? "test-results/shots");
   mkdirSync(out, { recursive: true });
   const h = await startHarness();
   try {
@@ -16,8 +75,15 @@ async function main(): Promise<void> {
     const t = await b.open("/signin");
     const p = t.page;
     const shots: [string, string][] = [];
+    if (flag("only") === "cycle") {
+      await signUp(t, { email: "shots@example.test", name: "Sam Shots", password: "screenshots only 123" });
+      await cycleShots(p, out, shots);
+      console.log(shots.map(([, f]) => f).join("\n"));
+      if (t.errors().length) console.log("console errors:\n" + t.errors().join("\n"));
+      return;
+    }
     const snap = async (name: string) => {
-      for (const width of [1280, 390]) {
+      for (const width of WIDTHS) {
         await p.setViewportSize({ width, height: 900 });
         await p.waitForTimeout(150);
         const file = path.join(out, `${name}-${width}.png`);
@@ -28,7 +94,7 @@ async function main(): Promise<void> {
     };
     // A 3-D view: the viewport at the view (not the whole page), desktop and narrow.
     const snapView = async (name: string) => {
-      for (const width of [1280, 390]) {
+      for (const width of WIDTHS) {
         await p.setViewportSize({ width, height: 900 });
         await p.waitForTimeout(400);
         await p.getByTestId("view3d-open").first().scrollIntoViewIfNeeded();
