@@ -117,11 +117,6 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
           <p className="sub">
             <CycleVerdict c={c} /> <strong>{c.name}</strong>: {c.reason}
           </p>
-          {(c.movesChecked ?? 0) > 0 && (
-            <p className="sub">
-              Moves checked in the cell along their joint-space line: {c.movesChecked}, of which {c.movesBlocked} collide and were left out of the choice of branches. The clearance along a move is exact where the move was evaluated and a proven lower bound elsewhere.
-            </p>
-          )}
           {c.steps.length > 0 && c.time !== null && (
             <div className="table-wrap">
               <table className="printable" data-testid="cycle-steps">
@@ -136,7 +131,7 @@ export function ArmCycles({ arm }: { arm: ArmAnalysis }) {
                     <th scope="col" className="num">Time (s)</th>
                     <th scope="col" className="num">Share (%)</th>
                     <th scope="col">Limiting joint</th>
-                    {c.steps.some((s) => s.clearance !== null && s.clearance !== undefined) && <th scope="col" className="num">Clearance along the move (mm)</th>}
+                    {c.steps.some((s) => s.clearance !== null && s.clearance !== undefined) && <th scope="col" className="num" title="exact where the move was evaluated, a proven lower bound elsewhere">Clearance along the move (mm)</th>}
                   </tr>
                 </thead>
                 <tbody>

@@ -319,6 +319,8 @@ export function unknownCycle(seq: Sequence, reason: string): CycleResult {
 }
 
 const mmText = (m: number) => `${fixed(m * 1000, 1)} mm`;
+/** A move's clearance counts as below the required one only by more than the motion check's tolerance (m, cell.ts). */
+const CLEARANCE_TOLERANCE = 1e-4;
 
 /**
  * Cycle time of one sequence for one arm (docs/design.md#cycle-time). With a move checker, the
@@ -398,7 +400,7 @@ export function analyzeCycle(limits: CycleLimits, seq: Sequence, inputs: CycleIn
     let low: { clearance: number; step: number } | null = null;
     steps.forEach((s, i) => { if (s.clearance !== null && (low === null || s.clearance < low.clearance)) low = { clearance: s.clearance, step: i + 1 }; });
     const lowest = low as { clearance: number; step: number } | null;
-    if (lowest && lowest.clearance < inputs.moves.required) reason += `; clearance along the move of step ${lowest.step} drops to ${mmText(lowest.clearance)}, below the required ${mmText(inputs.moves.required)}`;
+    if (lowest && lowest.clearance < inputs.moves.required - CLEARANCE_TOLERANCE) reason += `; clearance along the move of step ${lowest.step} drops to ${mmText(lowest.clearance)}, below the required ${mmText(inputs.moves.required)}`;
   }
   return { ...base, ...tally, time, partsPerHour: time > 0 ? 3600 / time : null, verdict, estimate, reason, steps };
 }

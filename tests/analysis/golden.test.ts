@@ -39,6 +39,9 @@ const GOLDEN: Record<string, string> = {
   // 1.9.0: the cycle in the cell: colliding branches and paths left out, each move checked along its
   // joint-space line and a blocked one left out of the branch choice; steps carry their clearance.
   "analysis-1.9.0": "4ecb560f9dc35d11503765b7f0a3076800c8ceedf7f8140b7fa1f40c6d32d414",
+  // 1.9.1: a move's clearance is called below the required one only beyond the motion check's 0.1 mm
+  // tolerance (a reason text; here only the version differs).
+  "analysis-1.9.1": "36be57b6afdb3b0a74da95d87d4d6f72002919c703754565e9d060132f54f53f",
   // 1.10.0: with a mounting region, every arm's placement, its analysis there and the ranking at the
   // placements (this input has no region: only the version differs).
   "analysis-1.10.0": "ba2a67087d6e126d6e4fea2708ea7c7c23c4e90cb3d1d5d0018f5dfe47971aed",

@@ -11,6 +11,7 @@ import {
   updateRequirementSet,
 } from "@/lib/db/requirements";
 import { ConflictError } from "@/lib/db/errors";
+import { SUB_SCORES } from "@/shared/sub-scores";
 
 let t: TestDb;
 beforeAll(() => {
@@ -21,7 +22,9 @@ afterAll(async () => t.cleanup());
 describe("requirement sets", () => {
   it("stores revisions with defaults applied, detects conflicts, soft-deletes and restores", async () => {
     const { id, requirementSet } = await createRequirementSet(null, requirementDoc());
-    expect(requirementSet.weights).toEqual({ coverage: 4, dexterity: 2, payload: 1, force: 1, pathSpeed: 1, clearance: 1, price: 1 });
+    // A set stored without weights gets every weight of the sub-score table at its default.
+    expect(requirementSet.weights).toEqual(SUB_SCORES.defaultWeights);
+    expect(requirementSet.weights).toMatchObject({ coverage: 4, dexterity: 2, payload: 1 });
     expect(requirementSet.targets[0].positionTolerance).toBe(1e-5);
 
     const edited = requirementDoc({ payload: { mass: 2.5, cog: [0, 0, 0.02] } });

@@ -80,8 +80,13 @@ describe("CSV", () => {
     const text = toCsv(complianceTable(analysis), meta);
     const { meta: lines, columns, records } = readCsvExport(text);
     expect(columns).toEqual(["Requirement", "Priority", "Comparator", "Required value", "Required unit", "Arm", "Arm revision", "Arm value", "Arm value unit", "Verdict", "Reason"]);
-    // the spec requirements, then the cell's required clearance, each against every arm
-    expect(records).toHaveLength(analysis.arms.length * (analysis.requirementSet.specs.length + 1));
+    // the spec requirements, the cell's required clearance, then the sequence's required cycle time (the seed
+    // set has one), each against every arm
+    expect(records).toHaveLength(analysis.arms.length * (analysis.requirementSet.specs.length + 2));
+    for (const a of analysis.arms) {
+      const rec = records.find((r) => r.Arm === a.name && r.Requirement.startsWith("Cycle time of sequence pick-place-press"))!;
+      expect([rec.Priority, rec["Required value"], rec.Verdict]).toEqual(["want", "3.6", a.cycles[0].verdict]);
+    }
     for (const a of analysis.arms) {
       const rec = records.find((r) => r.Arm === a.name && r.Requirement === "Clearance in the cell (targets and paths)")!;
       const c = armClearance(a, analysis.cell!.clearance);

@@ -209,3 +209,92 @@ describe("demo scenarios: designed outcomes in the cell", () => {
     expect(f.verdict).not.toBe("fails");
   });
 });
+
+describe("demo scenarios: designed cycle times (docs/design.md#cycle-time)", () => {
+  const arm = (scenario: string, name: string) => inCell.get(reqs.find((r) => r.name.startsWith(scenario))!.name)!.arms.find((a) => a.name === name)!;
+  const cycle = (scenario: string, name: string) => arm(scenario, name).cycles[0];
+
+  it("both cells carry a looped sequence with a required cycle time", () => {
+    const bench = reqs.find((r) => r.name.startsWith("Bench"))!.sequences!;
+    const deburr = reqs.find((r) => r.name.startsWith("Deburring"))!.sequences!;
+    expect(bench.map((q) => [q.name, q.required])).toEqual([["pick-place-press", 3.6]]);
+    expect(bench[0].steps.map((s) => (s.kind === "move" ? s.target : s.kind))).toEqual(["feeder-pick", "fixture-place", "press-fit"]);
+    expect(deburr.map((q) => [q.name, q.required])).toEqual([["load-deburr-unload", 14.5]]);
+    expect(deburr[0].steps.map((s) => (s.kind === "move" ? s.target : s.kind === "path" ? s.path : s.kind))).toEqual(["spindle-home", "wait", "front-edge-chamfer", "gate-stub", "spindle-home", "wait"]);
+  });
+
+  it("an arm that reaches everything but misses the cycle: the offset-wrist URDF cobot in the bench cell (an estimate)", () => {
+    const a = arm("Bench", "Offset Wrist 8");
+    expect(a.targets.every((t) => t.reached)).toBe(true);
+    const c = cycle("Bench", "Offset Wrist 8");
+    expect(c.verdict).toBe("fails");
+    expect(c.time!).toBeGreaterThan(3.6);
+    expect(c.estimate).toBe(true); // its file states no acceleration limits
+    expect(a.subScores.cycleTime.value).toBeLessThan(0.5);
+  });
+
+  it("the overhead arm reaches everything and meets the cycle, from its own acceleration limits (not an estimate)", () => {
+    const c = cycle("Bench", "Overhead Six 6");
+    expect(arm("Bench", "Overhead Six 6").targets.every((t) => t.reached)).toBe(true);
+    expect(c.verdict).toBe("meets");
+    expect(c.estimate).toBe(false);
+    expect(c.time!).toBeLessThan(3.6);
+    expect(arm("Bench", "Overhead Six 6").subScores.cycleTime.value).toBeGreaterThan(0.5);
+  });
+
+  it("an arm that reaches every target but whose sequence has no collision-free combination: the offset-wrist cobot's hand meets the feeder hopper leaving the pick", () => {
+    expect(arm("Bench", "Reach Cobot 10").targets.every((t) => t.reached)).toBe(true);
+    const c = cycle("Bench", "Reach Cobot 10");
+    expect(c).toMatchObject({ time: null, verdict: "fails" });
+    expect(c.blocked).toMatchObject({ step: 2, kind: "move", name: "fixture-place", b: "feeder hopper" });
+    expect(arm("Bench", "Reach Cobot 10").subScores.cycleTime.value).toBe(0);
+  });
+
+  it("deburring: the industrial arm meets the cycle; the offset-wrist cobot follows the chamfer but misses it", () => {
+    expect(cycle("Deburring", "Foundry Six 12")).toMatchObject({ verdict: "meets", estimate: false });
+    const cobot = cycle("Deburring", "Reach Cobot 10");
+    expect(cobot.verdict).toBe("fails");
+    expect(cobot.time!).toBeGreaterThan(14.5);
+  });
+
+  it("every cycle is the sum of its steps, each recomputed from the returned configurations, and its moves are free in the cell", async () => {
+    const { effectiveLimits, moveTime } = await import("@/lib/analysis/cycle");
+    const { checkCell, contactMask, createCellCheck } = await import("@/lib/analysis/cell");
+    let checked = 0;
+    for (const req of reqs) {
+      for (const a of inCell.get(req.name)!.arms) {
+        const doc = arms.find((x) => x.name === a.name)!;
+        const lim = effectiveLimits({ n: doc.joints.length, maxSpeed: doc.joints.map((j) => j.maxSpeed ?? NaN), maxAcceleration: doc.joints.map((j) => j.maxAcceleration ?? NaN) });
+        const ctx = createArmContext(doc, req);
+        a.cycles.forEach((c, i) => {
+          if (c.time === null) return;
+          const seq = req.sequences![i];
+          let sum = 0;
+          c.steps.forEach((s, k) => {
+            const before = c.steps[(k + c.steps.length - 1) % c.steps.length].q;
+            const st = seq.steps[k];
+            if (st.kind === "wait") { expect(s.q).toEqual(before); sum += st.seconds; return; }
+            const p = st.kind === "path" ? a.paths[req.paths.findIndex((x) => x.name === st.path)] : null;
+            const entry = p ? p.q[0]! : s.q;
+            const follow = p ? p.length / (p.speed.required * Math.min(1, p.speed.achievableFraction!)) : 0;
+            const t = moveTime(lim, before, entry) + (st.kind === "move" ? st.dwell ?? 0 : follow);
+            expect(s.time, `${a.name} / ${c.name} step ${k + 1}`).toBeCloseTo(t, 9);
+            sum += t;
+            // the move, sampled every 1/400 of the way, touches nothing (the contact lists of both ends lifted)
+            const contactOf = (x: (typeof seq.steps)[number]) => (x.kind === "move" ? req.targets.find((t) => t.name === x.target)!.contact ?? [] : x.kind === "path" ? req.paths.find((t) => t.name === x.path)!.contact ?? [] : []);
+            let j0 = (k + seq.steps.length - 1) % seq.steps.length;
+            while (seq.steps[j0].kind === "wait") j0 = (j0 + seq.steps.length - 1) % seq.steps.length;
+            const exempt = contactMask(ctx.cell, [...contactOf(st), ...contactOf(seq.steps[j0])]);
+            for (let f = 0; f <= 400; f++) {
+              const q = before.map((x, j) => x + (f / 400) * (entry[j] - x));
+              expect(checkCell(ctx.cell, ctx.cellData, ctx.model, ctx.data, q, exempt, createCellCheck()).collisionFree, `${a.name} / ${c.name} step ${k + 1} at ${f}/400`).toBe(true);
+            }
+            checked++;
+          });
+          expect(c.time).toBeCloseTo(sum, 9);
+        });
+      }
+    }
+    expect(checked).toBeGreaterThan(10);
+  });
+});
