@@ -1,6 +1,6 @@
 /**
  * `npm run bench`: runs the kinematics and distance-query benchmarks, then the analysis benchmark when
- * bench/analysis.ts exists, then the placement search benchmark, then the URDF import/export
+ * bench/analysis.ts exists, then the placement search benchmark, then the cycle-time benchmark, then the URDF import/export
  * benchmark, then the shortlist page benchmark and the large-shortlist benchmark (analysis, stored
  * size, page, exports and another user's latency meanwhile, for the demo shortlists and an
  * invented large one), the 3-D view benchmark (chunk sizes, frame time) and the team set-up
@@ -21,6 +21,7 @@ async function main(): Promise<void> {
     if (typeof mod.run === "function") await mod.run();
   }
   await (await import("./placement")).run();
+  await (await import("./cycle")).run();
   await (await import("./urdf")).run();
   await (await import("./page")).run();
   await (await import("./large")).run();

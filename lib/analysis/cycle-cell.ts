@@ -8,7 +8,8 @@
  * For a move qa → qb no point of body b moves farther than M_b = Σⱼ Rⱼ,b·|Δqⱼ| (cell.ts, "Motion
  * between configurations"). The move is cut into N = ⌈maxᵦ M_b / 0.25 m⌉ equal joint steps (at
  * least 1), so that no point of any body moves more than 0.25 m between two consecutive
- * configurations; each configuration is checked, and each step between two by the motion check,
+ * configurations; each configuration is checked (the ends first, then in bisection order, so a
+ * collision shows early), then each step between two by the motion check,
  * which proves that a pair with end distances d₀, d₁ keeps at least c along the step when
  * (d₀ + d₁ − M)/2 ≥ c, and otherwise halves the step (at most 64 configurations per step). The
  * move is blocked when a configuration along it collides, or when the check could not prove a
@@ -48,7 +49,8 @@ export function createMoveChecker(ctx: ArmContext, req: Pick<RequirementSet, "ta
     }
     return masks.get(key)!;
   };
-  const prevD = new Float64Array(np), prevEx = new Uint8Array(np), curD = new Float64Array(np), curEx = new Uint8Array(np);
+  // per-pair distances at each configuration along a move (grown as needed, reused)
+  const dist: Float64Array[] = [], exact: Uint8Array[] = [];
   const prev = new Float64Array(n), q = new Float64Array(n);
   const required = cell.clearance;
   // the same move recurs across sequences and visits: checked once
@@ -78,27 +80,46 @@ export function createMoveChecker(ctx: ArmContext, req: Pick<RequirementSet, "ta
       const [a, b] = pairNames(cell, pair);
       return { free: false, clearance: 0, closest: { a, b }, hit: { a, b, fraction }, evaluations };
     };
-    for (let i = 0; i <= steps; i++) {
+    while (dist.length <= steps) { dist.push(new Float64Array(np)); exact.push(new Uint8Array(np)); }
+    // the configurations in bisection order (ends, middle, quarters, …): a collision shows early
+    for (const i of bisectionOrder(steps)) {
       const f = i / steps;
       for (let j = 0; j < n; j++) q[j] = qa[j] + f * (qb[j] - qa[j]);
       const c = checkCell(cell, cd, model, data, q, exempt, ctx.check);
       evaluations++;
       if (!c.collisionFree) return blocked(c.collisionPair, f);
       if (c.clearance < lowest) { lowest = c.clearance; lowestPair = c.clearancePair; }
-      curD.set(cd.pairDistance);
-      curEx.set(cd.pairExact);
-      if (i > 0) {
-        const m = checkMotion(cell, cd, model, data, prev, q, prevD, prevEx, curD, curEx, exempt, required);
-        evaluations += m.evaluations;
-        if (m.collision) return blocked(m.collision.pair, (i - 1 + m.collision.fraction) / steps);
-        if (m.lowest < lowest) { lowest = m.lowest; lowestPair = m.lowestPair; }
-        if (m.unresolved && !(m.lowest > 0)) return blocked(m.lowestPair, (i - 0.5) / steps);
-      }
-      prev.set(q);
-      prevD.set(curD);
-      prevEx.set(curEx);
+      dist[i].set(cd.pairDistance);
+      exact[i].set(cd.pairExact);
+    }
+    // then the motion between consecutive configurations
+    for (let i = 1; i <= steps; i++) {
+      for (let j = 0; j < n; j++) { prev[j] = qa[j] + ((i - 1) / steps) * (qb[j] - qa[j]); q[j] = qa[j] + (i / steps) * (qb[j] - qa[j]); }
+      const m = checkMotion(cell, cd, model, data, prev, q, dist[i - 1], exact[i - 1], dist[i], exact[i], exempt, required);
+      evaluations += m.evaluations;
+      if (m.collision) return blocked(m.collision.pair, (i - 1 + m.collision.fraction) / steps);
+      if (m.lowest < lowest) { lowest = m.lowest; lowestPair = m.lowestPair; }
+      if (m.unresolved && !(m.lowest > 0)) return blocked(m.lowestPair, (i - 0.5) / steps);
     }
     const closest = lowestPair >= 0 ? (([a, b]) => ({ a, b }))(pairNames(cell, lowestPair)) : null;
     return { free: true, clearance: Number.isFinite(lowest) ? lowest : null, closest, hit: null, evaluations };
   }
+}
+
+/** 0 … steps with the two ends first, then the middles of the halves, quarters, … (each once). */
+function bisectionOrder(steps: number): number[] {
+  const out = [0, steps], seen = new Uint8Array(steps + 1);
+  seen[0] = seen[steps] = 1;
+  let spans: [number, number][] = [[0, steps]];
+  while (spans.length) {
+    const next: [number, number][] = [];
+    for (const [a, b] of spans) {
+      if (b - a < 2) continue;
+      const mid = (a + b) >> 1;
+      if (!seen[mid]) { seen[mid] = 1; out.push(mid); }
+      next.push([a, mid], [mid, b]);
+    }
+    spans = next;
+  }
+  return out;
 }

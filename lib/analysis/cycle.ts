@@ -162,8 +162,8 @@ export interface CycleResult {
   steps: CycleStep[];
   /**
    * Set when every combination of branches has a move blocked by a collision: the step (1-based)
-   * that no combination gets past, its kind and target or path, and what hits what on the first
-   * blocked move into it. The time is then unknown and the verdict `fails`.
+   * by which every combination is blocked at the latest, its kind and target or path, and what
+   * hits what on a blocked move into it. The time is then unknown and the verdict `fails`.
    */
   blocked: { step: number; kind: "move" | "path"; name: string; a: string; b: string } | null;
   /** Moves between branches checked in the cell, and how many of them collide (left out of the choice). */
@@ -291,19 +291,20 @@ function bestChoice(lim: EffectiveLimits, layers: readonly Layer[], edges: EdgeS
 }
 
 /**
- * The layer no combination of free moves gets past (every combination is blocked): for each
- * start s, the first layer whose options are all cut off; the latest such layer over the starts.
- * Needs every edge checked.
+ * The layer no combination gets past when every combination is blocked, counting the moves not
+ * checked as free: for each start s, the first layer whose options are all cut off by blocked
+ * moves; the latest such layer over the starts. (With every move checked none would get further.)
  */
 function deadLayer(layers: readonly Layer[], edges: EdgeStates): number {
   const m = layers.length, last = layers[m - 1];
+  const open = (k: number, idx: number) => edges[k][idx] !== EDGE_BLOCKED;
   let furthest = 0;
   for (let s = 0; s < last.exit.length; s++) {
-    let reach = layers[0].entry.map((_, o) => (m === 1 ? o === s : true) && edges[0][s * layers[0].entry.length + o] === EDGE_FREE);
+    let reach = layers[0].entry.map((_, o) => (m === 1 ? o === s : true) && open(0, s * layers[0].entry.length + o));
     let k = 0;
     while (reach.some(Boolean) && k < m - 1) {
       const L = layers[k + 1], width = L.entry.length, prevReach = reach;
-      reach = L.entry.map((_, o) => (k + 1 === m - 1 ? o === s : true) && prevReach.some((r, p) => r && edges[k + 1][p * width + o] === EDGE_FREE));
+      reach = L.entry.map((_, o) => (k + 1 === m - 1 ? o === s : true) && prevReach.some((r, p) => r && open(k + 1, p * width + o)));
       k++;
     }
     if (!reach.some(Boolean)) furthest = Math.max(furthest, k);
@@ -368,15 +369,17 @@ export function analyzeCycle(limits: CycleLimits, seq: Sequence, inputs: CycleIn
   for (;;) {
     const best = bestChoice(lim, layers, edges);
     if (!(best.time < Infinity)) break;
+    // check the choice's moves in order and make the choice again at the first blocked one (checks cost
+    // far more than the dynamic programme)
     let free = true;
-    for (let k = 0; k < m; k++) if (!verify(k, best.choice[(k + m - 1) % m], best.choice[k])) free = false;
+    for (let k = 0; k < m && free; k++) free = verify(k, best.choice[(k + m - 1) % m], best.choice[k]);
     if (free) { choice = best.choice; break; }
   }
   const estimate = moves && lim.assumedAcceleration.length > 0;
   const tally = { movesChecked, movesBlocked };
   if (choice === null) {
-    // every combination blocked: check the remaining moves to name the step none gets past
-    layers.forEach((L, k) => { for (let p = 0; p < prevOf(k).exit.length; p++) for (let o = 0; o < L.entry.length; o++) verify(k, p, o); });
+    // Every combination has a blocked move. Counting the moves not checked as free, no combination gets
+    // past layer k: with them checked, none would get further. Named with a blocked move into it.
     const k = deadLayer(layers, edges);
     const L = layers[k];
     let hit: MoveCheck["hit"] = null;
@@ -385,7 +388,7 @@ export function analyzeCycle(limits: CycleLimits, seq: Sequence, inputs: CycleIn
     return {
       ...base, movesChecked, movesBlocked, time: null, partsPerHour: null, verdict: "fails", estimate, steps: [],
       blocked: { step: L.step + 1, kind: L.ref.kind, name: L.ref.name, a: hit?.a ?? "", b: hit?.b ?? "" },
-      reason: `no collision-free combination of branches: ${what} (step ${L.step + 1}) collides from every configuration the steps before it can end in` +
+      reason: `no collision-free combination of branches: every combination has a move that collides, at ${what} (step ${L.step + 1}) at the latest` +
         (hit ? ` (${hit.a} hits ${hit.b})` : "") + `; ${movesBlocked} of ${movesChecked} moves checked collide`,
     };
   }

@@ -42,9 +42,14 @@ const GOLDEN: Record<string, string> = {
   // 1.9.1: a move's clearance is called below the required one only beyond the motion check's 0.1 mm
   // tolerance (a reason text; here only the version differs).
   "analysis-1.9.1": "36be57b6afdb3b0a74da95d87d4d6f72002919c703754565e9d060132f54f53f",
-  // 1.10.0: with a mounting region, every arm's placement, its analysis there and the ranking at the
-  // placements (this input has no region: only the version differs).
+  // 1.10.0: a move's configurations checked ends first, then in bisection order (a blocked move may name
+  // another colliding pair); a blocked choice made again at its first blocked move; a sequence with no
+  // free combination names the step every combination is blocked by at the latest, without checking
+  // every remaining move.
   "analysis-1.10.0": "ba2a67087d6e126d6e4fea2708ea7c7c23c4e90cb3d1d5d0018f5dfe47971aed",
+  // 1.11.0: with a mounting region, every arm's placement, its analysis there and the ranking at the
+  // placements (this input has no region: only the version differs).
+  "analysis-1.11.0": "81eaff320af461342efa04bace0a45bf7e7b6e8eb2ae77e689d3feafbf3594e3",
 };
 
 const DEG = Math.PI / 180;
