@@ -114,7 +114,8 @@ export interface ReqForm {
   specs: SpecRow[];
   weights: Record<WeightKey, string>;
   /** Parts the form does not edit, carried through unchanged. */
-  keep: { toolInertia?: [number, number, number]; payloadInertia?: [number, number, number] };
+  /** Fields the form does not edit, carried through unchanged (the mounting region: the placement search, docs/formats.md#mounting). */
+  keep: { toolInertia?: [number, number, number]; payloadInertia?: [number, number, number]; mounting?: RequirementSet["mounting"] };
   /** Loaded values: id → text shown and SI value. */
   orig: Record<string, { text: string; si: number }>;
   /** Loaded transforms: id → texts and matrix. */
@@ -314,7 +315,7 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
     sequences,
     specs,
     weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, t(`w.${k}`, w[k], "same")])) as Record<WeightKey, string>,
-    keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia },
+    keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia, mounting: doc.mounting },
     orig,
     origPose,
   };
@@ -460,6 +461,7 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     weights,
   };
   if (sequences.length) doc.sequences = sequences;
+  if (form.keep.mounting) doc.mounting = form.keep.mounting;
   if (form.description.trim()) doc.description = form.description;
   return { doc, errors };
 }

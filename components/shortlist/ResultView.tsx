@@ -3,7 +3,8 @@ import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import { RankingPanel, type RankingArm } from "./RankingPanel";
 import { TaskMatrix } from "./TaskMatrix";
 import { VerdictTag } from "./verdict";
-import { matrixColumns, matrixRows, matrixSummaryRows } from "./view";
+import { matrixColumns, matrixRows, matrixSummaryRows, placementRows } from "./view";
+import { PlacementPanel } from "./PlacementPanel";
 import { ArmSection, mmText } from "./ArmSection";
 import { LazyArmSection, LoadAllArmSections } from "./LazyArmSection";
 
@@ -124,6 +125,8 @@ export function ResultView(props: {
   shortlistId: string;
   runId: string;
   requirementSetId: string;
+  /** The requirement-set revision the result was made for (saving a placement refuses a later one). */
+  requirementRevision?: number | null;
   canSaveWeights: boolean;
 }) {
   const { analysis } = props;
@@ -147,6 +150,16 @@ export function ResultView(props: {
         requirementName={analysis.requirementSet.name}
         canSaveWeights={props.canSaveWeights}
       />
+      {analysis.placement && (
+        <PlacementPanel
+          rows={placementRows(analysis.arms, analysis.ranking, analysis.placement)}
+          placement={analysis.placement}
+          targets={analysis.placement.targets}
+          requirementSetId={props.requirementSetId}
+          requirementRevision={props.requirementRevision ?? null}
+          canSave={props.canSaveWeights}
+        />
+      )}
       {analysis.arms.length > EAGER_ARM_SECTIONS ? (
         <TaskMatrix
           columns={matrixColumns(analysis)}

@@ -2,7 +2,8 @@
  * Turns a stored analysis into what the page components draw (display units: mm, degrees, kg, N),
  * keeping the client payload small (profiles thinned to at most 200 points).
  */
-import type { ArmAnalysis, ShortlistAnalysis } from "@/lib/analysis/shortlist";
+import type { ArmAnalysis, ArmPlacementResult, ShortlistAnalysis, ShortlistPlacement } from "@/lib/analysis/shortlist";
+import type { RankedArm } from "@/lib/analysis/ranking";
 import type { TargetAnalysis } from "@/lib/analysis/targets";
 import type { PathAnalysis } from "@/lib/analysis/paths";
 import type { MatrixCell, MatrixRow } from "./TaskMatrix";
@@ -122,6 +123,28 @@ export function workspaceData(arm: ArmAnalysis): WorkspaceData | null {
     targets: w.targets.map((t) => ({ name: t.name, r: r1(t.r), z: r1(t.z), x: r1(t.x), y: r1(t.y), reached: t.reached })),
     note: w.note,
   };
+}
+
+/** One arm's row: the two ranks and what the placement changed (props only; no data access). */
+export interface PlacementRow {
+  id: string;
+  name: string;
+  nominal: RankedArm;
+  placed: RankedArm;
+  nominalArm: ArmAnalysis;
+  result: ArmPlacementResult;
+}
+
+/** Rows of the placement table from a result, in the order of the ranking at the placements. */
+export function placementRows(arms: readonly ArmAnalysis[], ranking: readonly RankedArm[], placement: ShortlistPlacement): PlacementRow[] {
+  return placement.ranking.map((placed) => {
+    const nominalArm = arms.find((a) => a.id === placed.armId)!;
+    return {
+      id: placed.armId, name: nominalArm.name, placed, nominalArm,
+      nominal: ranking.find((r) => r.armId === placed.armId)!,
+      result: placement.arms.find((a) => a.id === placed.armId)!,
+    };
+  });
 }
 
 /** One sequence across the arms, for the stacked-bar chart (s). */

@@ -104,6 +104,20 @@ export interface PlacementEvaluation {
   paths: PlacedPath[];
 }
 
+/**
+ * Targets reached over the region's x–y plane at one z and yaw: cell (i, j) is the placement at
+ * x = xs[i], y = ys[j]; reached[j · xs.length + i] targets reached there (by the search's IK with
+ * its warm starts and no restarts: a quick map, the placement itself is judged in full).
+ */
+export interface CoverageMap {
+  xs: number[];
+  ys: number[];
+  z: number;
+  yaw: number;
+  reached: number[];
+  total: number;
+}
+
 /** The result of {@link searchPlacement}. */
 export interface PlacementResult extends PlacementEvaluation {
   /** Placements evaluated by the search (those abandoned early included). */
@@ -113,6 +127,8 @@ export interface PlacementResult extends PlacementEvaluation {
   /** The mount orientation's class and whether the arm's datasheet allows it (null: the datasheet lists none). */
   mounting: Mounting;
   allowed: boolean | null;
+  /** The coverage map at the placement's z and yaw, when asked for. */
+  coverage: CoverageMap | null;
 }
 
 /** Search budget (tunable without changing what a result means). */
@@ -386,6 +402,8 @@ function bestAttempt(pc: ArmContext, t: Target): number[] {
 /** Options of {@link searchPlacement}. */
 interface SearchOptions {
   budget?: PlacementBudget;
+  /** Cells per side of the coverage map (none when 0 or absent; a fixed coordinate gets one cell). */
+  coverageCells?: number;
   /** Called after each placement evaluated with the count so far and the best goal. */
   onProgress?(evaluated: number, best: PlacementGoal | null): void;
 }
@@ -432,9 +450,10 @@ export function searchPlacement(arm: ArmDocument, req: RequirementSet, opts: Sea
     return r;
   };
 
-  // ---- coarse: the centre, then Halton points over the free coordinates
+  // ---- coarse: the nominal base when the region holds it, the centre, then Halton points over the free coordinates
   const coarse: { u: number[]; r: PlacementEvaluation }[] = [];
-  const samples = d === 0 ? [[]] : [space.free.map(() => 0.5), ...Array.from({ length: budget.coarsePerDimension * d + 4 }, (_, i) => space.free.map((_, c) => radicalInverse(i + 1, HALTON_BASES[c])))];
+  const nominal = nominalInRegion(req.base, m, space);
+  const samples = d === 0 ? [[]] : [...(nominal ? [nominal] : []), space.free.map(() => 0.5), ...Array.from({ length: budget.coarsePerDimension * d + 4 }, (_, i) => space.free.map((_, c) => radicalInverse(i + 1, HALTON_BASES[c])))];
   for (const u of samples) {
     const r = evaluate(u, best);
     if (r) coarse.push({ u, r });
@@ -455,7 +474,55 @@ export function searchPlacement(arm: ArmDocument, req: RequirementSet, opts: Sea
   const final = evaluatePlacement(arm, req, found.placement, found.targets, ctx);
   const chosen = compareGoals(final.goal, found.goal) >= 0 ? final : found;
   const cls = mountingClass(m.orientation);
-  return { ...chosen, evaluated: s.evaluated, pruned: s.pruned, mounting: cls, allowed: mountingAllowed(arm.specs?.mounting, cls) };
+  const coverage = opts.coverageCells ? coverageOf(s, space, chosen.placement, opts.coverageCells) : null;
+  return { ...chosen, evaluated: s.evaluated, pruned: s.pruned, mounting: cls, allowed: mountingAllowed(arm.specs?.mounting, cls), coverage };
+}
+
+/** The coverage map (see {@link CoverageMap}) at the placement's z and yaw, `cells` per free side. */
+function coverageOf(s: Searcher, space: SearchSpace, at: Placement, cells: number): CoverageMap {
+  const side = (k: "x" | "y") => (space.hi[k] > space.lo[k] ? Array.from({ length: cells }, (_, i) => space.lo[k] + ((i + 0.5) / cells) * (space.hi[k] - space.lo[k])) : [space.lo[k]]);
+  const xs = side("x"), ys = side("y");
+  const unit = (k: keyof Placement, v: number) => (space.hi[k] > space.lo[k] ? (v - space.lo[k]) / (space.hi[k] - space.lo[k]) : 0.5);
+  const reached: number[] = [];
+  for (const y of ys) {
+    for (const x of xs) {
+      const u = space.free.map((k) => unit(k, k === "x" ? x : k === "y" ? y : at[k]));
+      const base = placementPose(s.req.mounting!.orientation, x, y, at.z, at.yaw);
+      const pc = placedContext(s.ctx, s.arm, s.req, base);
+      let count = 0;
+      s.targets.forEach((_, k) => {
+        if (solveTarget(s, pc, k, nearestWarm(s.warm[k], u, s.budget.warmStarts), 1, 0).reached) count++;
+      });
+      reached.push(count);
+    }
+  }
+  return { xs, ys, z: at.z, yaw: at.yaw, reached, total: s.targets.length };
+}
+
+/**
+ * The unit coordinates of the nominal base when it is one of the region's placements (its
+ * position in the box, on a pedestal height if heights are given, and its rotation Rz(yaw) ·
+ * orientation for a yaw in the range, to 1e-9), else null.
+ */
+function nominalInRegion(base: readonly number[], m: MountingSpec, space: SearchSpace): number[] | null {
+  const o = m.orientation;
+  // R · Oᵀ must be a rotation about z
+  const r = (i: number, j: number) => base[4 * i] * o[4 * j] + base[4 * i + 1] * o[4 * j + 1] + base[4 * i + 2] * o[4 * j + 2];
+  if (Math.abs(r(2, 2) - 1) > 1e-9 || Math.abs(r(0, 2)) > 1e-9 || Math.abs(r(1, 2)) > 1e-9) return null;
+  let yaw = Math.atan2(r(1, 0), r(0, 0));
+  const p: Placement = { x: base[3], y: base[7], z: base[11], yaw };
+  for (const shift of [0, 2 * Math.PI, -2 * Math.PI]) {
+    if (yaw + shift >= space.lo.yaw - 1e-12 && yaw + shift <= space.hi.yaw + 1e-12) { yaw += shift; break; }
+  }
+  p.yaw = yaw;
+  const inside = (k: keyof Placement) => p[k] >= space.lo[k] - 1e-12 && p[k] <= space.hi[k] + 1e-12;
+  if (!inside("x") || !inside("y") || !inside("yaw")) return null;
+  const h = space.heights ? space.heights.findIndex((z) => Math.abs(z - p.z) <= 1e-9) : -1;
+  if (space.heights ? h < 0 : !inside("z")) return null;
+  const u = space.free.map((k) => (k === "z" && space.heights ? (h + 0.5) / space.heights.length : (p[k] - space.lo[k]) / (space.hi[k] - space.lo[k])));
+  // the unit coordinates must map back onto the nominal base (a fixed coordinate must equal it)
+  const back = space.at(u);
+  return (["x", "y", "z", "yaw"] as const).every((k) => Math.abs(back[k] - p[k]) <= 1e-9) ? u : null;
 }
 
 /**

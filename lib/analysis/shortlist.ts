@@ -18,10 +18,12 @@ import { analyzeTarget, DEFAULT_TARGET_BUDGET, FORCE_MARGINAL_FRACTION, type Tar
 import { analyzeWorkspace, DEFAULT_WORKSPACE_BUDGET, type WorkspaceAnalysis, type WorkspaceBudget } from "./workspace";
 import type { Verdict } from "./types";
 import { analyzeCycles, unknownCycle, type CycleResult } from "./cycle";
+import { placeShortlist, type CoverageMap, type Placement } from "./placement";
+import type { MountingSpec } from "@/shared/schemas/mounting";
 import { createMoveChecker } from "./cycle-cell";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.10.0";
+export const ANALYSIS_VERSION = "analysis-1.11.0";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =
@@ -158,6 +160,36 @@ export interface ShortlistAnalysis {
     clearance?: number;
   };
   budget: AnalysisBudget;
+  /** With a mounting region: every arm at its own best placement (absent without a region, and in older results). */
+  placement?: ShortlistPlacement;
+}
+
+/** One arm's placement in the analysis. */
+export interface ArmPlacementResult {
+  id: string;
+  /** Why the arm was not placed (a mounting its datasheet does not allow, an invalid model), else null. */
+  skipped: string | null;
+  /** The placement found (m, rad) and its base pose T_C_B (row-major 4×4). */
+  placement: Placement | null;
+  base: number[] | null;
+  /** Placements the search evaluated. */
+  evaluated: number;
+  /** The search's goal there (worstMargin, minClearance null when nothing is reached or measured). */
+  goal: { must: number; reached: number; followed: number; worstMargin: number | null; minClearance: number | null } | null;
+  /** The arm analysed at its placement. */
+  analysis: ArmAnalysis | null;
+  /** Targets reached over the region's x–y plane at the placement's z and yaw. */
+  coverage: CoverageMap | null;
+}
+
+/** The placement part of a result. */
+export interface ShortlistPlacement {
+  mounting: MountingSpec;
+  /** The targets in plan view (cell frame x, y; m), for the coverage maps. */
+  targets: { name: string; x: number; y: number }[];
+  arms: ArmPlacementResult[];
+  /** Every arm at its own placement, best first. */
+  ranking: RankedArm[];
 }
 
 const emptyCounts = (): VerdictCounts => ({ meets: 0, marginal: 0, fails: 0, unknown: 0 });
@@ -179,9 +211,11 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     timer(stage, now() - t0);
     return r;
   };
-  // Progress steps per arm: each target, each path, then the workspace (specs are table look-ups).
+  // Progress steps per arm: each target, each path, then the workspace (specs are table look-ups);
+  // with a mounting region, the placement search counts as one arm's worth of steps and the arm is
+  // analysed again at its placement.
   const nT = req.targets.length, nP = req.paths.length;
-  const stepsPerArm = nT + nP + 1, total = Math.max(1, arms.length * stepsPerArm);
+  const stepsPerArm = nT + nP + 1, total = Math.max(1, arms.length * stepsPerArm * (req.mounting ? 3 : 1));
   let done = 0;
   const progress = (stage: string, steps = 1) => {
     done += steps;
@@ -190,35 +224,37 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
 
   const candidates = arms.map((a) => a.arm);
   const mapArm = opts.mapArm ?? ((a: ArmAnalysis) => a);
-  const results: ArmAnalysis[] = arms.map((entry, ai) => {
+  /** One arm against `rs` (the set itself, or the set with the arm's placement as its base). */
+  const analyzeArm = (entry: ShortlistArm, rs: RequirementSet, label: string): ArmAnalysis => {
     const arm = entry.arm;
-    const label = `arm ${ai + 1}/${arms.length} ${arm.name}`;
-    const specs = time("spec", () => req.specs.map((s, i) => checkSpec(arm, s, i)));
+    const specs = time("spec", () => rs.specs.map((s, i) => checkSpec(arm, s, i)));
     // Seeds from the arm's content and the item's name, never from the arm's place in the list.
     const seedText = armSeedText(arm);
     const ident = { id: entry.id, revision: entry.revision, name: arm.name, maker: arm.maker ?? null, modelCode: arm.modelCode ?? null, axes: arm.joints.length };
     let ctx: ArmContext;
     try {
-      ctx = createArmContext(arm, req, contentSeed(seedText, "ranks"));
+      ctx = createArmContext(arm, rs, contentSeed(seedText, "ranks"));
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
       progress(`${label}: not analysed (invalid model)`, stepsPerArm);
-      return mapArm(finishArm(ident, arm, null, [], [], specs, null, req, candidates, `the arm model is invalid: ${message}`));
+      return mapArm(finishArm(ident, arm, null, [], [], specs, null, rs, candidates, `the arm model is invalid: ${message}`));
     }
-    const targets = time("targets", () => req.targets.map((t, i) => {
-      const r = analyzeTarget(ctx, arm, req, t, budget.target, contentSeed(seedText, "target", t.name), clock);
+    const targets = time("targets", () => rs.targets.map((t, i) => {
+      const r = analyzeTarget(ctx, arm, rs, t, budget.target, contentSeed(seedText, "target", t.name), clock);
       progress(`${label}: target ${t.name} (${i + 1}/${nT})`);
       return r;
     }));
-    const paths = time("paths", () => req.paths.map((p, i) => {
+    const paths = time("paths", () => rs.paths.map((p, i) => {
       const r = analyzePath(ctx, p, budget.path, contentSeed(seedText, "path", p.name));
       progress(`${label}: path ${p.name} (${i + 1}/${nP})`);
       return r;
     }));
-    const workspace = time("workspace", () => analyzeWorkspace(ctx, arm.specs?.reach, req.targets.map((t, i) => ({ name: t.name, position: t.position, reached: targets[i].reached })), budget.workspace, contentSeed(seedText, "workspace")));
+    const workspace = time("workspace", () => analyzeWorkspace(ctx, arm.specs?.reach, rs.targets.map((t, i) => ({ name: t.name, position: t.position, reached: targets[i].reached })), budget.workspace, contentSeed(seedText, "workspace")));
     progress(`${label}: workspace and specs`);
-    return mapArm(finishArm(ident, arm, ctx, targets, paths, specs, workspace, req, candidates, null));
-  });
+    return mapArm(finishArm(ident, arm, ctx, targets, paths, specs, workspace, rs, candidates, null));
+  };
+  const results: ArmAnalysis[] = arms.map((entry, ai) => analyzeArm(entry, req, `arm ${ai + 1}/${arms.length} ${entry.arm.name}`));
+  const placement = req.mounting ? placeArms(arms, req, (entry, rs, label) => analyzeArm(entry, rs, label), progress, stepsPerArm) : undefined;
 
   const ranking = rerank({ arms: results }, req.weights);
   return {
@@ -231,7 +267,61 @@ export function analyzeShortlist(arms: readonly ShortlistArm[], req: Requirement
     ranking,
     thresholds: { dexterityMarginal: DEXTERITY_MARGINAL_THRESHOLD, forceMarginalFraction: FORCE_MARGINAL_FRACTION, speedMarginalRatio: SPEED_MARGINAL_RATIO, ipRule: IEC_60529_NOTE, clearance: req.cell.clearance },
     budget,
+    ...(placement ? { placement } : {}),
   };
+}
+
+/** Cells per side of the placement coverage map. */
+const COVERAGE_CELLS = 10;
+
+/**
+ * The placement part of the analysis (docs/design.md#mount-placement): each arm's placement
+ * search, the arm analysed again at its placement (the set with that placement as its base), the
+ * ranking of every arm at its own placement, and the coverage map at the best z and yaw.
+ */
+function placeArms(
+  arms: readonly ShortlistArm[], req: RequirementSet,
+  analyzeAt: (entry: ShortlistArm, rs: RequirementSet, label: string) => ArmAnalysis,
+  progress: (stage: string, steps?: number) => void, stepsPerArm: number,
+): ShortlistPlacement {
+  const mounting = req.mounting!;
+  const out: ArmPlacementResult[] = arms.map((entry, ai) => {
+    const label = `arm ${ai + 1}/${arms.length} ${entry.arm.name}`;
+    const [p] = placeShortlist([{ id: entry.id, arm: entry.arm }], req, {
+      coverageCells: COVERAGE_CELLS,
+      onProgress: (evaluated, best) => {
+        if (evaluated % 10 === 0) progress(`${label}: placement search, ${evaluated} placements evaluated, best so far ${best ? `${best.reached}/${req.targets.length} targets, ${best.followed}/${req.paths.length} paths` : "none"}`, 0);
+      },
+    });
+    progress(`${label}: placement search done${p.result ? ` (${p.result.evaluated} placements evaluated)` : ""}`, stepsPerArm);
+    if (!p.result) {
+      progress(`${label}: not placed`, stepsPerArm);
+      return { id: entry.id, skipped: p.skipped, placement: null, base: null, evaluated: 0, goal: null, analysis: null, coverage: null };
+    }
+    const r = p.result;
+    const analysis = analyzeAt(entry, { ...req, base: r.base }, `${label} at its placement`);
+    return {
+      id: entry.id, skipped: null, placement: r.placement, base: r.base, evaluated: r.evaluated,
+      goal: { must: r.goal.must, reached: r.goal.reached, followed: r.goal.followed, worstMargin: Number.isFinite(r.goal.worstMargin) ? r.goal.worstMargin : null, minClearance: Number.isFinite(r.goal.minClearance) ? r.goal.minClearance : null },
+      analysis, coverage: r.coverage,
+    };
+  });
+  // An arm that could not be placed (a mounting its datasheet does not allow) ranks after the placed ones.
+  const ranking = rankPlaced(out, req.weights);
+  return { mounting: { ...mounting }, targets: req.targets.map((t) => ({ name: t.name, x: t.position[0], y: t.position[1] })), arms: out, ranking };
+}
+
+/** The ranking of the arms at their placements (an arm without one is disqualified, and says why). */
+export function rankPlaced(arms: readonly ArmPlacementResult[], weights: Weights): RankedArm[] {
+  return rankArms(arms.map((a): ArmScoreInput => a.analysis
+    ? { armId: a.id, subScores: a.analysis.subScores, failedMusts: a.analysis.failedMusts, unknownMusts: a.analysis.unknownMusts }
+    : { armId: a.id, subScores: zeroSubScores(a.skipped ?? "not placed"), failedMusts: [`placement: ${a.skipped ?? "not placed"}`], unknownMusts: [] }), weights);
+}
+
+function zeroSubScores(why: string): Record<SubScoreKey, SubScore> {
+  const out = {} as Record<SubScoreKey, SubScore>;
+  for (const k of SUB_SCORES.keys) out[k] = zeroScore(why);
+  return out;
 }
 
 function finishArm(

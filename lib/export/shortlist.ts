@@ -7,7 +7,7 @@
 import type { Weights } from "@/shared/schemas/requirements";
 import { SUB_SCORES } from "@/shared/sub-scores";
 import { rerank, type ArmAnalysis, type ShortlistAnalysis } from "@/lib/analysis/shortlist";
-import { complianceTable, cycleStepsTable, cycleTable, rankingTable, taskMatrixTable, type ExportMeta, type Table } from "./tables";
+import { complianceTable, cycleStepsTable, cycleTable, placementTable, rankingTable, taskMatrixTable, type ExportMeta, type Table } from "./tables";
 import { toCsv } from "./csv";
 import { toXlsx, xlsxStream } from "./xlsx";
 import { shortlistJsonPieces, toShortlistJson } from "./json";
@@ -19,7 +19,7 @@ interface ShortlistExportRequest {
   analysis: ShortlistAnalysis;
   format: "csv" | "xlsx" | "json";
   /** Which table a CSV holds (default ranking). */
-  table?: "ranking" | "compliance" | "cycle";
+  table?: "ranking" | "compliance" | "cycle" | "placement";
   /** Weights to rank with; the stored ones when absent. */
   weights?: Weights;
   exportedAt: Date;
@@ -57,11 +57,12 @@ const XLSX_TYPE = "application/vnd.openxmlformats-officedocument.spreadsheetml.s
 
 function xlsxTables(analysis: ShortlistAnalysis, ranking: ShortlistAnalysis["ranking"]): Table[] {
   const cycles = (analysis.requirementSet.sequences ?? []).length > 0 ? [cycleTable(analysis), cycleStepsTable(analysis)] : [];
-  return [rankingTable(analysis, ranking), taskMatrixTable(analysis), complianceTable(analysis), ...cycles];
+  const placement = analysis.placement ? [placementTable(analysis)] : [];
+  return [rankingTable(analysis, ranking), taskMatrixTable(analysis), complianceTable(analysis), ...cycles, ...placement];
 }
 
 function csvFile(r: Pick<ShortlistExportRequest, "shortlist" | "run" | "table">, analysis: ShortlistAnalysis, ranking: ShortlistAnalysis["ranking"], meta: ExportMeta): ExportFile {
-  const table = r.table === "compliance" ? complianceTable(analysis) : r.table === "cycle" ? cycleTable(analysis) : rankingTable(analysis, ranking);
+  const table = r.table === "compliance" ? complianceTable(analysis) : r.table === "cycle" ? cycleTable(analysis) : r.table === "placement" ? placementTable(analysis) : rankingTable(analysis, ranking);
   return { fileName: `${baseName(r)}.${r.table ?? "ranking"}.csv`, contentType: "text/csv; charset=utf-8", body: "\uFEFF" + toCsv(table, meta) };
 }
 

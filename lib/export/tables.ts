@@ -126,6 +126,37 @@ export function cycleTable(analysis: ShortlistAnalysis): Table {
 }
 
 /**
+ * Each arm at its own best placement in the mounting region against the nominal base
+ * (docs/design.md#mount-placement): ranks, scores, the placement in mm and degrees, what it
+ * reaches there, the placements evaluated and the base pose (row-major, m). Ranked with the
+ * requirement set's weights. Empty without a mounting region (and in results made before it).
+ */
+export function placementTable(analysis: ShortlistAnalysis): Table {
+  const columns = [
+    "Arm", "Arm revision", "Rank at its placement", "Score at its placement", "Rank at the nominal base", "Score at the nominal base", "Rank change (places up)",
+    "x (mm)", "y (mm)", "z (mm)", "Yaw (°)", "Targets reached at its placement", "Targets reached at the nominal base",
+    "Paths followed at its placement", "Paths followed at the nominal base", "Placements evaluated", "Base pose (row-major 4×4, m)", "Note",
+  ];
+  const p = analysis.placement;
+  if (!p) return { title: "Placement", columns, rows: [] };
+  const reached = (a: ShortlistAnalysis["arms"][number]) => a.targets.filter((t) => t.reached).length;
+  const followed = (a: ShortlistAnalysis["arms"][number]) => a.paths.filter((t) => t.verdict === "meets" || t.verdict === "marginal").length;
+  const rows = p.ranking.map((placed): Cell[] => {
+    const arm = analysis.arms.find((a) => a.id === placed.armId)!;
+    const nominal = analysis.ranking.find((r) => r.armId === placed.armId)!;
+    const r = p.arms.find((a) => a.id === placed.armId)!;
+    const at = r.analysis, pl = r.placement;
+    return [
+      arm.name, arm.revision, placed.rank, round(placed.score, 4), nominal.rank, round(nominal.score, 4), nominal.rank - placed.rank,
+      pl ? round(pl.x * 1000, 1) : null, pl ? round(pl.y * 1000, 1) : null, pl ? round(pl.z * 1000, 1) : null, pl ? round((pl.yaw * 180) / Math.PI, 2) : null,
+      at ? reached(at) : null, reached(arm), at ? followed(at) : null, followed(arm), r.evaluated,
+      r.base ? r.base.map((v) => round(v, 9)).join(" ") : null, r.skipped ?? (placed.disqualified ? `disqualified: ${placed.failedMusts.join("; ")}` : null),
+    ];
+  });
+  return { title: "Placement", columns, rows };
+}
+
+/**
  * Each cycle's steps (the breakdown behind the cycle table): one row per (sequence, arm, step)
  * with the step's kind, target or path, time and limiting joint.
  */

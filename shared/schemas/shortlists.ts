@@ -18,7 +18,7 @@ export type CreateShortlistInput = z.output<typeof createShortlistInput>;
 /** The query of a shortlist export: format, table (CSV), run (default: latest finished) and weights. */
 export const exportQuery = z.object({
   format: z.enum(["csv", "xlsx", "json"], { error: "must be csv, xlsx or json" }),
-  table: z.enum(["ranking", "compliance", "cycle"], { error: "must be ranking, compliance or cycle" }).optional(),
+  table: z.enum(["ranking", "compliance", "cycle", "placement"], { error: "must be ranking, compliance, cycle or placement" }).optional(),
   run: z.string().min(1).max(100).optional(),
   weights: z.string().max(300).optional(),
 });

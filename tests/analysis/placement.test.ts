@@ -168,3 +168,39 @@ function seedSetWithRegion(orientation = I4): RequirementSet {
   const z = orientation[10] < 0 ? [1.6, 1.7] : [0.7, 0.85];
   return requirementSetSchema.parse({ ...raw, mounting: { region: { x: [-0.3, 0.1], y: [-0.2, 0.2], z, yaw: [-Math.PI / 2, Math.PI / 2] }, orientation } });
 }
+
+describe("the shortlist analysis with a mounting region (docs/design.md#mount-placement)", { timeout: 120_000 }, () => {
+  it("analyses each arm again at its own placement, ranks them there, and keeps the nominal result as it was", async () => {
+    const { analyzeShortlist } = await import("@/lib/analysis");
+    const { placementTable } = await import("@/lib/export/tables");
+    const targets = [point("left", 0, 0.1), point("right", 1.6, 0.1)];
+    const mounting = { region: { x: [0, 1] as [number, number], y: [-0.2, 0.2] as [number, number], z: [0, 0] as [number, number], yaw: [0, 0] as [number, number] }, orientation: I4 };
+    const withRegion = set({ targets, mounting });
+    const withoutRegion = set({ targets, mounting: undefined });
+    const arms = [{ id: "short", revision: 1, arm: planar2R(0.5, 0.4) }, { id: "long", revision: 1, arm: planar2R(0.9, 0.8) }];
+    const r = analyzeShortlist(arms, withRegion);
+    const plain = analyzeShortlist(arms, withoutRegion);
+    expect(JSON.stringify(r.arms)).toBe(JSON.stringify(plain.arms));
+    expect(plain.placement).toBeUndefined();
+    const p = r.placement!;
+    // at the nominal base (the origin) the short arm reaches only "left" (0.9 m reach, Craig ch. 4);
+    // at its placement, about x = 0.8 m, both; the long arm reaches both from anywhere in between.
+    expect(r.arms[0].targets.map((t) => t.reached)).toEqual([true, false]);
+    const short = p.arms.find((a) => a.id === "short")!;
+    expect(short.analysis!.targets.map((t) => t.reached)).toEqual([true, true]);
+    expect(Math.abs(short.placement!.x - 0.8)).toBeLessThan(0.1 + 1e-9);
+    // the analysis at the placement is the analysis of the set with that base
+    const again = analyzeShortlist([arms[0]], { ...withRegion, base: short.base!, mounting: undefined });
+    expect(JSON.stringify(short.analysis)).toBe(JSON.stringify(again.arms[0]));
+    expect(p.ranking.map((x) => x.armId).sort()).toEqual(["long", "short"]);
+    expect(short.coverage!.reached).toHaveLength(short.coverage!.xs.length * short.coverage!.ys.length);
+    expect(Math.max(...short.coverage!.reached)).toBe(2);
+    // the export table: one row per arm, the placement in mm
+    const t = placementTable(r);
+    expect(t.rows).toHaveLength(2);
+    const row = t.rows.find((x) => x[0] === "planar 2R" && x[2] === p.ranking.find((k) => k.armId === "short")!.rank)!;
+    expect(row[t.columns.indexOf("x (mm)")]).toBeCloseTo(short.placement!.x * 1000, 1);
+    expect(row[t.columns.indexOf("Targets reached at its placement")]).toBe(2);
+    expect(row[t.columns.indexOf("Targets reached at the nominal base")]).toBe(1);
+  });
+});

@@ -28,7 +28,7 @@ beforeAll(() => {
     caution: analysis.caution,
     exportedAt: "2026-01-02T03:05:00.000Z",
   };
-});
+}, 120_000); // the bench set has a mounting region: the analysis searches each arm's placement too
 
 describe("CSV", () => {
   it("quotes, doubles quotes and guards formula-like text", () => {

@@ -137,7 +137,7 @@ export default async function ShortlistPage({ params, searchParams }: { params: 
           <p className="caution-top" data-testid="caution">
             {analysis.caution}
           </p>
-          <ResultView analysis={analysis} shortlistId={id} runId={shown.id} requirementSetId={sl.requirement.setId} canSaveWeights={canSaveWeights} />
+          <ResultView analysis={analysis} shortlistId={id} runId={shown.id} requirementSetId={sl.requirement.setId} requirementRevision={shown.pins?.requirement.revision ?? null} canSaveWeights={canSaveWeights} />
         </>
       )}
 
