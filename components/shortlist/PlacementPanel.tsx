@@ -30,8 +30,11 @@ function CoverageChart({ row, targets }: { row: PlacementRow; targets: { name: s
   const x0 = Math.min(xs[0] - dx / 2, ...targets.map((t) => t.x)), x1 = Math.max(xs[xs.length - 1] + dx / 2, ...targets.map((t) => t.x));
   const y0 = Math.min(ys[0] - dy / 2, ...targets.map((t) => t.y)), y1 = Math.max(ys[ys.length - 1] + dy / 2, ...targets.map((t) => t.y));
   const span = Math.max(x1 - x0, y1 - y0) || 1;
-  const sx = (x: number) => pad + ((x - x0) / span) * (W - 2 * pad);
-  const sy = (y: number) => H - pad - ((y - y0) / span) * (H - 2 * pad);
+  // one scale for both axes (a plan view), the drawing centred in the square
+  const k = (W - 2 * pad) / span, offX = ((span - (x1 - x0)) * k) / 2, offY = ((span - (y1 - y0)) * k) / 2;
+  const sx = (x: number) => pad + offX + (x - x0) * k;
+  const sy = (y: number) => H - pad - offY - (y - y0) * k;
+  const labels = dx * k >= 16 && dy * k >= 12;
   const best = Math.max(...c.reached);
   return (
     <figure className="coverage" data-testid="coverage-map" data-arm-id={row.id}>
@@ -45,7 +48,7 @@ function CoverageChart({ row, targets }: { row: PlacementRow; targets: { name: s
                 <rect x={sx(x - dx / 2)} y={sy(y + dy / 2)} width={sx(x + dx / 2) - sx(x - dx / 2)} height={sy(y - dy / 2) - sy(y + dy / 2)} fill={`rgba(31, 110, 180, ${0.08 + 0.82 * share})`} stroke="#fff" strokeWidth={0.5}>
                   <title>{`x ${mm(x)} mm, y ${mm(y)} mm: ${n} of ${c.total} targets`}</title>
                 </rect>
-                {xs.length <= 12 && <text x={sx(x)} y={sy(y) + 4} fontSize={9} textAnchor="middle" fill={share > 0.55 ? "#fff" : "#1b2a38"}>{n}</text>}
+                {labels && <text x={sx(x)} y={sy(y) + 4} fontSize={9} textAnchor="middle" fill={share > 0.55 ? "#fff" : "#1b2a38"}>{n}</text>}
               </g>
             );
           }),
