@@ -1,6 +1,9 @@
 "use client";
-import { useId, useState } from "react";
+import { useEffect, useId, useState } from "react";
 import type { Verdict } from "@/lib/analysis/types";
+import type { RunArmView } from "@/lib/analysis/shortlist";
+import { api } from "../api";
+import { armMatrixCells } from "./view";
 import { fixed } from "@/shared/format";
 import { VERDICT_SYMBOL } from "./verdict";
 
@@ -12,9 +15,10 @@ export interface MatrixCell {
   margin: number | null;
   /** Limiting factor, in words. */
   limiting: string;
-  reason: string;
-  /** Further lines: residuals, branches, holding, force, wrist, path events. */
-  details: string[];
+  /** The reason in words; absent when the page left it out (loaded with the arm on opening). */
+  reason?: string;
+  /** Further lines: residuals, branches, holding, force, wrist, path events (absent like `reason`). */
+  details?: string[];
 }
 
 export interface MatrixRow {
@@ -23,14 +27,36 @@ export interface MatrixRow {
   cells: MatrixCell[];
 }
 
+/** Where the matrix loads a row's reasons and details from: the run's view of one arm. */
+interface DetailsSource {
+  shortlistId: string;
+  runId: string;
+  requirementSet: { targets: string[]; paths: string[] };
+}
+
+type Loaded = { state: "loading" } | { state: "ready"; cells: MatrixCell[] } | { state: "failed"; message: string };
+
 /**
  * Arms × targets and paths. Each cell is a button: its verdict word and symbol with the dexterity
  * margin; hovering or focusing shows the limiting factor, activating it opens the details panel.
+ * When the rows come without reasons and details (a large page), opening a cell loads its arm's
+ * from `source` (once per arm).
  */
-export function TaskMatrix({ columns, rows, threshold }: { columns: { kind: "target" | "path"; name: string }[]; rows: MatrixRow[]; threshold: number }) {
+export function TaskMatrix({ columns, rows, threshold, source }: { columns: { kind: "target" | "path"; name: string }[]; rows: MatrixRow[]; threshold: number; source?: DetailsSource }) {
   const uid = useId();
   const [open, setOpen] = useState<{ r: number; c: number } | null>(null);
-  const cell = open ? rows[open.r]?.cells[open.c] : undefined;
+  const [loaded, setLoaded] = useState<Record<string, Loaded>>({});
+  const base = open ? rows[open.r]?.cells[open.c] : undefined;
+  const armId = open ? rows[open.r]?.armId : undefined;
+  const extra = armId ? loaded[armId] : undefined;
+  const cell = base && base.details === undefined && extra?.state === "ready" ? { ...base, ...extra.cells[open!.c] } : base;
+  useEffect(() => {
+    if (!source || !base || base.details !== undefined || !armId || loaded[armId]) return;
+    setLoaded((l) => ({ ...l, [armId]: { state: "loading" } }));
+    void api<RunArmView>(`/api/shortlists/${source.shortlistId}/runs/${source.runId}/view?arm=${encodeURIComponent(armId)}`, "GET").then((r) =>
+      setLoaded((l) => ({ ...l, [armId]: r.ok ? { state: "ready", cells: armMatrixCells(source.requirementSet, r.data.analysis) } : { state: "failed", message: r.error.message } })),
+    );
+  }, [source, base, armId, loaded]);
   return (
     <section className="panel" aria-labelledby={uid + "-h"} data-testid="task-matrix">
       <h2 id={uid + "-h"}>Task matrix</h2>
@@ -95,11 +121,11 @@ export function TaskMatrix({ columns, rows, threshold }: { columns: { kind: "tar
                 <span aria-hidden="true">{VERDICT_SYMBOL[cell.verdict]}</span> {cell.verdict}
               </span>
             </h3>
-            <p>{cell.reason}</p>
+            {cell.reason !== undefined ? <p>{cell.reason}</p> : extra?.state === "failed" ? <p role="alert" className="err">The details could not be loaded: {extra.message}</p> : <p className="sub">Loading the details…</p>}
             <p>
               <strong>Limiting factor:</strong> {cell.limiting}
             </p>
-            {cell.details.length > 0 && (
+            {cell.details && cell.details.length > 0 && (
               <ul>
                 {cell.details.map((d, i) => (
                   <li key={i}>{d}</li>

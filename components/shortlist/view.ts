@@ -67,16 +67,26 @@ function pathCell(p: PathAnalysis): MatrixCell {
   return { kind: "path", name: p.name, verdict: p.verdict, margin: p.minDexterityMargin, limiting, reason: p.reason, details };
 }
 
+/** One arm's row of matrix cells, targets then paths, with their reasons and details. */
+export function armMatrixCells(req: Pick<ShortlistAnalysis["requirementSet"], "targets" | "paths">, arm: ArmAnalysis): MatrixCell[] {
+  return arm.error
+    ? [...req.targets.map((name) => ({ kind: "target" as const, name })), ...req.paths.map((name) => ({ kind: "path" as const, name }))].map((c) => ({
+        ...c, verdict: "unknown" as const, margin: null, limiting: "arm not analysed", reason: arm.summary, details: [],
+      }))
+    : [...arm.targets.map(targetCell), ...arm.paths.map(pathCell)];
+}
+
 export function matrixRows(a: ShortlistAnalysis): MatrixRow[] {
-  return a.arms.map((arm) => ({
-    armId: arm.id,
-    armName: arm.name,
-    cells: arm.error
-      ? [...a.requirementSet.targets.map((name) => ({ kind: "target" as const, name })), ...a.requirementSet.paths.map((name) => ({ kind: "path" as const, name }))].map((c) => ({
-          ...c, verdict: "unknown" as const, margin: null, limiting: "arm not analysed", reason: arm.summary, details: [],
-        }))
-      : [...arm.targets.map(targetCell), ...arm.paths.map(pathCell)],
-  }));
+  return a.arms.map((arm) => ({ armId: arm.id, armName: arm.name, cells: armMatrixCells(a.requirementSet, arm) }));
+}
+
+/**
+ * The matrix as the page sends it: each cell's verdict, margin and limiting factor; the reason
+ * and the details are left out (the matrix loads them with the arm when a cell is opened), so a
+ * large shortlist's page does not carry them for every cell.
+ */
+export function matrixSummaryRows(a: ShortlistAnalysis): MatrixRow[] {
+  return matrixRows(a).map((r) => ({ ...r, cells: r.cells.map(({ reason: _reason, details: _details, ...c }) => c) }));
 }
 
 export function matrixColumns(a: ShortlistAnalysis): { kind: "target" | "path"; name: string }[] {

@@ -12,7 +12,7 @@ import { readStoredDocument, userRef, type UserRef } from "./documents";
 import { listArms, type ArmSummary } from "./arms";
 import { listRequirementSets, type RequirementSummary } from "./requirements";
 import { unreadCounts, type UnreadCount } from "./comments";
-import { hasStoredResult, readResult, storedForm, storeResultInTx, type ResultToStore } from "./results";
+import { hasStoredResult, readResult, readResultArm, storedForm, storeResultInTx, type ResultToStore } from "./results";
 
 /**
  * A run analysed by a web server's own runner that has not reported progress for this long is
@@ -390,10 +390,13 @@ export async function getRunResultKey(runId: string): Promise<string | null> {
 export async function getRunArmView(shortlistId: string, runId: string, armId: string): Promise<RunArmView> {
   const run = await getRun(runId);
   if (!run || run.shortlistId !== shortlistId) throw new NotFoundError(`shortlist ${shortlistId} has no analysis run ${runId}`);
-  const result = run.status === "done" ? await getRunResult(runId) : null;
-  if (!result || !run.pins) throw new NotFoundError(`analysis run ${runId} has no result (status ${run.status})`);
-  const pin = run.pins.arms.find((a) => a.armId === armId);
-  const analysis = result.arms.find((a) => a.id === armId);
+  const key = run.status === "done" ? await getRunResultKey(runId) : null;
+  if (!key || !run.pins) throw new NotFoundError(`analysis run ${runId} has no result (status ${run.status})`);
+  const position = run.pins.arms.findIndex((a) => a.armId === armId);
+  const pin = run.pins.arms[position];
+  // the result's arms are in the pins' order: read that one arm alone
+  const stored = position >= 0 ? await readResultArm(key, position) : null;
+  const analysis = stored?.id === armId ? stored : position >= 0 ? (await getRunResult(runId))?.arms.find((a) => a.id === armId) : undefined;
   if (!pin || !analysis) throw new NotFoundError(`analysis run ${runId} does not include arm ${armId}`);
   const inputs = await loadPinnedInputs({ requirement: run.pins.requirement, arms: [pin] });
   return { runId, armId, revision: pin.revision, arm: inputs.arms[0].arm, requirementSet: inputs.requirementSet, analysis };

@@ -131,6 +131,9 @@ describe("shortlist page", () => {
     await p.keyboard.press("Enter");
     const details = p.getByRole("region", { name: "Cell details" });
     await details.getByText("Limiting factor:").waitFor();
+    // the page sent this 9-arm matrix without reasons and details: they load with the arm on opening
+    await expect.poll(() => details.locator("li").count()).toBeGreaterThan(0);
+    expect(await details.getByText("Loading the details…").count()).toBe(0);
     const heading = (await details.locator("h3").textContent())!;
     expect(label.startsWith(heading.split(":")[0].replace(" · ", ", "))).toBe(true);
     expect(await second.getAttribute("aria-expanded")).toBe("true");
@@ -216,6 +219,29 @@ describe("shortlist page", () => {
     expect(text).toContain("ISO 12100");
     expect(text).not.toContain("Sign out");
     expect(text).not.toContain("Skip to content");
+  });
+
+  it("sends the arm sections beyond the first three collapsed and loads one on demand from the run's view endpoint", async () => {
+    const p = t.page;
+    await p.goto(shortlistUrl);
+    const sections = p.getByTestId("arm-section");
+    await sections.first().waitFor();
+    expect(await sections.count()).toBe(9);
+    const collapsed = p.locator('[data-testid="arm-section"][data-collapsed="true"]');
+    expect(await collapsed.count()).toBe(6);
+    // the page's HTML has the heading and summary of a collapsed arm, not its tables
+    const fourth = sections.nth(3);
+    expect(await fourth.getByRole("heading", { level: 4 }).count()).toBe(0);
+    const asked = p.waitForRequest((r) => /\/api\/shortlists\/[^/]+\/runs\/[^/]+\/view\?arm=/.test(r.url()));
+    await fourth.getByTestId("arm-section-load").click();
+    await asked;
+    await sections.nth(3).getByRole("heading", { name: "Payload", level: 4 }).waitFor();
+    await sections.nth(3).getByTestId("solution-view3d").waitFor();
+    expect(await collapsed.count()).toBe(5);
+    await p.getByTestId("arm-sections-load-all").click();
+    await expect.poll(() => collapsed.count()).toBe(0);
+    expect(await p.getByRole("heading", { name: "Payload", level: 4 }).count()).toBe(9);
+    expect(t.errors()).toEqual([]);
   });
 
   it("says when an arm has a newer revision; re-pinning gives a new result and keeps the old one readable", async () => {
