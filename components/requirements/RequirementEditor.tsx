@@ -1,6 +1,6 @@
 "use client";
 import type { RequirementSet } from "@/shared/schemas";
-import { DescriptionField, NumberField, TextField, errText } from "../fields";
+import { DescriptionField, NumberField, TextField, errText, wholeErrors } from "../fields";
 import { PoseFieldset } from "../PoseFieldset";
 import { EditorFrame } from "../EditorFrame";
 import { useDocumentEditor, type DocumentKind } from "../useDocumentEditor";
@@ -170,6 +170,75 @@ export function RequirementEditor(props: Props) {
           onChange={(rows, s) => update({ obstacles: rows }, s)}
         />
         <CellCaution />
+      </fieldset>
+
+      <fieldset className="panel" data-testid="mounting-panel">
+        <legend>Mounting region (placement search)</legend>
+        <p className="hint">
+          Where the base may stand: each arm is searched for its own best placement in this box and yaw range, then ranked there beside the nominal base above. Positions of the base origin
+          in mm in the cell frame, yaw in ° about the cell z axis after the mount orientation; pedestal heights (mm, comma-separated) replace the z range.
+        </p>
+        <label className="check">
+          <input type="checkbox" checked={form.mounting.on} disabled={readOnly} onChange={(e) => update({ mounting: { ...form.mounting, on: e.target.checked } })} /> Search a mounting region
+        </label>
+        {form.mounting.on && (
+          <>
+            <div className="grid">
+              {(
+                [
+                  ["x", "x", "mm"],
+                  ["y", "y", "mm"],
+                  ["z", "z", "mm"],
+                  ["yaw", "yaw", "°"],
+                ] as const
+              ).map(([key, label, unit]) =>
+                ([0, 1] as const).map((end) => (
+                  <NumberField
+                    key={`${key}${end}`}
+                    label={`${label} ${end === 0 ? "from" : "to"}`}
+                    name={`mounting.region.${key}.${end}`}
+                    unit={unit}
+                    value={form.mounting[key][end]}
+                    readOnly={readOnly}
+                    error={end === 0 ? errText(errMap, `mounting.region.${key}`) : undefined}
+                    onChange={(v) => {
+                      const r: [string, string] = [...form.mounting[key]];
+                      r[end] = v;
+                      update({ mounting: { ...form.mounting, [key]: r } });
+                    }}
+                  />
+                )),
+              )}
+              <TextField
+                label="Pedestal heights"
+                hint="mm, comma-separated; instead of the z range"
+                name="mounting.heights"
+                value={form.mounting.heights}
+                readOnly={readOnly}
+                error={wholeErrors(errMap, "mounting.heights")}
+                onChange={(v) => update({ mounting: { ...form.mounting, heights: v } })}
+              />
+              <div className="field">
+                <label htmlFor="mount-orientation">Mount orientation</label>
+                <select
+                  id="mount-orientation"
+                  name="mounting.orientation"
+                  value={form.mounting.preset}
+                  disabled={readOnly}
+                  aria-invalid={errText(errMap, "mounting.orientation") ? true : undefined}
+                  aria-describedby={errText(errMap, "mounting.orientation") ? "mount-orientation-err" : undefined}
+                  onChange={(e) => update({ mounting: { ...form.mounting, preset: e.target.value as typeof form.mounting.preset } })}
+                >
+                  <option value="floor">floor (base z up)</option>
+                  <option value="ceiling">ceiling (base z down)</option>
+                  <option value="wall">wall (base z along the cell x)</option>
+                  {form.mounting.fileOrientation && <option value="file">as in the file</option>}
+                </select>
+                {errText(errMap, "mounting.orientation") && <span id="mount-orientation-err" className="err">{errText(errMap, "mounting.orientation")}</span>}
+              </div>
+            </div>
+          </>
+        )}
       </fieldset>
 
       <div className="two-col">

@@ -23,6 +23,7 @@ import { degToRad, mmToM, mToMm, radToDeg } from "@/shared/units";
 import { checkFormDoc } from "../formDoc";
 import { matrixPose, parseNum, poseMatrix, rowKey, show, type PoseText } from "../pose";
 import { shapeRowFromDoc, shapeRowToDoc, type ShapeRow } from "./shapes";
+import { MOUNT_PRESETS } from "@/shared/schemas/mounting";
 
 type Conv = "mm" | "deg" | "same";
 const toShown = (c: Conv, si: number) => (c === "mm" ? mToMm(si) : c === "deg" ? radToDeg(si) : si);
@@ -40,6 +41,8 @@ export interface TargetRow {
   mx: string; my: string; mz: string;
   /** Obstacle names the tool and payload may touch here, comma-separated. */
   contact: string;
+  /** The target's priority for the placement search (not edited here; carried through). */
+  priority?: "must" | "want";
 }
 export interface WaypointRow {
   key: string;
@@ -114,12 +117,31 @@ export interface ReqForm {
   specs: SpecRow[];
   weights: Record<WeightKey, string>;
   /** Parts the form does not edit, carried through unchanged. */
-  /** Fields the form does not edit, carried through unchanged (the mounting region: the placement search, docs/formats.md#mounting). */
-  keep: { toolInertia?: [number, number, number]; payloadInertia?: [number, number, number]; mounting?: RequirementSet["mounting"] };
+  /** The mounting region of the placement search (docs/formats.md#mounting): mm and °, off when `on` is false. */
+  mounting: MountingForm;
+  keep: { toolInertia?: [number, number, number]; payloadInertia?: [number, number, number] };
   /** Loaded values: id → text shown and SI value. */
   orig: Record<string, { text: string; si: number }>;
   /** Loaded transforms: id → texts and matrix. */
   origPose: Record<string, { text: PoseText; matrix: number[] }>;
+}
+
+/** The mounting region as edited: ranges in mm (x, y, z) and ° (yaw), heights in mm, the orientation preset. */
+export interface MountingForm {
+  on: boolean;
+  x: [string, string];
+  y: [string, string];
+  z: [string, string];
+  yaw: [string, string];
+  /** Pedestal heights, comma-separated mm (empty: the continuous z range). */
+  heights: string;
+  preset: "floor" | "ceiling" | "wall" | "file";
+  /** The orientation as loaded, kept when `preset` is "file" (not one of the presets). */
+  fileOrientation: number[] | null;
+}
+
+export function emptyMountingForm(): MountingForm {
+  return { on: false, x: ["-200", "200"], y: ["-200", "200"], z: ["0", "0"], yaw: ["-90", "90"], heights: "", preset: "floor", fileOrientation: null };
 }
 
 export const COMPARATOR_LABEL = Object.fromEntries(
@@ -208,9 +230,54 @@ export function emptyReqForm(): ReqForm {
     sequences: [],
     specs: [],
     weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, String(DEFAULT_WEIGHTS[k])])) as Record<WeightKey, string>,
+    mounting: emptyMountingForm(),
     keep: {},
     orig: {},
     origPose: {},
+  };
+}
+
+const samePose = (a: readonly number[], b: readonly number[]) => a.length === b.length && a.every((v, i) => v === b[i]);
+
+function mountingFormFromDoc(m: RequirementSet["mounting"], t: (id: string, si: number | undefined, c: Conv) => string): MountingForm {
+  if (!m) return emptyMountingForm();
+  const pair = (id: string, r: readonly number[] | undefined, c: Conv): [string, string] => (r ? [t(`${id}.0`, r[0], c), t(`${id}.1`, r[1], c)] : ["", ""]);
+  const preset = (Object.keys(MOUNT_PRESETS) as (keyof typeof MOUNT_PRESETS)[]).find((k) => samePose(MOUNT_PRESETS[k], m.orientation));
+  return {
+    on: true,
+    x: pair("mount.x", m.region.x, "mm"), y: pair("mount.y", m.region.y, "mm"), z: pair("mount.z", m.region.z, "mm"), yaw: pair("mount.yaw", m.region.yaw, "deg"),
+    heights: (m.heights ?? []).map((h, i) => t(`mount.h${i}`, h, "mm")).join(", "),
+    preset: preset ?? "file",
+    fileOrientation: preset ? null : [...m.orientation],
+  };
+}
+
+/** The mounting region from the form (undefined when off); number problems go into `errors` at their field. */
+function mountingToDoc(
+  form: ReqForm,
+  num: (id: string, text: string, c: Conv, path: string, what: string, required?: boolean) => number | undefined,
+  errors: FieldError[],
+): RequirementSet["mounting"] {
+  const m = form.mounting;
+  if (!m.on) return undefined;
+  const pair = (id: string, r: [string, string], c: Conv, path: string, what: string, required = true): [number, number] | undefined => {
+    if (!required && r.every((v) => v.trim() === "")) return undefined;
+    return [num(`${id}.0`, r[0], c, path, `${what} from`) ?? 0, num(`${id}.1`, r[1], c, path, `${what} to`) ?? 0];
+  };
+  const heightTexts = m.heights.split(",").map((v) => v.trim()).filter((v) => v !== "");
+  const heights = heightTexts.map((v, i) => num(`mount.h${i}`, v, "mm", `mounting.heights.${i}`, `pedestal height ${i + 1}`) ?? 0);
+  const z = pair("mount.z", m.z, "mm", "mounting.region.z", "mounting z", heights.length === 0);
+  const orientation = m.preset === "file" && m.fileOrientation ? m.fileOrientation : [...MOUNT_PRESETS[m.preset === "file" ? "floor" : m.preset]];
+  if (m.preset === "file" && !m.fileOrientation) errors.push({ path: "mounting.orientation", message: "choose a mount orientation" });
+  return {
+    region: {
+      x: pair("mount.x", m.x, "mm", "mounting.region.x", "mounting x")!,
+      y: pair("mount.y", m.y, "mm", "mounting.region.y", "mounting y")!,
+      ...(z ? { z } : {}),
+      yaw: pair("mount.yaw", m.yaw, "deg", "mounting.region.yaw", "mounting yaw")!,
+    },
+    orientation,
+    ...(heights.length ? { heights } : {}),
   };
 }
 
@@ -245,6 +312,7 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
       fx: t(`${key}.fx`, tg.force?.[0], "same"), fy: t(`${key}.fy`, tg.force?.[1], "same"), fz: t(`${key}.fz`, tg.force?.[2], "same"),
       mx: t(`${key}.mx`, tg.moment?.[0], "same"), my: t(`${key}.my`, tg.moment?.[1], "same"), mz: t(`${key}.mz`, tg.moment?.[2], "same"),
       contact: (tg.contact ?? []).join(", "),
+      ...(tg.priority ? { priority: tg.priority } : {}),
     };
   });
   const paths = doc.paths.map((p): PathForm => {
@@ -315,7 +383,8 @@ export function reqFormFromDoc(doc: RequirementSet): ReqForm {
     sequences,
     specs,
     weights: Object.fromEntries(WEIGHT_KEYS.map((k) => [k, t(`w.${k}`, w[k], "same")])) as Record<WeightKey, string>,
-    keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia, mounting: doc.mounting },
+    mounting: mountingFormFromDoc(doc.mounting, t),
+    keep: { toolInertia: doc.tool.inertia, payloadInertia: doc.payload.inertia },
     orig,
     origPose,
   };
@@ -368,6 +437,7 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     if (moment) target.moment = moment;
     const contact = nameList(t.contact);
     if (contact.length) target.contact = contact;
+    if (t.priority) target.priority = t.priority;
     return target;
   });
 
@@ -461,7 +531,8 @@ export function reqFormToDoc(form: ReqForm): { doc: RequirementSet; errors: Fiel
     weights,
   };
   if (sequences.length) doc.sequences = sequences;
-  if (form.keep.mounting) doc.mounting = form.keep.mounting;
+  const mounting = mountingToDoc(form, num, errors);
+  if (mounting) doc.mounting = mounting;
   if (form.description.trim()) doc.description = form.description;
   return { doc, errors };
 }

@@ -41,7 +41,7 @@ export function CycleCompliance({ analysis }: { analysis: ShortlistAnalysis }) {
                   if (!c) return <td key={a.id} data-arm-id={a.id}>not in this result</td>;
                   return (
                     <td key={a.id} className="ccell" title={c.reason} data-arm-id={a.id}>
-                      <span className="cval">{c.time === null ? "unknown" : `${sText(c.time)} s`}</span>
+                      <span className="cval">{c.time !== null ? `${sText(c.time)} s` : c.blocked ? `blocked at step ${c.blocked.step}` : "unknown"}</span>
                       {c.partsPerHour !== null && <span className="hint"> ({fixed(c.partsPerHour, 0)} parts/h)</span>}
                       {c.estimate && <span className="hint" title={`assumed acceleration on joint${c.assumedAcceleration.length > 1 ? "s" : ""} ${c.assumedAcceleration.join(", ")}`}> estimate</span>}
                       <br />

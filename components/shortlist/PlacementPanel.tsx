@@ -24,18 +24,21 @@ function rankChange(from: number, to: number): string {
 function CoverageChart({ row, targets }: { row: PlacementRow; targets: { name: string; x: number; y: number }[] }) {
   const c = row.result.coverage, p = row.result.placement;
   if (!c || !p) return null;
-  const W = 320, H = 320, pad = 28;
+  const W = 400, H = 400, pad = 40;
   const xs = c.xs, ys = c.ys;
   const dx = xs.length > 1 ? xs[1] - xs[0] : 0.1, dy = ys.length > 1 ? ys[1] - ys[0] : 0.1;
   const x0 = Math.min(xs[0] - dx / 2, ...targets.map((t) => t.x)), x1 = Math.max(xs[xs.length - 1] + dx / 2, ...targets.map((t) => t.x));
   const y0 = Math.min(ys[0] - dy / 2, ...targets.map((t) => t.y)), y1 = Math.max(ys[ys.length - 1] + dy / 2, ...targets.map((t) => t.y));
   const span = Math.max(x1 - x0, y1 - y0) || 1;
-  const sx = (x: number) => pad + ((x - x0) / span) * (W - 2 * pad);
-  const sy = (y: number) => H - pad - ((y - y0) / span) * (H - 2 * pad);
+  // one scale for both axes (a plan view), the drawing centred in the square
+  const k = (W - 2 * pad) / span, offX = ((span - (x1 - x0)) * k) / 2, offY = ((span - (y1 - y0)) * k) / 2;
+  const sx = (x: number) => pad + offX + (x - x0) * k;
+  const sy = (y: number) => H - pad - offY - (y - y0) * k;
+  const labels = dx * k >= 16 && dy * k >= 12;
   const best = Math.max(...c.reached);
   return (
     <figure className="coverage" data-testid="coverage-map" data-arm-id={row.id}>
-      <svg viewBox={`0 0 ${W} ${H}`} width={W} height={H} role="img" aria-label={`Coverage map of ${row.name}: targets reached over the region at z ${mm(c.z)} mm and yaw ${deg(c.yaw)}, at most ${best} of ${c.total}`}>
+      <svg viewBox={`0 0 ${W} ${H}`} width={W} height={H} style={{ maxWidth: "100%", height: "auto" }} role="img" aria-label={`Coverage map of ${row.name}: targets reached over the region at z ${mm(c.z)} mm and yaw ${deg(c.yaw)}, at most ${best} of ${c.total}`}>
         {ys.map((y, j) =>
           xs.map((x, i) => {
             const n = c.reached[j * xs.length + i];
@@ -45,7 +48,7 @@ function CoverageChart({ row, targets }: { row: PlacementRow; targets: { name: s
                 <rect x={sx(x - dx / 2)} y={sy(y + dy / 2)} width={sx(x + dx / 2) - sx(x - dx / 2)} height={sy(y - dy / 2) - sy(y + dy / 2)} fill={`rgba(31, 110, 180, ${0.08 + 0.82 * share})`} stroke="#fff" strokeWidth={0.5}>
                   <title>{`x ${mm(x)} mm, y ${mm(y)} mm: ${n} of ${c.total} targets`}</title>
                 </rect>
-                {xs.length <= 12 && <text x={sx(x)} y={sy(y) + 4} fontSize={9} textAnchor="middle" fill={share > 0.55 ? "#fff" : "#1b2a38"}>{n}</text>}
+                {labels && <text x={sx(x)} y={sy(y) + 4} fontSize={9} textAnchor="middle" fill={share > 0.55 ? "#fff" : "#1b2a38"}>{n}</text>}
               </g>
             );
           }),
@@ -62,8 +65,16 @@ function CoverageChart({ row, targets }: { row: PlacementRow; targets: { name: s
           <line x1={sx(p.x) - 7} y1={sy(p.y) + 7} x2={sx(p.x) + 7} y2={sy(p.y) - 7} />
           <title>{`best placement: x ${mm(p.x)} mm, y ${mm(p.y)} mm`}</title>
         </g>
-        <text x={pad} y={H - 6} fontSize={10} fill="#445">x →</text>
-        <text x={4} y={pad - 10} fontSize={10} fill="#445">↑ y</text>
+        <g fontSize={10} fill="#445">
+          <line x1={sx(x0)} y1={sy(y0)} x2={sx(x1)} y2={sy(y0)} stroke="#99a" />
+          <line x1={sx(x0)} y1={sy(y0)} x2={sx(x0)} y2={sy(y1)} stroke="#99a" />
+          <text x={sx(x0)} y={sy(y0) + 14} textAnchor="start">{mm(x0)}</text>
+          <text x={sx(x1)} y={sy(y0) + 14} textAnchor="end">{mm(x1)}</text>
+          <text x={(sx(x0) + sx(x1)) / 2} y={sy(y0) + 28} textAnchor="middle">x (mm, cell frame) →</text>
+          <text x={sx(x0) - 4} y={sy(y0)} textAnchor="end">{mm(y0)}</text>
+          <text x={sx(x0) - 4} y={sy(y1) + 8} textAnchor="end">{mm(y1)}</text>
+          <text x={sx(x0)} y={sy(y1) - 8} textAnchor="start">↑ y (mm)</text>
+        </g>
       </svg>
       <figcaption className="sub">
         {row.name}: targets reached (count per cell, darker = more) with the base at each x, y of the region, at z {mm(c.z)} mm and yaw {deg(c.yaw)}; red dots: targets (plan view);

@@ -454,13 +454,15 @@ export function searchPlacement(arm: ArmDocument, req: RequirementSet, opts: Sea
   const coarse: { u: number[]; r: PlacementEvaluation }[] = [];
   const nominal = nominalInRegion(req.base, m, space);
   const samples = d === 0 ? [[]] : [...(nominal ? [nominal] : []), space.free.map(() => 0.5), ...Array.from({ length: budget.coarsePerDimension * d + 4 }, (_, i) => space.free.map((_, c) => radicalInverse(i + 1, HALTON_BASES[c])))];
-  for (const u of samples) {
+  // nothing to reach or follow: every placement is as good as the first
+  const nothing = req.targets.length + req.paths.length === 0;
+  for (const u of nothing ? samples.slice(0, 1) : samples) {
     const r = evaluate(u, best);
     if (r) coarse.push({ u, r });
   }
 
   // ---- fine: compass search from the best few coarse placements (kept ones; the pruned lost to an earlier best)
-  if (d > 0) {
+  if (d > 0 && !nothing) {
     s.fine = true;
     const starts = coarse
       .map((c, i) => ({ ...c, i }))

@@ -23,7 +23,7 @@ import type { MountingSpec } from "@/shared/schemas/mounting";
 import { createMoveChecker } from "./cycle-cell";
 
 /** Bumped whenever a result could change for the same inputs (part of the cache key). */
-export const ANALYSIS_VERSION = "analysis-1.11.0";
+export const ANALYSIS_VERSION = "analysis-1.11.1";
 
 /** Shown on every analysis page and export (docs/design.md#cautions). */
 export const CAUTION =

@@ -92,7 +92,7 @@ export function complianceTable(analysis: ShortlistAnalysis): Table {
       if (!c || c.required === null) continue;
       rows.push([
         `Cycle time of sequence ${name}${c.estimate ? " (an estimate)" : ""}`, "want", COMPARATOR_TEXT.atMost.words, round(c.required, 3), "s",
-        a.name, a.revision, c.time === null ? "no data" : round(c.time, 3), c.time === null ? null : "s", c.verdict, c.reason,
+        a.name, a.revision, c.time !== null ? round(c.time, 3) : c.blocked ? `blocked at step ${c.blocked.step}` : "no data", c.time === null ? null : "s", c.verdict, c.reason,
       ]);
     }
   });

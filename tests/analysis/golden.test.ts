@@ -50,6 +50,9 @@ const GOLDEN: Record<string, string> = {
   // 1.11.0: with a mounting region, every arm's placement, its analysis there and the ranking at the
   // placements (this input has no region: only the version differs).
   "analysis-1.11.0": "81eaff320af461342efa04bace0a45bf7e7b6e8eb2ae77e689d3feafbf3594e3",
+  // 1.11.1: a set with a mounting region but nothing to reach or follow evaluates one placement, not the
+  // whole search (this input has no region: only the version differs).
+  "analysis-1.11.1": "4698781a79fd718ea7bd7be9074c6eb2601cee52e995f7ed6a1785d9bd45cbfc",
 };
 
 const DEG = Math.PI / 180;
