@@ -1,5 +1,6 @@
 import type { ShortlistAnalysis } from "@/lib/analysis/shortlist";
 import { fixed } from "@/shared/format";
+import { ComplianceHead } from "./ComplianceHead";
 import { VerdictTag } from "./verdict";
 
 const sText = (t: number | null) => (t === null ? "–" : fixed(t, 2));
@@ -16,18 +17,7 @@ export function CycleCompliance({ analysis }: { analysis: ShortlistAnalysis }) {
     <div className="table-wrap">
       <table className="compliance printable" data-testid="compliance-cycle">
         <caption>Cycle time per sequence (estimates for comparing arms: point-to-point moves at the joint limits entered, no blending)</caption>
-        <thead>
-          <tr>
-            <th scope="col">Sequence</th>
-            <th scope="col">Required</th>
-            <th scope="col">Unit</th>
-            {analysis.arms.map((a) => (
-              <th scope="col" key={a.id} data-arm-id={a.id}>
-                {a.name}
-              </th>
-            ))}
-          </tr>
-        </thead>
+        <ComplianceHead columns={["Sequence", "Required", "Unit"]} arms={analysis.arms} />
         <tbody>
           {names.map((name, i) => {
             const required = analysis.arms.map((a) => a.cycles?.[i]?.required ?? null).find((r) => r !== null) ?? null;

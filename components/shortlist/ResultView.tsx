@@ -17,6 +17,7 @@ import { armClearance } from "@/lib/analysis/clearance";
 import { CellCaution } from "../CellCaution";
 import { CycleSection } from "./CycleView";
 import { CycleCompliance } from "./CycleCompliance";
+import { ComplianceHead } from "./ComplianceHead";
 
 
 function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
@@ -29,18 +30,7 @@ function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
       {cell && (
         <div className="table-wrap">
           <table className="compliance printable" data-testid="compliance-clearance">
-            <thead>
-              <tr>
-                <th scope="col">Requirement</th>
-                <th scope="col">Required</th>
-                <th scope="col">Unit</th>
-                {analysis.arms.map((a) => (
-                  <th scope="col" key={a.id} data-arm-id={a.id}>
-                    {a.name}
-                  </th>
-                ))}
-              </tr>
-            </thead>
+            <ComplianceHead columns={["Requirement", "Required", "Unit"]} arms={analysis.arms} />
             <tbody>
               <tr>
                 <th scope="row">Clearance in the cell (targets and paths)</th>
@@ -67,21 +57,7 @@ function ComplianceTable({ analysis }: { analysis: ShortlistAnalysis }) {
       ) : (
         <div className="table-wrap">
           <table className="compliance printable" data-testid="compliance-table">
-            <thead>
-              <tr>
-                <th scope="col">Requirement</th>
-                <th scope="col">Priority</th>
-                <th scope="col">Required</th>
-                <th scope="col">Unit</th>
-                {analysis.arms.map((a) => (
-                  <th scope="col" key={a.id} data-arm-id={a.id}>
-                    {a.name}
-                    <br />
-                    <span className="hint">rev {a.revision}</span>
-                  </th>
-                ))}
-              </tr>
-            </thead>
+            <ComplianceHead columns={["Requirement", "Priority", "Required", "Unit"]} arms={analysis.arms} revisions />
             <tbody>
               {specs.map((_, i) => {
                 const s0 = first.specs[i];
