@@ -13,15 +13,8 @@ import { ArmSection } from "./ArmSection";
 /** The window event that makes every collapsed arm section load. */
 const LOAD_ALL = "armsift:load-arm-sections";
 
-export interface ArmHeading {
-  id: string;
-  name: string;
-  maker: string | null;
-  modelCode: string | null;
-  axes: number;
-  revision: number;
-  summary: string;
-}
+/** What a collapsed section shows before its arm is loaded. */
+export type ArmHeading = Pick<ArmAnalysis, "id" | "name" | "maker" | "modelCode" | "axes" | "revision" | "summary">;
 
 type State = { kind: "collapsed" } | { kind: "loading" } | { kind: "ready"; arm: ArmAnalysis } | { kind: "failed"; message: string };
 
