@@ -1,31 +1,20 @@
 // The cell through the browser: an obstacle edited in the requirement-set editor (field errors for
 // bad sizes and unknown contact names, then a real move), the analysis run again, and the
 // verdict and reason of the target changing on the shortlist page; the cautions beside the cell.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { signUp, startHarness, type Browser, type Harness, type TrackedPage } from "./harness";
+import { describe, expect, it } from "vitest";
+import { withAdminSession } from "./session";
 
 const ADMIN = { email: "cora@example.test", name: "Cora Cell", password: "a long layout passphrase" };
 const I = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
 
 describe("the cell on the pages", () => {
-  let h: Harness;
-  let b: Browser;
-  let t: TrackedPage;
+  const s = withAdminSession(ADMIN);
   let reqId = "";
   let shortlistUrl = "";
 
-  beforeAll(async () => {
-    h = await startHarness();
-    b = await h.browser();
-    t = await b.open("/signup");
-    await signUp(t, ADMIN);
-  });
-  afterAll(async () => {
-    await h?.close();
-  });
 
   it("a target free in an empty corner of the cell: meets, with its clearance", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const ids = await p.evaluate(async (I) => {
       const arms = (await (await fetch("/api/arms")).json()).arms as { id: string; name: string }[];
       const arm = arms.find((a) => a.name === "Reach Cobot 10")!;
@@ -54,7 +43,7 @@ describe("the cell on the pages", () => {
   });
 
   it("the editor refuses a zero side and an unknown contact name at their cells, then saves the crate moved onto the target", async () => {
-    const p = t.page;
+    const p = s.t.page;
     await p.goto(`/requirements/${reqId}`);
     const table = p.getByTestId("obstacle-table");
     await table.getByLabel("obstacle 1 (crate) y side (mm)").fill("0");
@@ -80,7 +69,7 @@ describe("the cell on the pages", () => {
   });
 
   it("analysed again, the target fails and the reason names what hits the crate", async () => {
-    const p = t.page;
+    const p = s.t.page;
     await p.goto(shortlistUrl);
     const notice = p.getByTestId("stale-notice");
     await notice.getByText("requirement set Crate cell: revision 1 → 2", { exact: false }).waitFor();
@@ -94,6 +83,6 @@ describe("the cell on the pages", () => {
     const row = p.getByTestId("cell-table").getByRole("row", { name: /probe/ });
     await row.getByText("no", { exact: true }).waitFor();
     await row.getByText(/hits crate/).waitFor();
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 });

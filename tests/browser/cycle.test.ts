@@ -10,15 +10,13 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ShortlistAnalysis } from "@/lib/analysis";
 import { readXlsx, sheetRecords } from "../export/parse";
-import { signUp, startHarness, type Browser, type Harness, type TrackedPage } from "./harness";
+import { withAdminSession } from "./session";
 
 const ADMIN = { email: "cyra@example.test", name: "Cyra Cycle", password: "a long takt-time passphrase" };
 const I = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
 
 describe("cycle time on the pages", () => {
-  let h: Harness;
-  let b: Browser;
-  let t: TrackedPage;
+  const s = withAdminSession(ADMIN);
   let reqId = "";
   let shortlistId = "";
   let armIds: string[] = [];
@@ -26,22 +24,17 @@ describe("cycle time on the pages", () => {
 
   beforeAll(async () => {
     tmp = mkdtempSync(path.join(os.tmpdir(), "armsift-cycle-"));
-    h = await startHarness();
-    b = await h.browser();
-    t = await b.open("/signup");
-    await signUp(t, ADMIN);
   });
   afterAll(async () => {
-    await h?.close();
     rmSync(tmp, { recursive: true, force: true });
   });
 
   const exported = async () =>
-    (await t.page.evaluate(async (id) => (await (await fetch(`/api/shortlists/${id}/export?format=json`)).json()).analysis, shortlistId)) as ShortlistAnalysis;
-  const segments = (armId: string) => t.page.getByTestId("cycle-chart").locator(`[data-testid='cycle-segment'][data-arm-id='${armId}']`);
+    (await s.t.page.evaluate(async (id) => (await (await fetch(`/api/shortlists/${id}/export?format=json`)).json()).analysis, shortlistId)) as ShortlistAnalysis;
+  const segments = (armId: string) => s.t.page.getByTestId("cycle-chart").locator(`[data-testid='cycle-segment'][data-arm-id='${armId}']`);
 
   it("two copies of a demo arm, one with acceleration limits on joints 1 to 4: the arm editor names the joints without one", async () => {
-    const p = t.page;
+    const p = s.t.page;
     armIds = await p.evaluate(async () => {
       const arms = (await (await fetch("/api/arms")).json()).arms as { id: string; name: string }[];
       const src = (await (await fetch(`/api/arms/${arms.find((a) => a.name === "Reach Cobot 10")!.id}`)).json()).arm;
@@ -67,7 +60,7 @@ describe("cycle time on the pages", () => {
   });
 
   it("a shortlist shows the cycle of each arm, its verdict, the estimate mark and one bar segment per step", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const ids = await p.evaluate(
       async ({ I, armIds }) => {
         const doc = {
@@ -111,11 +104,11 @@ describe("cycle time on the pages", () => {
     const steps = p.getByTestId("cycle-steps").first();
     expect(await steps.locator("tbody tr").count()).toBe(2);
     expect(await steps.locator("tfoot").textContent()).toContain(a.arms[0].cycles[0].time!.toFixed(2));
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 
   it("a wait added by keyboard and a required rate: saved, analysed again, the cycle 2 s longer and a third segment per bar", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const before = (await exported()).arms.map((x) => x.cycles[0].time!);
     await p.goto(`/requirements/${reqId}`);
     const seq = p.getByTestId("sequence-1");
@@ -158,11 +151,11 @@ describe("cycle time on the pages", () => {
       expect(await segments(id).count()).toBe(3);
     }
     await p.getByTestId("cycle-section").getByText("required 15.00 s per cycle (240 parts per hour)").waitFor();
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 
   it("the XLSX download has the cycle of each arm as the page shows it, and its steps", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const [dl] = await Promise.all([p.waitForEvent("download"), p.getByTestId("exports").getByRole("link", { name: "Ranking + compliance XLSX" }).click()]);
     const file = path.join(tmp, dl.suggestedFilename());
     await dl.saveAs(file);

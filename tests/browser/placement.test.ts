@@ -3,30 +3,19 @@
 // rankings with the change per arm, the placement in mm and degrees, the coverage map (switched
 // between arms with the keyboard-usable select) and saving a placement as the set's nominal base
 // (a new revision, whose base is the placement shown).
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { signUp, startHarness, type Browser, type Harness, type TrackedPage } from "./harness";
+import { describe, expect, it } from "vitest";
+import { withAdminSession } from "./session";
 
 const ADMIN = { email: "lea@example.test", name: "Lea Layout", password: "a long cell layout passphrase" };
 const I = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
 
 describe("mount placement on the shortlist page", () => {
-  let h: Harness;
-  let b: Browser;
-  let t: TrackedPage;
+  const s = withAdminSession(ADMIN);
   let reqId = "";
 
-  beforeAll(async () => {
-    h = await startHarness();
-    b = await h.browser();
-    t = await b.open("/signup");
-    await signUp(t, ADMIN);
-  });
-  afterAll(async () => {
-    await h?.close();
-  });
 
   it("shows both rankings, the placement and its coverage map, and saves a placement as a new revision", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const ids = await p.evaluate(async (I) => {
       const arms = (await (await fetch("/api/arms")).json()).arms as { id: string; name: string }[];
       const pick = ["Reach Cobot 10", "Compact Six 3"].map((n) => arms.find((a) => a.name === n)!.id);
@@ -83,6 +72,6 @@ describe("mount placement on the shortlist page", () => {
     // a second save from the same (now stale) result is refused: the set moved on
     await compact.getByRole("button", { name: /Save Compact Six 3's placement/ }).click();
     await panel.getByText("Not saved: the requirement set is at revision 2", { exact: false }).waitFor();
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 });

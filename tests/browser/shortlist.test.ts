@@ -11,7 +11,7 @@ import { analyzeShortlist, rankArms, SUB_SCORE_KEYS, type ShortlistAnalysis } fr
 import { SUB_SCORES } from "@/shared/sub-scores";
 import type { Weights } from "@/shared/schemas/requirements";
 import { readCsvExport, readXlsx, sheetRecords } from "../export/parse";
-import { signUp, startHarness, type Browser, type Harness, type TrackedPage } from "./harness";
+import { withAdminSession } from "./session";
 
 const ADMIN = { email: "pia@example.test", name: "Pia Buyer", password: "a long procurement passphrase" };
 const SCENARIO = "Bench assembly: sensor housing press-fit";
@@ -24,34 +24,27 @@ interface ExportJson {
 const inputsOf = (a: ShortlistAnalysis) => a.arms.map((x) => ({ armId: x.id, subScores: x.subScores, failedMusts: x.failedMusts, unknownMusts: x.unknownMusts }));
 
 describe("shortlist page", () => {
-  let h: Harness;
-  let b: Browser;
-  let t: TrackedPage;
+  const s = withAdminSession(ADMIN);
   let shortlistUrl = "";
   let firstRunId = "";
   let tmp = "";
 
   beforeAll(async () => {
     tmp = mkdtempSync(path.join(os.tmpdir(), "armsift-shortlist-"));
-    h = await startHarness();
-    b = await h.browser();
-    t = await b.open("/signup");
-    await signUp(t, ADMIN);
   });
   afterAll(async () => {
-    await h?.close();
     rmSync(tmp, { recursive: true, force: true });
   });
 
   const domOrder = async () => {
-    const p = t.page;
+    const p = s.t.page;
     const q = await p.getByTestId("ranking-row").evaluateAll((els) => els.map((e) => e.getAttribute("data-arm-id")!));
     const d = await p.getByTestId("disqualified-row").evaluateAll((els) => els.map((e) => e.getAttribute("data-arm-id")!));
     return [...q, ...d];
   };
 
   it("creates a shortlist from the demo catalog, analyses it and ranks as the analysis library does", async () => {
-    const p = t.page;
+    const p = s.t.page;
     await p.goto("/shortlists");
     await p.getByRole("link", { name: "New shortlist" }).click();
     await p.waitForURL("**/shortlists/new");
@@ -91,11 +84,11 @@ describe("shortlist page", () => {
       const row = p.locator(`[data-testid="disqualified-row"][data-arm-id="${r.armId}"]`);
       expect(await row.textContent()).toContain(r.failedMusts[0]);
     }
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 
   it("re-ranks when a weight moves, and resets", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const exported = (await p.evaluate(async (u) => (await fetch(`/api/shortlists/${u.split("/")[2]}/export?format=json`)).json(), shortlistUrl)) as ExportJson;
     const a = exported.analysis;
     const base = rankArms(inputsOf(a), a.weights).map((r) => r.armId);
@@ -118,7 +111,7 @@ describe("shortlist page", () => {
   });
 
   it("opens a task-matrix cell's details with the keyboard", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const cells = p.getByTestId("task-matrix").locator("button.cellbtn");
     await cells.first().focus();
     await p.keyboard.press("Tab");
@@ -140,7 +133,7 @@ describe("shortlist page", () => {
   });
 
   it("downloads the CSV and the XLSX, whose values and units match the page", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const read = async (name: string) => {
       const [dl] = await Promise.all([p.waitForEvent("download"), p.getByTestId("exports").getByRole("link", { name }).click()]);
       const file = path.join(tmp, dl.suggestedFilename());
@@ -199,13 +192,13 @@ describe("shortlist page", () => {
       return [a.status, (await a.json()).error.fieldErrors[0].path, b.status, (await b.json()).error.fieldErrors[0].path, c.status];
     }, sid);
     expect(bad).toEqual([400, "weights", 400, "format", 404]);
-    t.expect(/status of 40[04]/);
+    s.t.expect(/status of 40[04]/);
     const md = sheets.Metadata.map((r) => String(r[0]) + ": " + String(r[1]));
     expect(md.some((l) => l.startsWith("Weights: ") && l.includes("adjusted on the page"))).toBe(true);
   });
 
   it("prints to a PDF report without navigation and with the compliance table", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const file = path.join(tmp, "report.pdf");
     await p.emulateMedia({ media: "print" });
     await p.pdf({ path: file, format: "A4", printBackground: false });
@@ -222,7 +215,7 @@ describe("shortlist page", () => {
   });
 
   it("sends the arm sections beyond the first three collapsed and loads one on demand from the run's view endpoint", async () => {
-    const p = t.page;
+    const p = s.t.page;
     await p.goto(shortlistUrl);
     const sections = p.getByTestId("arm-section");
     await sections.first().waitFor();
@@ -241,11 +234,11 @@ describe("shortlist page", () => {
     await p.getByTestId("arm-sections-load-all").click();
     await expect.poll(() => collapsed.count()).toBe(0);
     expect(await p.getByRole("heading", { name: "Payload", level: 4 }).count()).toBe(9);
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 
   it("says when an arm has a newer revision; re-pinning gives a new result and keeps the old one readable", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const exported = (await p.evaluate(async (u) => (await fetch(`/api/shortlists/${u.split("/")[2]}/export?format=json`)).json(), shortlistUrl)) as ExportJson;
     const target = exported.meta.arms[0];
     const status = await p.evaluate(async (armId) => {
@@ -272,11 +265,11 @@ describe("shortlist page", () => {
     await label.getByText(`${target.name} rev 1`, { exact: false }).waitFor();
     await p.getByTestId("ranking").waitFor();
     expect(await p.getByTestId("compliance-row").count()).toBeGreaterThan(3);
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 
   it("the shortlists list shows the signed-in member's unread comment count in words", async () => {
-    const p = t.page;
+    const p = s.t.page;
     const id = shortlistUrl.split("/")[2];
     const cell = () => p.getByTestId("shortlist-table").getByRole("row").filter({ has: p.getByRole("link", { name: "Press-fit cell candidates" }) }).getByTestId("unread-count");
     await p.goto("/shortlists");
@@ -304,6 +297,6 @@ describe("shortlist page", () => {
     expect(after[1]).toBe(201);
     await p.goto("/shortlists");
     expect(await cell().textContent()).toBe("0 unread");
-    expect(t.errors()).toEqual([]);
+    expect(s.t.errors()).toEqual([]);
   });
 });
